@@ -1,0 +1,87 @@
+// The DC operating point (`analyze bias()`) and DC sweeps (`analyze sweep`):
+// options, results and the functions that run them.
+//
+//   stage::BiasResult op = stage::run_bias(circuit);
+//   for (const auto& q : op.bipolars) std::cout << q.name << " " << q.region;
+#pragma once
+
+#include <map>
+#include <string>
+#include <vector>
+
+#include "stage/analyses.hpp"
+#include "stage/circuit.hpp"
+
+namespace stage {
+
+// One transistor at the bias point. Currents flow into the device at that
+// terminal; voltages are terminal voltages (spec section 7).
+struct BipolarOperatingPoint {
+  std::string name;
+  Polarity polarity = Polarity::npn;
+  std::string region;  // forward_active, saturation, cutoff, reverse_active
+  double collector_current = 0, base_current = 0, emitter_current = 0;
+  double vbe = 0, vce = 0, vbc = 0;
+  double gm = 0;     // dIC/dVBE (S)
+  double r_pi = 0;   // dVBE/dIB (ohm)
+  double r_out = 0;  // dVCE/dIC (ohm), infinity without Early effect
+  double c_pi = 0, c_mu = 0, c_cs = 0;  // B-E, B-C, C-S small-signal capacitances (F)
+  double power = 0;  // W dissipated
+};
+
+struct DiodeOperatingPoint {
+  std::string name;
+  double current = 0;  // anode to cathode through the diode
+  double voltage = 0;  // v(anode) - v(cathode)
+  double resistance = 0;   // small-signal dV/dI
+  double capacitance = 0;  // small-signal dQ/dV
+  double power = 0;
+};
+
+struct SupplyPower {
+  std::string name;   // the voltage or current source
+  double current = 0; // its reported current
+  double power = 0;   // delivered into the circuit (W); negative if absorbing
+};
+
+// How Newton got there: plain, or through a fallback homotopy.
+enum class BiasMethod { newton, conductance_stepping, source_stepping };
+
+struct BiasResult {
+  bool converged = false;
+  int newton_iterations = 0;  // total, over every homotopy step
+  BiasMethod method = BiasMethod::newton;
+  double max_kcl_residual = 0;  // A, largest |KCL sum| over the nodes
+  double temperature = kRoomTemperature;
+  std::vector<std::pair<std::string, double>> node_voltages;      // circuit nodes, in order of appearance
+  std::vector<std::pair<std::string, double>> element_currents;   // "<name>.current"
+  std::vector<BipolarOperatingPoint> bipolars;
+  std::vector<DiodeOperatingPoint> diodes;
+  std::vector<SupplyPower> supplies;
+
+  double voltage(const std::string& node) const;  // throws std::out_of_range
+  double current(const std::string& element) const;  // element name, without ".current"
+  const BipolarOperatingPoint& bipolar(const std::string& name) const;
+  const DiodeOperatingPoint& diode(const std::string& name) const;
+};
+
+// Throws NumericalError (naming nodes) if no operating point is found.
+BiasResult run_bias(const Circuit& circuit);
+
+struct SweepPoint {
+  double value = 0;
+  BiasResult bias;
+};
+
+struct SweepResult {
+  SweepOptions options;
+  std::vector<SweepPoint> points;
+};
+
+// Source and temperature sweeps. Parameter sweeps need the text's `let`
+// parameters: see run_parameter_sweep in stage/run.hpp.
+SweepResult run_sweep(const Circuit& circuit, const SweepOptions& options);
+
+std::string_view to_string(BiasMethod method);
+
+}  // namespace stage

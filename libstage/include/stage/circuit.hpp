@@ -1,0 +1,151 @@
+// A flat, elaborated circuit: named nodes, elements with numeric values and
+// models. This is what the reader produces from a `.stage` file and what an
+// embedding tool builds in code; every analysis takes it as input.
+//
+//   stage::Circuit c;
+//   c.add("vcc", stage::VoltageSource{"vcc", "gnd", 12.0});
+//   c.add("r1", stage::Resistor{"vcc", "out", 1e3});
+//
+// Node names are strings; `gnd` is the ground node. Hierarchical names from
+// blocks look like `x1/q` and `x1/mid`.
+#pragma once
+
+#include <map>
+#include <optional>
+#include <string>
+#include <variant>
+#include <vector>
+
+#include "stage/models.hpp"
+#include "stage/waveform.hpp"
+
+namespace stage {
+
+inline constexpr const char* kGround = "gnd";
+
+struct Resistor {
+  std::string a, b;
+  double resistance = 0;
+};
+
+struct Capacitor {
+  std::string a, b;
+  double capacitance = 0;
+  std::optional<double> initial_voltage;  // used by a transient with start = zero
+};
+
+struct Inductor {
+  std::string a, b;
+  double inductance = 0;
+  std::optional<double> initial_current;
+};
+
+// Holds v(p) - v(n). Its reported current is the current it delivers: out of
+// `p` into the circuit.
+struct VoltageSource {
+  std::string p, n;
+  double dc = 0;
+  double ac_magnitude = 0;
+  double ac_phase_deg = 0;
+  std::optional<Waveform> wave;
+};
+
+// Drives current from `a` through the source into `b`.
+struct CurrentSource {
+  std::string a, b;
+  double dc = 0;
+  double ac_magnitude = 0;
+  double ac_phase_deg = 0;
+  std::optional<Waveform> wave;
+};
+
+// v(p) - v(n) = gain * (v(cp) - v(cn))
+struct VoltageControlledVoltageSource {
+  std::string p, n, control_p, control_n;
+  double gain = 0;
+};
+
+// current gain * (v(cp) - v(cn)) from `a` through it to `b`
+struct VoltageControlledCurrentSource {
+  std::string a, b, control_p, control_n;
+  double gain = 0;
+};
+
+// current gain * i(sense) from `a` through it to `b`
+struct CurrentControlledCurrentSource {
+  std::string a, b, sense;
+  double gain = 0;
+};
+
+// v(p) - v(n) = gain * i(sense)
+struct CurrentControlledVoltageSource {
+  std::string p, n, sense;
+  double gain = 0;
+};
+
+struct Diode {
+  std::string anode, cathode;
+  std::string model;
+  double area = 1;
+};
+
+enum class Polarity { npn, pnp };
+
+struct Bipolar {
+  Polarity polarity = Polarity::npn;
+  std::string collector, base, emitter;
+  std::optional<std::string> substrate;  // default: ground
+  std::string model;
+  double area = 1;
+};
+
+using ElementData =
+    std::variant<Resistor, Capacitor, Inductor, VoltageSource, CurrentSource,
+                 VoltageControlledVoltageSource, VoltageControlledCurrentSource,
+                 CurrentControlledCurrentSource, CurrentControlledVoltageSource,
+                 Diode, Bipolar>;
+
+struct Element {
+  std::string name;
+  ElementData data;
+};
+
+// Newton and integration settings (the `solver(...)` statement).
+enum class Integration { trapezoidal, bdf2 };
+
+struct SolverOptions {
+  double relative_tolerance = 1e-4;
+  double voltage_tolerance = 1e-6;
+  double current_tolerance = 1e-12;
+  int max_newton_iterations = 150;
+  Integration integration = Integration::trapezoidal;
+  // Smallest conductance from every node to ground kept during Newton.
+  double minimum_conductance = 1e-12;
+};
+
+class Circuit {
+ public:
+  std::string title;
+  double temperature = kRoomTemperature;  // kelvin
+  SolverOptions solver;
+
+  // Adds an element; throws std::invalid_argument on a duplicate name.
+  Circuit& add(std::string name, ElementData data);
+  Circuit& add_model(std::string name, BipolarModel model);
+  Circuit& add_model(std::string name, DiodeModel model);
+
+  const std::vector<Element>& elements() const { return elements_; }
+  const Element* find(const std::string& name) const;
+  Element* find(const std::string& name);
+
+  const std::map<std::string, BipolarModel>& bipolar_models() const { return bipolar_models_; }
+  const std::map<std::string, DiodeModel>& diode_models() const { return diode_models_; }
+
+ private:
+  std::vector<Element> elements_;
+  std::map<std::string, std::size_t> index_;
+  std::map<std::string, BipolarModel> bipolar_models_;
+  std::map<std::string, DiodeModel> diode_models_;
+};
+
+}  // namespace stage

@@ -1,0 +1,94 @@
+// Device model parameters (spec section 4) as plain structs, with the table
+// that maps each `.stage` parameter name to its field and unit. Defaults are
+// the spec's; a value of infinity means "effect absent".
+#pragma once
+
+#include <limits>
+#include <span>
+#include <string>
+#include <string_view>
+
+#include "stage/units.hpp"
+
+namespace stage {
+
+inline constexpr double kInfinity = std::numeric_limits<double>::infinity();
+inline constexpr double kRoomTemperature = 300.15;  // 27 °C in kelvin
+
+enum class BipolarForm { gummel_poon, ebers_moll };
+
+struct BipolarModel {
+  BipolarForm form = BipolarForm::gummel_poon;
+  double saturation_current = 1e-16;
+  double beta_forward = 100;
+  double beta_reverse = 1;
+  double emission_forward = 1;
+  double emission_reverse = 1;
+  double early_voltage_forward = kInfinity;
+  double early_voltage_reverse = kInfinity;
+  double knee_current_forward = kInfinity;
+  double knee_current_reverse = kInfinity;
+  double be_leakage_current = 0;
+  double be_leakage_emission = 1.5;
+  double bc_leakage_current = 0;
+  double bc_leakage_emission = 2;
+  double base_resistance = 0;
+  double base_resistance_min = -1;  // negative: equal to base_resistance
+  double base_resistance_half_current = kInfinity;
+  double emitter_resistance = 0;
+  double collector_resistance = 0;
+  double be_capacitance = 0;
+  double be_potential = 0.75;
+  double be_grading = 0.33;
+  double bc_capacitance = 0;
+  double bc_potential = 0.75;
+  double bc_grading = 0.33;
+  double bc_internal_fraction = 1;
+  double cs_capacitance = 0;
+  double cs_potential = 0.75;
+  double cs_grading = 0;
+  double forward_transit_time = 0;
+  double reverse_transit_time = 0;
+  double transit_bias_coefficient = 0;
+  double transit_bc_voltage = kInfinity;
+  double transit_high_current = 0;
+  double excess_phase = 0;  // degrees
+  double depletion_fill_coefficient = 0.5;
+  double beta_temperature_exponent = 0;
+  double bandgap_energy = 1.11;  // eV
+  double saturation_current_temperature_exponent = 3;
+  double reference_temperature = kRoomTemperature;
+  double flicker_coefficient = 0;
+  double flicker_exponent = 1;
+};
+
+struct DiodeModel {
+  double saturation_current = 1e-14;
+  double emission_coefficient = 1;
+  double series_resistance = 0;
+  double junction_capacitance = 0;
+  double junction_potential = 1;
+  double grading = 0.5;
+  double transit_time = 0;
+  double breakdown_voltage = kInfinity;
+  double breakdown_current = 1e-3;
+  double depletion_fill_coefficient = 0.5;
+  double bandgap_energy = 1.11;
+  double saturation_current_temperature_exponent = 3;
+  double reference_temperature = kRoomTemperature;
+};
+
+// One row of a model's parameter table.
+template <class Model>
+struct ModelParameter {
+  std::string_view name;
+  double Model::*field;
+  Quantity quantity;
+  // True for the Gummel–Poon extras that `form = ebers_moll` rejects.
+  bool gummel_poon_only = false;
+};
+
+std::span<const ModelParameter<BipolarModel>> bipolar_parameters();
+std::span<const ModelParameter<DiodeModel>> diode_parameters();
+
+}  // namespace stage

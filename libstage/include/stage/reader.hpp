@@ -1,0 +1,51 @@
+// Reading `.stage` files (spec: libstage/src/reader/circuit-format.md) into a
+// Deck: the elaborated circuit and its analysis statements.
+#pragma once
+
+#include <filesystem>
+#include <map>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "stage/analyses.hpp"
+#include "stage/circuit.hpp"
+
+namespace stage {
+
+struct ReadOptions {
+  // Searched for `include` after the including file's own folder. The
+  // project's models/ folder is appended by default_model_path().
+  std::vector<std::filesystem::path> model_path;
+  // `let` parameters overridden from outside (the command's --set NAME=VALUE).
+  std::map<std::string, double> overrides;
+};
+
+// The model search path: $STAGE_MODEL_PATH (colon-separated) then the
+// installed and source-tree models/ folders.
+std::vector<std::filesystem::path> default_model_path();
+
+class SyntaxTree;  // reader-internal
+
+// A read circuit description.
+class Deck {
+ public:
+  Circuit circuit;
+  std::vector<AnalysisStatement> analyses;
+  std::filesystem::path file;
+
+  // The circuit elaborated again with one `let` parameter set to `value`
+  // (parameter sweeps). Throws InputError if `name` is not a parameter.
+  Circuit with_parameter(const std::string& name, double value) const;
+
+  // Internal: the syntax tree and options the deck was elaborated from.
+  std::shared_ptr<const SyntaxTree> tree;
+  ReadOptions options;
+};
+
+// Throw InputError on any problem in the text; nothing is run.
+Deck read_file(const std::filesystem::path& path, const ReadOptions& options = {});
+Deck read_text(const std::string& text, const std::string& file_name,
+               const ReadOptions& options = {});
+
+}  // namespace stage

@@ -1,0 +1,19 @@
+// Turns an element of a Circuit into its Device.
+#pragma once
+
+#include <memory>
+
+#include "mna/device.hpp"
+
+namespace stage::mna {
+class Topology;
+}
+
+namespace stage::devices {
+
+// Allocates the element's internal nodes and branch unknowns in `topology`.
+// Throws std::invalid_argument for an unknown model name.
+std::unique_ptr<mna::Device> make_device(const Element& element, const Circuit& circuit,
+                                         mna::Topology& topology);
+
+}  // namespace stage::devices

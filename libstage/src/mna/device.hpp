@@ -1,0 +1,123 @@
+// The one contract every circuit element implements.
+//
+// Modified nodal analysis writes the circuit as F(x, t) = f(x, t) + dq(x)/dt = 0
+// where x holds the node voltages then the branch currents, f are resistive
+// currents (and branch equations) and q are charges (and inductor fluxes).
+// Row k of F is KCL at node k (current leaving the node) or the equation of
+// branch k. Every analysis is built from the same four quantities:
+//
+//   f (size n)    resistive residual       G = df/dx (sparse, n x n)
+//   q (size n)    charge / flux            C = dq/dx (same pattern as G)
+//
+// DC solves f = 0 with Jacobian G; AC solves (G + jwC) X = B at the bias
+// point; a transient integrates q and solves f + q' = 0 each step.
+//
+// Storage layout. A device declares once, in declare(), every (row, col) it
+// will ever touch and keeps the Slot it gets back. In evaluate() it adds into
+// g[slot] and c[slot] (the compressed-column value arrays of G and C) and into
+// f[row] and q[row]. declare() is called twice: once to collect the pattern,
+// once after compression to hand out final slots; it must ask for the same
+// entries in the same order both times and keep the slots of the last call.
+//
+// Ground is index 0 (kGroundIndex) and unknowns are 1..n, so x, f and q have
+// n + 1 entries: x[0] is always 0, f[0] and q[0] are trash, and entries of G
+// and C in ground's row or column map to a trash slot at the end of g and c.
+// Devices therefore never branch on ground. All arrays are zeroed by the
+// caller before each evaluation; devices add.
+#pragma once
+
+#include <complex>
+#include <string>
+#include <vector>
+
+#include "stage/bias.hpp"
+#include "stage/circuit.hpp"
+
+namespace stage::mna {
+
+using Index = int;
+inline constexpr Index kGroundIndex = 0;
+using Slot = int;
+
+class Topology;
+class PatternBuilder;
+class TopologyCheck;
+
+// What an evaluation is for. The same evaluate() serves DC, AC bias, and each
+// transient step.
+struct EvalRequest {
+  const double* x = nullptr;  // x[0] = 0 (ground), unknowns x[1..n]
+  double time = 0;            // seconds; used when !dc
+  bool dc = true;             // sources at their DC value; else at `time`
+  double source_scale = 1;    // independent sources scaled (source stepping)
+  bool limit = false;         // junction-voltage limiting (Newton iterations > 1)
+  double temperature = kRoomTemperature;
+};
+
+// Where an evaluation goes. f and q have n + 1 entries (0 is trash); g and c
+// have nnz + 1 (the last is trash).
+struct EvalOutput {
+  double* f = nullptr;
+  double* q = nullptr;
+  double* g = nullptr;
+  double* c = nullptr;
+};
+
+struct OperatingPointReport {
+  std::vector<BipolarOperatingPoint> bipolars;
+  std::vector<DiodeOperatingPoint> diodes;
+  // "<name>.current" -> value, in the sign convention of spec section 3.
+  std::vector<std::pair<std::string, double>> currents;
+};
+
+class Device {
+ public:
+  explicit Device(std::string name) : name_(std::move(name)) {}
+  virtual ~Device() = default;
+  Device(const Device&) = delete;
+  Device& operator=(const Device&) = delete;
+
+  const std::string& name() const { return name_; }
+
+  // Called once after construction: ask for every (row, col) entry used.
+  virtual void declare(PatternBuilder& pattern) = 0;
+
+  // Add f, q, G = df/dx and C = dq/dx at request.x into `out`.
+  // With request.limit a junction device may evaluate at a limited junction
+  // voltage v' near its last one and stamp the linearisation
+  // f(v') + G (v - v'), so the Newton update stays consistent.
+  virtual void evaluate(const EvalRequest& request, EvalOutput& out) = 0;
+
+  // True if f or q depend nonlinearly on x (Newton must iterate).
+  virtual bool nonlinear() const { return false; }
+
+  // Forget limiting history (new analysis, new starting point).
+  virtual void reset_limiting() {}
+
+  // Small-signal excitation of this source, added into b (n + 1 entries, 0 is
+  // trash) on the right-hand side of (G + jwC) X = b.
+  virtual void ac_excitation(std::complex<double>* /*b*/) const {}
+
+  // Times in (from, to] where this device's waveform has a corner.
+  virtual void corners(double /*from*/, double /*to*/, std::vector<double>& /*out*/) const {}
+
+  // Which pairs of nodes this device ties together at DC, for diagnosing a
+  // singular system (floating nodes, loops of voltage sources, cut-sets).
+  virtual void describe_topology(TopologyCheck& check) const = 0;
+
+  // Report currents and operating point at solution x.
+  virtual void report(const EvalRequest& at, OperatingPointReport& out) const {
+    (void)at;
+    (void)out;
+  }
+
+  // Row of the branch current this device owns, if it has one (voltage
+  // sources and inductors; current-controlled sources sense it).
+  virtual Index branch() const { return kGroundIndex; }
+
+
+ private:
+  std::string name_;
+};
+
+}  // namespace stage::mna

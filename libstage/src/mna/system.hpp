@@ -1,0 +1,59 @@
+// A circuit turned into its MNA system: the devices, the numbering of the
+// unknowns, the sparse pattern, and evaluation of f, q, G and C at a point.
+#pragma once
+
+#include <memory>
+#include <span>
+#include <string>
+#include <vector>
+
+#include "mna/device.hpp"
+#include "mna/pattern.hpp"
+#include "mna/topology.hpp"
+
+namespace stage::mna {
+
+// Values of one evaluation, laid out as described in device.hpp.
+struct Workspace {
+  std::vector<double> f, q;  // n + 1
+  std::vector<double> g, c;  // nnz + 1
+  EvalOutput output() { return {f.data(), q.data(), g.data(), c.data()}; }
+};
+
+class System {
+ public:
+  // Builds one device per element; throws NumericalError if the graph is
+  // singular at DC (floating node, voltage loop, current cut-set).
+  explicit System(const Circuit& circuit);
+
+  int size() const { return topology_.size(); }
+  const Topology& topology() const { return topology_; }
+  const SparsePattern& pattern() const { return pattern_; }
+  std::span<const std::unique_ptr<Device>> devices() const { return devices_; }
+  Device* find_device(const std::string& name) const;
+  bool nonlinear() const { return nonlinear_; }
+  double temperature() const { return temperature_; }
+  void set_temperature(double kelvin) { temperature_ = kelvin; }
+
+  // Slot of the diagonal entry of unknown i (present for every unknown).
+  Slot diagonal(Index i) const { return diagonal_[i]; }
+
+  Workspace make_workspace() const;
+  // Zeroes `w`, then every device adds its share at request.x.
+  void evaluate(const EvalRequest& request, Workspace& w) const;
+  // request with this system's temperature filled in.
+  EvalRequest request(const double* x) const;
+
+  // Nodes and elements behind the largest entries of a residual, for messages.
+  std::vector<std::string> worst_unknowns(std::span<const double> values, int count) const;
+
+ private:
+  Topology topology_;
+  std::vector<std::unique_ptr<Device>> devices_;
+  SparsePattern pattern_;
+  std::vector<Slot> diagonal_;
+  bool nonlinear_ = false;
+  double temperature_ = kRoomTemperature;
+};
+
+}  // namespace stage::mna
