@@ -119,7 +119,8 @@ struct SolverOptions {
   double current_tolerance = 1e-12;
   int max_newton_iterations = 150;
   Integration integration = Integration::trapezoidal;
-  // Smallest conductance from every node to ground kept during Newton.
+  // Conductance stepping (a fallback when plain Newton fails) lowers a
+  // conductance from every node to ground down to this value, then removes it.
   double minimum_conductance = 1e-12;
 };
 

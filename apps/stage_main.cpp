@@ -1,0 +1,2 @@
+// The `stage` command (being written).
+int main() { return 0; }

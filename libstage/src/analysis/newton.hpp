@@ -1,0 +1,69 @@
+// Newton–Raphson on the MNA residual, shared by every analysis.
+//
+// Solves  F(x) = f(x) + a q(x) + h + gmin x_v = 0  with Jacobian
+//         J    = G    + a C    + gmin I_v
+// where a and h are the integration formula's coefficient and history (zero
+// at DC) and gmin is a homotopy conductance from each voltage unknown to
+// ground. Convergence needs both a small update (relative plus absolute
+// tolerance per unknown kind) and a small residual (KCL at nodes, the branch
+// equation elsewhere, relative to the size of the terms that meet there).
+// Failure is recoverable (status), never an exception: the caller decides
+// whether to step a homotopy, shrink a time step, or give up.
+#pragma once
+
+#include <vector>
+
+#include "mna/sparse_lu.hpp"
+#include "mna/system.hpp"
+#include "stage/circuit.hpp"
+
+namespace stage::analysis {
+
+struct NewtonProblem {
+  mna::EvalRequest request;                  // x is filled in by the solver
+  double reactive_scale = 0;                 // a
+  const double* reactive_history = nullptr;  // h, n + 1 entries (or null)
+  double gmin = 0;
+  int max_iterations = 150;
+};
+
+enum class NewtonStatus { converged, not_converged, singular };
+
+struct NewtonOutcome {
+  NewtonStatus status = NewtonStatus::not_converged;
+  int iterations = 0;  // linear solves done
+  mna::Index singular_unknown = mna::kGroundIndex;
+};
+
+class NewtonSolver {
+ public:
+  NewtonSolver(const mna::System& system, const SolverOptions& options);
+
+  // Iterates from x (n + 1 entries, x[0] = 0) in place.
+  NewtonOutcome solve(std::vector<double>& x, const NewtonProblem& problem);
+
+  // The evaluation at the last point visited (the solution after success).
+  const mna::Workspace& workspace() const { return work_; }
+  // Residual F and last update of the last iteration, for failure messages.
+  const std::vector<double>& residual() const { return residual_; }
+  const std::vector<double>& last_update() const { return update_; }
+  const mna::System& system() const { return system_; }
+  const SolverOptions& options() const { return options_; }
+  mna::SparseLu<double>& lu() { return lu_; }
+
+ private:
+  void assemble(const NewtonProblem& problem, const std::vector<double>& x);
+  bool residual_small() const;
+  bool update_small(const std::vector<double>& x) const;
+
+  const mna::System& system_;
+  SolverOptions options_;
+  mna::Workspace work_;
+  std::vector<double> jacobian_;  // nnz + 1
+  std::vector<double> residual_;  // n + 1
+  std::vector<double> update_;    // n + 1
+  std::vector<double> scale_;     // n + 1: size of the terms meeting in each row
+  mna::SparseLu<double> lu_;
+};
+
+}  // namespace stage::analysis

@@ -1,0 +1,178 @@
+// DC operating point: plain Newton, then conductance stepping, then source
+// stepping (the classic homotopies for circuits that will not start cold),
+// and the report of the solution.
+#include "analysis/operating_point.hpp"
+
+#include <spdlog/spdlog.h>
+
+#include <algorithm>
+#include <cmath>
+
+#include "devices/sources.hpp"
+#include "stage/errors.hpp"
+
+namespace stage::analysis {
+namespace {
+
+constexpr double kFirstConductance = 1e-2;  // S; start of conductance stepping
+constexpr int kMaxHomotopySteps = 400;
+
+NewtonProblem dc_problem(const NewtonSolver& newton, double gmin, double source_scale) {
+  NewtonProblem p;
+  p.request = newton.system().request(nullptr);
+  p.request.source_scale = source_scale;
+  p.gmin = gmin;
+  p.max_iterations = newton.options().max_newton_iterations;
+  return p;
+}
+
+void reset_limiting(const mna::System& system) {
+  for (const auto& d : system.devices()) d->reset_limiting();
+}
+
+// Lowers the node-to-ground conductance from kFirstConductance to the
+// minimum, one decade at a time, finer when a step fails; then removes it.
+bool conductance_stepping(NewtonSolver& newton, std::vector<double>& x, int& iterations) {
+  const double floor = std::max(newton.options().minimum_conductance, 1e-15);
+  std::vector<double> good = x;
+  double gmin = kFirstConductance, factor = 10.0;
+  for (int step = 0; step < kMaxHomotopySteps; ++step) {
+    const auto outcome = newton.solve(x, dc_problem(newton, gmin, 1.0));
+    iterations += outcome.iterations;
+    spdlog::debug("conductance stepping: {:.3g} S {}", gmin,
+                  outcome.status == NewtonStatus::converged ? "converged" : "failed");
+    if (outcome.status == NewtonStatus::converged) {
+      good = x;
+      if (gmin == 0.0) return true;
+      gmin = gmin / factor < floor ? 0.0 : gmin / factor;
+    } else {
+      x = good;
+      reset_limiting(newton.system());
+      if (gmin == 0.0) gmin = floor;
+      factor = std::sqrt(factor);
+      if (factor < 1.01) return false;
+      gmin *= factor;  // back up toward the last good value
+    }
+  }
+  return false;
+}
+
+// Raises every independent source from zero to its full value.
+bool source_stepping(NewtonSolver& newton, std::vector<double>& x, int& iterations) {
+  std::fill(x.begin(), x.end(), 0.0);
+  reset_limiting(newton.system());
+  std::vector<double> good = x;
+  double scale = 0.0, step = 0.1;
+  for (int k = 0; k < kMaxHomotopySteps; ++k) {
+    const double target = std::min(1.0, scale + step);
+    const auto outcome = newton.solve(x, dc_problem(newton, 0.0, target));
+    iterations += outcome.iterations;
+    spdlog::debug("source stepping: {:.4g} {}", target,
+                  outcome.status == NewtonStatus::converged ? "converged" : "failed");
+    if (outcome.status == NewtonStatus::converged) {
+      good = x;
+      scale = target;
+      if (scale >= 1.0) return true;
+      step = std::min(0.25, step * 1.5);
+    } else {
+      x = good;
+      reset_limiting(newton.system());
+      step /= 4.0;
+      if (step < 1e-7) return false;
+    }
+  }
+  return false;
+}
+
+[[noreturn]] void fail(const NewtonSolver& newton, const NewtonOutcome& last) {
+  const mna::System& system = newton.system();
+  if (last.status == NewtonStatus::singular) {
+    const std::string name = system.topology().name(last.singular_unknown);
+    throw NumericalError("the DC system is singular at '" + name +
+                             "': no unique operating point (check for a node held by nothing "
+                             "but junctions in cutoff or by controlled sources alone)",
+                         {name});
+  }
+  const auto worst = system.worst_unknowns(newton.last_update(), 3);
+  std::string message = "no DC operating point found (Newton, conductance stepping and source "
+                        "stepping all failed); did not settle:";
+  for (const auto& name : worst) {
+    const auto index = system.topology().find_node(name);
+    message += " " + name;
+    if (index) {
+      message += " (last change " + std::to_string(newton.last_update()[*index]) +
+                 ", residual " + std::to_string(newton.residual()[*index]) + ")";
+    }
+  }
+  throw NumericalError(message, worst);
+}
+
+}  // namespace
+
+OperatingPoint solve_operating_point(NewtonSolver& newton, std::vector<double>& x) {
+  OperatingPoint how;
+  reset_limiting(newton.system());
+  const std::vector<double> guess = x;
+  auto outcome = newton.solve(x, dc_problem(newton, 0.0, 1.0));
+  how.newton_iterations = outcome.iterations;
+  spdlog::debug("plain Newton: {} after {} iterations",
+                outcome.status == NewtonStatus::converged ? "converged" : "failed",
+                outcome.iterations);
+  if (outcome.status == NewtonStatus::converged) return how;
+  if (outcome.status == NewtonStatus::singular) fail(newton, outcome);
+
+  x = guess;
+  reset_limiting(newton.system());
+  if (conductance_stepping(newton, x, how.newton_iterations)) {
+    how.method = BiasMethod::conductance_stepping;
+    return how;
+  }
+  if (source_stepping(newton, x, how.newton_iterations)) {
+    how.method = BiasMethod::source_stepping;
+    return how;
+  }
+  fail(newton, outcome);
+}
+
+BiasResult describe_operating_point(const mna::System& system, const std::vector<double>& x,
+                                    const OperatingPoint& how) {
+  BiasResult result;
+  result.converged = true;
+  result.newton_iterations = how.newton_iterations;
+  result.method = how.method;
+  result.temperature = system.temperature();
+
+  const auto& topology = system.topology();
+  for (mna::Index i = 1; i <= system.size(); ++i) {
+    if (topology.kind(i) == mna::Topology::Kind::node) {
+      result.node_voltages.emplace_back(topology.name(i), x[i]);
+    }
+  }
+
+  const mna::EvalRequest at = system.request(x.data());
+  mna::OperatingPointReport report;
+  for (const auto& device : system.devices()) {
+    device->report(at, report);
+    if (const auto* v = dynamic_cast<const devices::VoltageSourceDevice*>(device.get())) {
+      const double i = x[v->branch()];
+      result.supplies.push_back({v->name(), i, i * (x[v->p()] - x[v->n()])});
+    } else if (const auto* c = dynamic_cast<const devices::CurrentSourceDevice*>(device.get())) {
+      const double i = c->value().at(at);
+      result.supplies.push_back({c->name(), i, i * (x[c->b()] - x[c->a()])});
+    }
+  }
+  result.element_currents = std::move(report.currents);
+  result.bipolars = std::move(report.bipolars);
+  result.diodes = std::move(report.diodes);
+
+  mna::Workspace w = system.make_workspace();
+  system.evaluate(at, w);
+  for (mna::Index i = 1; i <= system.size(); ++i) {
+    if (topology.is_voltage(i)) {
+      result.max_kcl_residual = std::max(result.max_kcl_residual, std::abs(w.f[i]));
+    }
+  }
+  return result;
+}
+
+}  // namespace stage::analysis

@@ -1,0 +1,124 @@
+// Stamps of the controlled sources.
+#include "devices/controlled.hpp"
+
+#include <stdexcept>
+
+#include "mna/topology_check.hpp"
+
+namespace stage::devices {
+
+mna::Index sensed_branch(mna::PatternBuilder& pattern, const std::string& device,
+                         const std::string& sense) {
+  const auto branch = pattern.topology().find_branch(sense);
+  if (!branch) {
+    throw std::invalid_argument("'" + device + "' senses '" + sense +
+                                "', which is not a voltage source or inductor");
+  }
+  return *branch;
+}
+
+VcvsDevice::VcvsDevice(std::string name, mna::Index p, mna::Index n, mna::Index cp, mna::Index cn,
+                       mna::Index branch, double gain)
+    : Device(std::move(name)), p_(p), n_(n), cp_(cp), cn_(cn), k_(branch), gain_(gain) {}
+
+void VcvsDevice::declare(mna::PatternBuilder& pattern) {
+  output_.declare(pattern, p_, n_, k_);
+  k_cp_ = pattern.entry(k_, cp_);
+  k_cn_ = pattern.entry(k_, cn_);
+}
+
+void VcvsDevice::evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) {
+  const double* x = request.x;
+  out.f[p_] -= x[k_];
+  out.f[n_] += x[k_];
+  out.f[k_] += x[p_] - x[n_] - gain_ * (x[cp_] - x[cn_]);
+  output_.add(out.g, -1.0);
+  out.g[k_cp_] -= gain_;
+  out.g[k_cn_] += gain_;
+}
+
+void VcvsDevice::describe_topology(mna::TopologyCheck& check) const {
+  check.fixes_voltage(p_, n_, name());
+}
+
+void VcvsDevice::report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const {
+  out.currents.emplace_back(name() + ".current", at.x[k_]);
+}
+
+VccsDevice::VccsDevice(std::string name, mna::Index a, mna::Index b, mna::Index cp, mna::Index cn,
+                       double gain)
+    : Device(std::move(name)), a_(a), b_(b), cp_(cp), cn_(cn), gain_(gain) {}
+
+void VccsDevice::declare(mna::PatternBuilder& pattern) {
+  slots_.declare(pattern, a_, b_, cp_, cn_);
+}
+
+void VccsDevice::evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) {
+  const double i = gain_ * (request.x[cp_] - request.x[cn_]);
+  out.f[a_] += i;
+  out.f[b_] -= i;
+  slots_.add(out.g, gain_);
+}
+
+void VccsDevice::describe_topology(mna::TopologyCheck& check) const {
+  check.forces_current(a_, b_, name());
+}
+
+void VccsDevice::report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const {
+  out.currents.emplace_back(name() + ".current", gain_ * (at.x[cp_] - at.x[cn_]));
+}
+
+CccsDevice::CccsDevice(std::string name, mna::Index a, mna::Index b, std::string sense,
+                       double gain)
+    : Device(std::move(name)), a_(a), b_(b), sense_(std::move(sense)), gain_(gain) {}
+
+void CccsDevice::declare(mna::PatternBuilder& pattern) {
+  s_ = sensed_branch(pattern, name(), sense_);
+  a_s_ = pattern.entry(a_, s_);
+  b_s_ = pattern.entry(b_, s_);
+}
+
+void CccsDevice::evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) {
+  const double i = gain_ * request.x[s_];
+  out.f[a_] += i;
+  out.f[b_] -= i;
+  out.g[a_s_] += gain_;
+  out.g[b_s_] -= gain_;
+}
+
+void CccsDevice::describe_topology(mna::TopologyCheck& check) const {
+  check.forces_current(a_, b_, name());
+}
+
+void CccsDevice::report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const {
+  out.currents.emplace_back(name() + ".current", gain_ * at.x[s_]);
+}
+
+CcvsDevice::CcvsDevice(std::string name, mna::Index p, mna::Index n, mna::Index branch,
+                       std::string sense, double gain)
+    : Device(std::move(name)), p_(p), n_(n), k_(branch), sense_(std::move(sense)), gain_(gain) {}
+
+void CcvsDevice::declare(mna::PatternBuilder& pattern) {
+  s_ = sensed_branch(pattern, name(), sense_);
+  output_.declare(pattern, p_, n_, k_);
+  k_s_ = pattern.entry(k_, s_);
+}
+
+void CcvsDevice::evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) {
+  const double* x = request.x;
+  out.f[p_] -= x[k_];
+  out.f[n_] += x[k_];
+  out.f[k_] += x[p_] - x[n_] - gain_ * x[s_];
+  output_.add(out.g, -1.0);
+  out.g[k_s_] -= gain_;
+}
+
+void CcvsDevice::describe_topology(mna::TopologyCheck& check) const {
+  check.fixes_voltage(p_, n_, name());
+}
+
+void CcvsDevice::report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const {
+  out.currents.emplace_back(name() + ".current", at.x[k_]);
+}
+
+}  // namespace stage::devices

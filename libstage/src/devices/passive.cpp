@@ -1,0 +1,85 @@
+// Stamps of the resistor, capacitor and inductor.
+#include "devices/passive.hpp"
+
+#include "mna/topology_check.hpp"
+
+namespace stage::devices {
+
+ResistorDevice::ResistorDevice(std::string name, mna::Index a, mna::Index b, double resistance)
+    : Device(std::move(name)), a_(a), b_(b), conductance_(1.0 / resistance) {}
+
+void ResistorDevice::declare(mna::PatternBuilder& pattern) {
+  slots_.declare(pattern, a_, b_, a_, b_);
+}
+
+void ResistorDevice::evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) {
+  const double i = conductance_ * (request.x[a_] - request.x[b_]);
+  out.f[a_] += i;
+  out.f[b_] -= i;
+  slots_.add(out.g, conductance_);
+}
+
+void ResistorDevice::describe_topology(mna::TopologyCheck& check) const {
+  check.conducts(a_, b_, name());
+}
+
+void ResistorDevice::report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const {
+  out.currents.emplace_back(name() + ".current", conductance_ * (at.x[a_] - at.x[b_]));
+}
+
+CapacitorDevice::CapacitorDevice(std::string name, mna::Index a, mna::Index b, double capacitance,
+                                 std::optional<double> initial_voltage)
+    : Device(std::move(name)),
+      a_(a),
+      b_(b),
+      capacitance_(capacitance),
+      initial_voltage_(initial_voltage) {}
+
+void CapacitorDevice::declare(mna::PatternBuilder& pattern) {
+  slots_.declare(pattern, a_, b_, a_, b_);
+}
+
+void CapacitorDevice::evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) {
+  const double q = capacitance_ * (request.x[a_] - request.x[b_]);
+  out.q[a_] += q;
+  out.q[b_] -= q;
+  slots_.add(out.c, capacitance_);
+}
+
+void CapacitorDevice::describe_topology(mna::TopologyCheck& check) const {
+  check.capacitive(a_, b_, name());
+}
+
+InductorDevice::InductorDevice(std::string name, mna::Index a, mna::Index b, mna::Index branch,
+                               double inductance, std::optional<double> initial_current)
+    : Device(std::move(name)),
+      a_(a),
+      b_(b),
+      k_(branch),
+      inductance_(inductance),
+      initial_current_(initial_current) {}
+
+void InductorDevice::declare(mna::PatternBuilder& pattern) {
+  slots_.declare(pattern, a_, b_, k_);
+  kk_ = pattern.entry(k_, k_);
+}
+
+void InductorDevice::evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) {
+  const double i = request.x[k_];
+  out.f[a_] += i;
+  out.f[b_] -= i;
+  out.f[k_] += request.x[a_] - request.x[b_];
+  out.q[k_] -= inductance_ * i;
+  slots_.add(out.g, 1.0);
+  out.c[kk_] -= inductance_;
+}
+
+void InductorDevice::describe_topology(mna::TopologyCheck& check) const {
+  check.fixes_voltage(a_, b_, name());
+}
+
+void InductorDevice::report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const {
+  out.currents.emplace_back(name() + ".current", at.x[k_]);
+}
+
+}  // namespace stage::devices

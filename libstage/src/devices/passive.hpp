@@ -1,0 +1,62 @@
+// Resistor, capacitor and inductor.
+#pragma once
+
+#include "devices/stamp.hpp"
+
+namespace stage::devices {
+
+class ResistorDevice final : public mna::Device {
+ public:
+  ResistorDevice(std::string name, mna::Index a, mna::Index b, double resistance);
+  void declare(mna::PatternBuilder& pattern) override;
+  void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
+  void describe_topology(mna::TopologyCheck& check) const override;
+  void report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const override;
+
+ private:
+  mna::Index a_, b_;
+  double conductance_;
+  PairSlots slots_;
+};
+
+// q = C (v(a) - v(b)); open at DC.
+class CapacitorDevice final : public mna::Device {
+ public:
+  CapacitorDevice(std::string name, mna::Index a, mna::Index b, double capacitance,
+                  std::optional<double> initial_voltage);
+  void declare(mna::PatternBuilder& pattern) override;
+  void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
+  void describe_topology(mna::TopologyCheck& check) const override;
+  std::optional<double> initial_voltage() const { return initial_voltage_; }
+  mna::Index a() const { return a_; }
+  mna::Index b() const { return b_; }
+
+ private:
+  mna::Index a_, b_;
+  double capacitance_;
+  std::optional<double> initial_voltage_;
+  PairSlots slots_;
+};
+
+// Branch current i (a to b through it) is an unknown; its row holds
+// v(a) - v(b) - d(L i)/dt = 0, so the flux -L i is the branch's "charge".
+class InductorDevice final : public mna::Device {
+ public:
+  InductorDevice(std::string name, mna::Index a, mna::Index b, mna::Index branch,
+                 double inductance, std::optional<double> initial_current);
+  void declare(mna::PatternBuilder& pattern) override;
+  void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
+  void describe_topology(mna::TopologyCheck& check) const override;
+  void report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const override;
+  mna::Index branch() const override { return k_; }
+  std::optional<double> initial_current() const { return initial_current_; }
+
+ private:
+  mna::Index a_, b_, k_;
+  double inductance_;
+  std::optional<double> initial_current_;
+  BranchSlots slots_;
+  mna::Slot kk_ = 0;
+};
+
+}  // namespace stage::devices

@@ -1,0 +1,76 @@
+// Stamps of the independent sources.
+#include "devices/sources.hpp"
+
+#include <numbers>
+
+#include "mna/topology_check.hpp"
+
+namespace stage::devices {
+
+SourceValue::SourceValue(double dc, std::optional<Waveform> wave, double ac_magnitude,
+                         double ac_phase_deg)
+    : dc_(dc),
+      wave_(std::move(wave)),
+      phasor_(std::polar(ac_magnitude, ac_phase_deg * std::numbers::pi / 180.0)) {}
+
+double SourceValue::at(const mna::EvalRequest& request) const {
+  const double v = (request.dc || !wave_) ? dc_ : waveform_value(*wave_, request.time);
+  return request.source_scale * v;
+}
+
+void IndependentSource::corners(double from, double to, std::vector<double>& out) const {
+  if (value_.wave()) waveform_corners(*value_.wave(), from, to, out);
+}
+
+VoltageSourceDevice::VoltageSourceDevice(std::string name, mna::Index p, mna::Index n,
+                                         mna::Index branch, SourceValue value)
+    : IndependentSource(std::move(name), std::move(value)), p_(p), n_(n), k_(branch) {}
+
+void VoltageSourceDevice::declare(mna::PatternBuilder& pattern) {
+  slots_.declare(pattern, p_, n_, k_);
+}
+
+void VoltageSourceDevice::evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) {
+  const double delivered = request.x[k_];
+  out.f[p_] -= delivered;
+  out.f[n_] += delivered;
+  out.f[k_] += request.x[p_] - request.x[n_] - value_.at(request);
+  slots_.add(out.g, -1.0);
+}
+
+void VoltageSourceDevice::ac_excitation(std::complex<double>* b) const { b[k_] += value_.phasor(); }
+
+void VoltageSourceDevice::describe_topology(mna::TopologyCheck& check) const {
+  check.fixes_voltage(p_, n_, name());
+}
+
+void VoltageSourceDevice::report(const mna::EvalRequest& at,
+                                 mna::OperatingPointReport& out) const {
+  out.currents.emplace_back(name() + ".current", at.x[k_]);
+}
+
+CurrentSourceDevice::CurrentSourceDevice(std::string name, mna::Index a, mna::Index b,
+                                         SourceValue value)
+    : IndependentSource(std::move(name), std::move(value)), a_(a), b_(b) {}
+
+void CurrentSourceDevice::evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) {
+  const double i = value_.at(request);
+  out.f[a_] += i;
+  out.f[b_] -= i;
+}
+
+void CurrentSourceDevice::ac_excitation(std::complex<double>* b) const {
+  b[a_] -= value_.phasor();
+  b[b_] += value_.phasor();
+}
+
+void CurrentSourceDevice::describe_topology(mna::TopologyCheck& check) const {
+  check.forces_current(a_, b_, name());
+}
+
+void CurrentSourceDevice::report(const mna::EvalRequest& at,
+                                 mna::OperatingPointReport& out) const {
+  out.currents.emplace_back(name() + ".current", value_.at(at));
+}
+
+}  // namespace stage::devices

@@ -1,0 +1,79 @@
+// Independent voltage and current sources: a DC value, an optional waveform
+// for transients and a small-signal (AC) phasor.
+#pragma once
+
+#include <optional>
+
+#include "devices/stamp.hpp"
+
+namespace stage::devices {
+
+// What a source holds or drives: DC value, waveform, AC phasor.
+class SourceValue {
+ public:
+  SourceValue(double dc, std::optional<Waveform> wave, double ac_magnitude, double ac_phase_deg);
+  // The value an evaluation asks for: DC (or the waveform at `time`),
+  // scaled by the request's source_scale.
+  double at(const mna::EvalRequest& request) const;
+  std::complex<double> phasor() const { return phasor_; }
+  const std::optional<Waveform>& wave() const { return wave_; }
+  double dc() const { return dc_; }
+  void set_dc(double value) { dc_ = value; }
+  void set_wave(std::optional<Waveform> wave) { wave_ = std::move(wave); }
+
+ private:
+  double dc_;
+  std::optional<Waveform> wave_;
+  std::complex<double> phasor_;
+};
+
+// Common face of both sources, for sweeps and drives that change their value.
+class IndependentSource : public mna::Device {
+ public:
+  IndependentSource(std::string name, SourceValue value)
+      : Device(std::move(name)), value_(std::move(value)) {}
+  SourceValue& value() { return value_; }
+  const SourceValue& value() const { return value_; }
+  void corners(double from, double to, std::vector<double>& out) const override;
+
+ protected:
+  SourceValue value_;
+};
+
+// Branch current k is the current the source delivers: out of p into the
+// circuit. Row k holds v(p) - v(n) = V.
+class VoltageSourceDevice final : public IndependentSource {
+ public:
+  VoltageSourceDevice(std::string name, mna::Index p, mna::Index n, mna::Index branch,
+                      SourceValue value);
+  void declare(mna::PatternBuilder& pattern) override;
+  void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
+  void ac_excitation(std::complex<double>* b) const override;
+  void describe_topology(mna::TopologyCheck& check) const override;
+  void report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const override;
+  mna::Index branch() const override { return k_; }
+  mna::Index p() const { return p_; }
+  mna::Index n() const { return n_; }
+
+ private:
+  mna::Index p_, n_, k_;
+  BranchSlots slots_;
+};
+
+// Drives I from a through the source into b.
+class CurrentSourceDevice final : public IndependentSource {
+ public:
+  CurrentSourceDevice(std::string name, mna::Index a, mna::Index b, SourceValue value);
+  void declare(mna::PatternBuilder&) override {}
+  void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
+  void ac_excitation(std::complex<double>* b) const override;
+  void describe_topology(mna::TopologyCheck& check) const override;
+  void report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const override;
+  mna::Index a() const { return a_; }
+  mna::Index b() const { return b_; }
+
+ private:
+  mna::Index a_, b_;
+};
+
+}  // namespace stage::devices
