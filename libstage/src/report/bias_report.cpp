@@ -108,12 +108,14 @@ void write_csv(std::ostream& out, const BiasResult& r) {
   for (const auto& [name, v] : r.node_voltages) out << "v(" << name << ")," << csv_number(v) << '\n';
   for (const auto& [name, i] : r.element_currents) out << name << ',' << csv_number(i) << '\n';
   for (const auto& q : r.bipolars) {
-    for (const auto& [key, value] : bipolar_json(q).items()) {
+    const Json figures = bipolar_json(q);
+    for (const auto& [key, value] : figures.items()) {
       if (value.is_number()) out << q.name << '.' << key << ',' << csv_number(value) << '\n';
     }
   }
   for (const auto& d : r.diodes) {
-    for (const auto& [key, value] : diode_json(d).items()) {
+    const Json figures = diode_json(d);
+    for (const auto& [key, value] : figures.items()) {
       if (value.is_number()) out << d.name << '.' << key << ',' << csv_number(value) << '\n';
     }
   }
@@ -124,7 +126,8 @@ Json to_json(const SweepResult& r) {
   Json points = Json::array();
   for (const auto& p : r.points) {
     Json point{{"value", p.value}};
-    for (auto& [key, value] : to_json(p.bias).items()) {
+    const Json bias = to_json(p.bias);
+    for (const auto& [key, value] : bias.items()) {
       if (key != "kind") point[key] = value;
     }
     points.push_back(std::move(point));
