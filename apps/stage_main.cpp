@@ -1,2 +1,138 @@
-// The `stage` command (being written).
-int main() { return 0; }
+// The `stage` command: reads a `.stage` circuit description, runs its
+// analyses and prints readable tables (default), JSON or CSV.
+//
+// Exit status: 0 success, 2 bad input (nothing ran), 3 numerical failure,
+// 1 anything else (a bug: please report it).
+#include <CLI/CLI.hpp>
+#include <spdlog/sinks/stdout_color_sinks.h>
+#include <spdlog/spdlog.h>
+
+#include <cstdlib>
+#include <iostream>
+
+#include "stage/errors.hpp"
+#include "stage/reader.hpp"
+#include "stage/report.hpp"
+#include "stage/run.hpp"
+
+namespace {
+
+constexpr const char* kDescription =
+    "stage: bias point, frequency response, transients and output headroom of discrete\n"
+    "transistor stages, from a plain-text circuit description (.stage file).";
+
+constexpr const char* kExamples = R"(
+Examples:
+  stage run follower.stage                 readable tables of every analysis in the file
+  stage run follower.stage --json          one JSON document (keys as in the format spec)
+  stage run follower.stage --csv results   one CSV file per analysis in results/
+  stage run follower.stage --set rl=16     override a `let` parameter (SI units: 16 means 16 ohm)
+  stage check follower.stage               read and check the file, run nothing
+
+Exit status: 0 done, 2 error in the input (file, line and column are shown, nothing ran),
+3 the circuit could not be solved (the nodes or elements involved are named).
+Models: `include "general.stage"` finds files next to the circuit, then in $STAGE_MODEL_PATH
+(colon-separated), then in the installed model library.)";
+
+struct Settings {
+  std::string file;
+  bool json = false;
+  std::string csv_dir;
+  std::vector<std::string> sets;
+  std::vector<std::string> model_dirs;
+  bool verbose = false;
+};
+
+stage::ReadOptions read_options(const Settings& s) {
+  stage::ReadOptions options;
+  for (const auto& dir : s.model_dirs) options.model_path.emplace_back(dir);
+  const auto defaults = stage::default_model_path();
+  options.model_path.insert(options.model_path.end(), defaults.begin(), defaults.end());
+  for (const auto& assignment : s.sets) {
+    const auto eq = assignment.find('=');
+    char* end = nullptr;
+    const std::string value = eq == std::string::npos ? "" : assignment.substr(eq + 1);
+    const double number = std::strtod(value.c_str(), &end);
+    if (eq == std::string::npos || eq == 0 || value.empty() || *end != '\0') {
+      throw stage::InputError({"--set", 0, 0},
+                              "expected NAME=NUMBER in SI units (for example rl=32 or "
+                              "c1=4.7e-6), got '" + assignment + "'");
+    }
+    options.overrides[assignment.substr(0, eq)] = number;
+  }
+  return options;
+}
+
+int run(const Settings& s, bool check_only) {
+  const stage::Deck deck = stage::read_file(s.file, read_options(s));
+  stage::check_deck(deck);
+  if (check_only) {
+    std::cout << s.file << ": " << deck.circuit.elements().size() << " elements, "
+              << deck.analyses.size() << " analyses; no errors\n";
+    return 0;
+  }
+  const stage::RunResult result = stage::run_deck(deck);
+  if (s.json) {
+    std::cout << stage::json_document(result) << '\n';
+  } else {
+    stage::print_report(std::cout, result);
+  }
+  if (!s.csv_dir.empty()) {
+    for (const auto& path : stage::write_csv_files(s.csv_dir, result)) {
+      spdlog::info("wrote {}", path.string());
+    }
+  }
+  return 0;
+}
+
+}  // namespace
+
+int main(int argc, char** argv) {
+  auto logger = spdlog::stderr_color_mt("stage");
+  logger->set_pattern("%^%l%$: %v");
+  spdlog::set_default_logger(logger);
+  spdlog::set_level(spdlog::level::warn);
+
+  CLI::App app(kDescription, "stage");
+  app.footer(kExamples);
+  app.set_version_flag("--version", std::string("stage ") + STAGE_VERSION);
+  app.require_subcommand(1);
+
+  Settings s;
+  CLI::App* run_cmd = app.add_subcommand("run", "Read FILE and run every analysis in it");
+  run_cmd->add_option("file", s.file, "Circuit description (.stage)")->required();
+  run_cmd->add_flag("--json", s.json, "Print one JSON document instead of tables");
+  run_cmd->add_option("--csv", s.csv_dir, "Also write one CSV file per analysis into DIR");
+  run_cmd->add_option("--set", s.sets, "Override a `let` parameter: NAME=VALUE (repeatable)");
+  run_cmd->add_option("--model-path", s.model_dirs, "Extra folder searched by `include`");
+  run_cmd->add_flag("--verbose,-v", s.verbose, "Log the solver's steps to stderr");
+
+  CLI::App* check_cmd = app.add_subcommand("check", "Read and check FILE without running it");
+  check_cmd->add_option("file", s.file, "Circuit description (.stage)")->required();
+  check_cmd->add_option("--set", s.sets, "Override a `let` parameter: NAME=VALUE");
+  check_cmd->add_option("--model-path", s.model_dirs, "Extra folder searched by `include`");
+
+  try {
+    app.parse(argc, argv);
+  } catch (const CLI::ParseError& e) {
+    const int code = app.exit(e);
+    return code == 0 ? 0 : stage::kExitInputError;
+  }
+  if (s.verbose) spdlog::set_level(spdlog::level::debug);
+
+  try {
+    return run(s, check_cmd->parsed());
+  } catch (const stage::InputError& e) {
+    std::cerr << e.what() << '\n';
+    return stage::kExitInputError;
+  } catch (const stage::NumericalError& e) {
+    std::cerr << "error: " << e.what() << '\n';
+    return stage::kExitNumericalError;
+  } catch (const std::invalid_argument& e) {
+    std::cerr << s.file << ": error: " << e.what() << '\n';
+    return stage::kExitInputError;
+  } catch (const std::exception& e) {
+    std::cerr << "internal error: " << e.what() << '\n';
+    return 1;
+  }
+}

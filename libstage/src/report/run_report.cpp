@@ -1,0 +1,57 @@
+// Whole-run reports: dispatch on each analysis result to its own report.
+#include <fstream>
+
+#include "report/bias_report.hpp"
+#include "stage/report.hpp"
+
+namespace stage {
+namespace {
+
+using report::Json;
+
+std::string_view kind_of(const AnalysisResult& result) {
+  struct Visitor {
+    std::string_view operator()(const BiasResult&) const { return "bias"; }
+    std::string_view operator()(const SweepResult&) const { return "sweep"; }
+  };
+  return std::visit(Visitor{}, result);
+}
+
+}  // namespace
+
+std::string json_document(const RunResult& run, int indent) {
+  Json analyses = Json::array();
+  for (const auto& result : run.analyses) {
+    analyses.push_back(std::visit([](const auto& r) { return report::to_json(r); }, result));
+  }
+  const Json document{
+      {"title", run.title}, {"temperature_K", run.temperature}, {"analyses", analyses}};
+  return document.dump(indent);
+}
+
+void print_report(std::ostream& out, const RunResult& run) {
+  if (!run.title.empty()) out << run.title << "\n\n";
+  bool first = true;
+  for (const auto& result : run.analyses) {
+    if (!first) out << '\n';
+    first = false;
+    std::visit([&](const auto& r) { report::print_table(out, r); }, result);
+  }
+}
+
+std::vector<std::filesystem::path> write_csv_files(const std::filesystem::path& dir,
+                                                   const RunResult& run) {
+  std::filesystem::create_directories(dir);
+  std::vector<std::filesystem::path> written;
+  for (std::size_t i = 0; i < run.analyses.size(); ++i) {
+    const auto path =
+        dir / (std::to_string(i + 1) + "_" + std::string(kind_of(run.analyses[i])) + ".csv");
+    std::ofstream file(path);
+    std::visit([&](const auto& r) { report::write_csv(file, r); }, run.analyses[i]);
+    if (!file) throw std::runtime_error("cannot write " + path.string());
+    written.push_back(path);
+  }
+  return written;
+}
+
+}  // namespace stage
