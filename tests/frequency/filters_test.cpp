@@ -1,0 +1,128 @@
+// First- and second-order filters against their exact transfer functions
+// (any circuits text, e.g. Sedra & Smith, "Microelectronic Circuits", ch. 1
+// and 17): the sweep, the derived corners, and the impedances.
+#include <gtest/gtest.h>
+
+#include "frequency/response_checks.hpp"
+#include "stage/frequency.hpp"
+
+namespace {
+
+using stage::Circuit;
+using stage::FrequencyOptions;
+using stage::test::Complex;
+using stage::test::jw;
+
+constexpr double kR = 1.5e3, kC = 47e-9;
+// LU on 2 to 4 unknowns with condition below 1e6 at every frequency here:
+// cond * eps ~ 1e-10 at worst, so 1e-9 leaves room without hiding errors
+// of any modelling kind (which would be of order 1).
+constexpr double kTolerance = 1e-9;
+
+FrequencyOptions sweep(double from, double to) {
+  FrequencyOptions o;
+  o.from = from;
+  o.to = to;
+  o.per_decade = 20;
+  o.input = "vin";
+  o.output = stage::SignalRef::node("out");
+  return o;
+}
+
+// Gain in dB and phase in degrees are the response's, so a response within
+// kTolerance bounds them by 20/ln(10) kTolerance dB and kTolerance rad.
+void expect_sweep(const stage::FrequencyResult& r, Complex (*exact)(double)) {
+  ASSERT_EQ(r.frequencies.size(), r.response.size());
+  for (std::size_t i = 0; i < r.frequencies.size(); ++i) {
+    const double f = r.frequencies[i];
+    const Complex h = exact(f);
+    stage::test::expect_response(r.response[i], h, kTolerance, "response", f);
+    EXPECT_NEAR(r.gain_dB[i], 20 * std::log10(std::abs(h)), 8.7 * kTolerance);
+    EXPECT_NEAR(stage::test::phase_difference_deg(r.phase_deg[i], std::arg(h) * 180 / M_PI), 0.0,
+                kTolerance * 180 / M_PI);
+  }
+}
+
+Circuit rc_low_pass() {
+  Circuit c;
+  c.add("vin", stage::VoltageSource{"in", "gnd", 0.0, 1.0});
+  c.add("r1", stage::Resistor{"in", "out", kR});
+  c.add("c1", stage::Capacitor{"out", "gnd", kC});
+  return c;
+}
+
+// H = 1 / (1 + jwRC); Zin = R + 1/(jwC); Zout = R || 1/(jwC) with vin shorted.
+TEST(Filters, RcLowPass) {
+  const auto r = stage::run_frequency(rc_low_pass(), sweep(10, 1e6));
+  expect_sweep(r, [](double f) { return 1.0 / (1.0 + jw(f) * kR * kC); });
+  for (std::size_t i = 0; i < r.frequencies.size(); ++i) {
+    const double f = r.frequencies[i];
+    const Complex zc = 1.0 / (jw(f) * kC);
+    stage::test::expect_response(r.input_impedance[i], kR + zc, kTolerance, "Zin", f);
+    stage::test::expect_response(r.output_impedance[i], kR * zc / (kR + zc), kTolerance, "Zout", f);
+  }
+  // The corner: |H(fu)| = |H(f midband)| / sqrt(2) exactly (the definition),
+  // and f = 1/(2 pi R C) to within the midband sample's own droop: at 10 Hz
+  // |H|^2 = 1/(1 + (10/fc)^2) moves the corner by (10/fc)^2 / 2 ~ 4e-5.
+  ASSERT_TRUE(r.figures.upper_cutoff);
+  const double fu = *r.figures.upper_cutoff;
+  const double h_mid = std::abs(1.0 / (1.0 + jw(r.figures.midband_frequency) * kR * kC));
+  EXPECT_NEAR(std::abs(1.0 / (1.0 + jw(fu) * kR * kC)), h_mid / std::sqrt(2.0), kTolerance);
+  EXPECT_NEAR(fu, 1 / (2 * M_PI * kR * kC), 5e-5 * fu);
+  EXPECT_FALSE(r.figures.lower_cutoff);
+  EXPECT_FALSE(r.figures.unity_gain_frequency);  // the gain never exceeds 0 dB
+}
+
+// H = jwRC / (1 + jwRC): capacitor in series, resistor to ground.
+TEST(Filters, RcHighPass) {
+  Circuit c;
+  c.add("vin", stage::VoltageSource{"in", "gnd", 0.0, 1.0});
+  c.add("c1", stage::Capacitor{"in", "out", kC});
+  c.add("r1", stage::Resistor{"out", "gnd", kR});
+  const auto r = stage::run_frequency(c, sweep(10, 1e6));
+  const auto exact = [](double f) { return jw(f) * kR * kC / (1.0 + jw(f) * kR * kC); };
+  expect_sweep(r, exact);
+  ASSERT_TRUE(r.figures.lower_cutoff);
+  const double fl = *r.figures.lower_cutoff;
+  EXPECT_NEAR(std::abs(exact(fl)), std::abs(exact(r.figures.midband_frequency)) / std::sqrt(2.0),
+              kTolerance);
+  EXPECT_NEAR(fl, 1 / (2 * M_PI * kR * kC), 5e-5 * fl);
+  EXPECT_FALSE(r.figures.upper_cutoff);
+}
+
+// Series R-L-C driven by vin, output across R: H = R / (R + jwL + 1/(jwC)).
+// Resonance f0 = 1/(2 pi sqrt(LC)) = 1 kHz lies on the grid (10 Hz * 10^(40/20)),
+// so the midband is exactly the peak H = 1, and the -3 dB edges are
+// f0 (sqrt(1 + 1/(4Q^2)) -+ 1/(2Q)) with Q = sqrt(L/C)/R.
+TEST(Filters, SeriesRlcBandPass) {
+  constexpr double kL = 10e-3, kRs = 220.0;
+  const double f0 = 1e3;
+  const double cap = 1.0 / (std::pow(2 * M_PI * f0, 2) * kL);
+  Circuit c;
+  c.add("vin", stage::VoltageSource{"in", "gnd", 0.0, 1.0});
+  c.add("l1", stage::Inductor{"in", "a", kL});
+  c.add("c1", stage::Capacitor{"a", "out", cap});
+  c.add("r1", stage::Resistor{"out", "gnd", kRs});
+  auto options = sweep(10, 1e5);
+  options.at = f0;
+  const auto r = stage::run_frequency(c, options);
+  const auto exact = [](double f) {
+    const double l = 10e-3, cc = 1.0 / (std::pow(2 * M_PI * 1e3, 2) * l);
+    return 220.0 / (220.0 + jw(f) * l + 1.0 / (jw(f) * cc));
+  };
+  expect_sweep(r, exact);
+  EXPECT_NEAR(r.figures.midband_frequency, f0, 1e-12 * f0);
+  EXPECT_NEAR(r.figures.midband_gain_dB, 0.0, 1e-9);
+  const double q = std::sqrt(kL / cap) / kRs;
+  const double root = std::sqrt(1 + 1 / (4 * q * q));
+  ASSERT_TRUE(r.figures.lower_cutoff && r.figures.upper_cutoff);
+  EXPECT_NEAR(*r.figures.lower_cutoff, f0 * (root - 1 / (2 * q)), kTolerance * f0);
+  EXPECT_NEAR(*r.figures.upper_cutoff, f0 * (root + 1 / (2 * q)), kTolerance * f0);
+  // At resonance the reactances cancel: 0 dB, 0 degrees, Zin = R.
+  EXPECT_NEAR(*r.figures.gain_at_dB, 0.0, 1e-9);
+  EXPECT_NEAR(*r.figures.phase_at_deg, 0.0, 1e-7);
+  const std::size_t at = 40;
+  stage::test::expect_response(r.input_impedance[at], kRs, kTolerance, "Zin at f0", f0);
+}
+
+}  // namespace
