@@ -1,13 +1,206 @@
-// The bipolar transistor (spec section 4): placeholder until the model lands.
-#include <stdexcept>
+// The bipolar transistor device (spec section 4): wires the Gummel–Poon
+// equations of gummel_poon.hpp to the nodes, with internal nodes behind
+// nonzero base, emitter and collector resistances, Newton limiting of both
+// junctions, and the operating-point report. A pnp is the npn with every
+// voltage and current mirrored.
+#include <cmath>
 
+#include "devices/gummel_poon.hpp"
+#include "devices/junction.hpp"
+#include "devices/local_stamp.hpp"
 #include "devices/semiconductors.hpp"
+#include "mna/topology.hpp"
+#include "mna/topology_check.hpp"
 
 namespace stage::devices {
+namespace {
 
-std::unique_ptr<mna::Device> make_bipolar(const std::string& name, const Bipolar&,
-                                          const BipolarModel&, mna::Topology&) {
-  throw std::logic_error("bipolar " + name + ": model not implemented yet");
+// Local nodes: the four terminals, then the internal collector, base and
+// emitter (each the terminal itself when its resistance is zero).
+enum : int { kC, kB, kE, kS, kCi, kBi, kEi, kNodes };
+using System = LocalSystem<kNodes>;
+
+// Internal junction voltage above which a junction counts as conducting when
+// the region is named: the conduction edge of a silicon junction (common
+// practice, e.g. Sedra and Smith, "Microelectronic Circuits", ch. 6).
+constexpr double kConductionEdge = 0.5;
+
+struct JunctionVoltages {
+  double vbe = 0, vbc = 0;
+};
+
+JunctionVoltages junction_voltages(double polarity, const std::array<double, kNodes>& x) {
+  return {polarity * (x[kBi] - x[kEi]), polarity * (x[kBi] - x[kCi])};
+}
+
+// The device's system with the junction-controlled currents and charges
+// evaluated at `at` (limited voltages) and linearised back to the true
+// junction voltages, as device.hpp asks.
+System local_system(const BipolarParameters& p, double pol, const std::array<double, kNodes>& x,
+                    JunctionVoltages at) {
+  System s;
+  const JunctionVoltages v = junction_voltages(pol, x);
+  const double dbe = v.vbe - at.vbe, dbc = v.vbc - at.vbc;
+  const GummelPoonCurrents i = gummel_poon_currents(p, at.vbe, at.vbc);
+  add_current(s, pol, kCi, kEi, i.ict + i.dict_dvbe * dbe + i.dict_dvbc * dbc,
+              {{kBi, kEi, i.dict_dvbe}, {kBi, kCi, i.dict_dvbc}});
+  add_current(s, pol, kBi, kEi, i.ibe + i.dibe_dvbe * dbe, {{kBi, kEi, i.dibe_dvbe}});
+  add_current(s, pol, kBi, kCi, i.ibc + i.dibc_dvbc * dbc, {{kBi, kCi, i.dibc_dvbc}});
+  if (p.rb > 0) {
+    const BaseResistance r = base_resistance(p, i);
+    const double vrb = pol * (x[kB] - x[kBi]);
+    const double current = vrb / r.r;
+    const double di_dvbe = -current / r.r * r.dr_dvbe;
+    const double di_dvbc = -current / r.r * r.dr_dvbc;
+    add_current(s, pol, kB, kBi, current + di_dvbe * dbe + di_dvbc * dbc,
+                {{kB, kBi, 1 / r.r}, {kBi, kEi, di_dvbe}, {kBi, kCi, di_dvbc}});
+  }
+  if (p.re > 0) add_current(s, 1, kE, kEi, (x[kE] - x[kEi]) / p.re, {{kE, kEi, 1 / p.re}});
+  if (p.rc > 0) add_current(s, 1, kC, kCi, (x[kC] - x[kCi]) / p.rc, {{kC, kCi, 1 / p.rc}});
+
+  const double vbx = pol * (x[kB] - x[kCi]);
+  const double vsc = pol * (x[kS] - x[kCi]);
+  const GummelPoonCharges q = gummel_poon_charges(p, i, at.vbe, at.vbc, vbx, vsc);
+  if (p.cje > 0 || p.tf > 0) {
+    add_charge(s, pol, kBi, kEi, q.qbe + q.cbe_vbe * dbe + q.cbe_vbc * dbc,
+               {{kBi, kEi, q.cbe_vbe}, {kBi, kCi, q.cbe_vbc}});
+  }
+  if (p.xcjc * p.cjc > 0 || p.tr > 0) {
+    add_charge(s, pol, kBi, kCi, q.qbc + q.cbc * dbc, {{kBi, kCi, q.cbc}});
+  }
+  if ((1 - p.xcjc) * p.cjc > 0) add_charge(s, pol, kB, kCi, q.qbx, {{kB, kCi, q.cbx}});
+  if (p.cjs > 0) add_charge(s, pol, kS, kCi, q.qcs, {{kS, kCi, q.ccs}});
+  return s;
+}
+
+// Region by the internal junctions: forward_active when only B-E conducts,
+// saturation when both do, reverse_active when only B-C does, else cutoff.
+std::string region(JunctionVoltages v) {
+  const bool be = v.vbe > kConductionEdge, bc = v.vbc > kConductionEdge;
+  if (be) return bc ? "saturation" : "forward_active";
+  return bc ? "reverse_active" : "cutoff";
+}
+
+class BipolarDevice final : public mna::Device {
+ public:
+  BipolarDevice(const std::string& name, const Bipolar& element, const BipolarModel& model,
+                mna::Topology& topology)
+      : Device(name),
+        model_(model),
+        area_(element.area),
+        polarity_(element.polarity),
+        pol_(element.polarity == Polarity::npn ? 1.0 : -1.0),
+        scatter_(nodes(name, element, model, topology)),
+        params_(scale_bipolar(model, area_, kRoomTemperature)),
+        kelvin_(kRoomTemperature),
+        structure_(local_system(params_, pol_, {}, {}).used) {}
+
+  void declare(mna::PatternBuilder& pattern) override { scatter_.declare(pattern, structure_); }
+
+  void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override {
+    if (request.temperature != kelvin_) {
+      params_ = scale_bipolar(model_, area_, request.temperature);
+      kelvin_ = request.temperature;
+    }
+    const auto x = scatter_.gather(request.x);
+    JunctionVoltages v = junction_voltages(pol_, x);
+    if (request.limit) {
+      v.vbe = limit_junction_voltage(v.vbe, last_.vbe, params_.nf_vt, params_.vcrit_be);
+      v.vbc = limit_junction_voltage(v.vbc, last_.vbc, params_.nr_vt, params_.vcrit_bc);
+    }
+    last_ = v;
+    scatter_.scatter(local_system(params_, pol_, x, v), out);
+  }
+
+  bool nonlinear() const override { return true; }
+  void reset_limiting() override { last_ = {}; }
+
+  void describe_topology(mna::TopologyCheck& check) const override {
+    const auto& n = scatter_.nodes();
+    for (const auto& [outer, inner] : {std::pair{kC, kCi}, {kB, kBi}, {kE, kEi}}) {
+      if (n[outer] != n[inner]) check.conducts(n[outer], n[inner], name());
+    }
+    check.conducts(n[kBi], n[kEi], name());
+    check.conducts(n[kBi], n[kCi], name());
+    check.capacitive(n[kS], n[kCi], name());
+  }
+
+  void report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const override {
+    const BipolarParameters p = scale_bipolar(model_, area_, at.temperature);
+    const auto x = scatter_.gather(at.x);
+    const JunctionVoltages v = junction_voltages(pol_, x);
+    const System s = local_system(p, pol_, x, v);
+    const std::array<int, kNodes> alias = {kC,
+                                           kB,
+                                           kE,
+                                           kS,
+                                           p.rc > 0 ? int{kCi} : int{kC},
+                                           p.rb > 0 ? int{kBi} : int{kB},
+                                           p.re > 0 ? int{kEi} : int{kE}};
+    const TerminalView view = reduce_to_terminals(s, 4, alias);
+    const auto& y = view.conductance;
+    const GummelPoonCurrents i = gummel_poon_currents(p, v.vbe, v.vbc);
+    const GummelPoonCharges q =
+        gummel_poon_charges(p, i, v.vbe, v.vbc, pol_ * (x[kB] - x[kCi]), pol_ * (x[kS] - x[kCi]));
+
+    BipolarOperatingPoint op;
+    op.name = name();
+    op.polarity = polarity_;
+    op.region = region(v);
+    op.collector_current = view.current[kC];
+    op.base_current = view.current[kB];
+    op.emitter_current = view.current[kE];
+    op.vbe = x[kB] - x[kE];
+    op.vce = x[kC] - x[kE];
+    op.vbc = x[kB] - x[kC];
+    // Common-emitter small-signal figures at the terminals: a change of one
+    // terminal voltage with the others held is a change of VBE (base) or of
+    // VCE (collector) with the other held.
+    op.gm = y[kC][kB];
+    op.r_pi = 1 / y[kB][kB];
+    op.r_out = y[kC][kC] > 0 ? 1 / y[kC][kC] : kInfinity;
+    op.c_pi = q.cbe_vbe;
+    op.c_mu = q.cbc + q.cbx;
+    op.c_cs = q.ccs;
+    for (int t = kC; t <= kS; ++t) op.power += view.current[t] * x[t];
+    out.bipolars.push_back(op);
+  }
+
+ private:
+  static std::array<mna::Index, kNodes> nodes(const std::string& name, const Bipolar& element,
+                                              const BipolarModel& model, mna::Topology& topology) {
+    const mna::Index c = topology.node(element.collector);
+    const mna::Index b = topology.node(element.base);
+    const mna::Index e = topology.node(element.emitter);
+    const mna::Index s = topology.node(element.substrate.value_or(kGround));
+    auto inner = [&](double resistance, mna::Index outer, const char* suffix) {
+      return resistance > 0 ? topology.internal_node(name, suffix) : outer;
+    };
+    return {c,
+            b,
+            e,
+            s,
+            inner(model.collector_resistance, c, "collector"),
+            inner(model.base_resistance, b, "base"),
+            inner(model.emitter_resistance, e, "emitter")};
+  }
+
+  BipolarModel model_;
+  double area_;
+  Polarity polarity_;
+  double pol_;  // +1 npn, -1 pnp
+  LocalScatter<kNodes> scatter_;
+  BipolarParameters params_;
+  double kelvin_;
+  std::array<std::array<bool, kNodes>, kNodes> structure_;
+  JunctionVoltages last_;  // junction voltages of the last evaluation, for limiting
+};
+
+}  // namespace
+
+std::unique_ptr<mna::Device> make_bipolar(const std::string& name, const Bipolar& element,
+                                          const BipolarModel& model, mna::Topology& topology) {
+  return std::make_unique<BipolarDevice>(name, element, model, topology);
 }
 
 }  // namespace stage::devices

@@ -1,0 +1,75 @@
+// The Gummel–Poon bipolar transistor equations, free of any node wiring:
+// temperature and area scaling of the model, then currents, base resistance
+// and charges as functions of the internal junction voltages (in the npn
+// sense; a pnp is mirrored by its caller), each with analytic derivatives.
+//
+// With infinite Early voltages and knee currents and no leakage the
+// normalised base charge qb is exactly 1 and the equations are the Ebers–Moll
+// transport model; `form = ebers_moll` skips the extras outright.
+//
+// Not used here: excess_phase (a delay of the transport current in the
+// small-signal and time-domain response) and the flicker parameters (noise);
+// they are accepted by the reader and have no effect on DC or charges.
+#pragma once
+
+#include "stage/models.hpp"
+
+namespace stage::devices {
+
+// Model parameters at one temperature and area; infinities become zero
+// inverses so the equations need no branches.
+struct BipolarParameters {
+  bool ebers_moll = false;
+  double vt = 0;                        // kT/q
+  double is = 0, nf_vt = 0, nr_vt = 0;  // transport current, emission * vt
+  double bf = 0, br = 0;
+  double inv_vaf = 0, inv_var = 0, inv_ikf = 0, inv_ikr = 0;
+  double ise = 0, ne_vt = 0, isc = 0, nc_vt = 0;
+  double rb = 0, rbm = 0, irb = kInfinity, re = 0, rc = 0;
+  double cje = 0, vje = 0, mje = 0;
+  double cjc = 0, vjc = 0, mjc = 0, xcjc = 1;
+  double cjs = 0, vjs = 0, mjs = 0;
+  double fc = 0;
+  double tf = 0, tr = 0, xtf = 0, inv_vtf = 0, itf = 0;
+  double vcrit_be = 0, vcrit_bc = 0;  // where Newton limiting starts
+};
+
+// Temperature relations (textbook forms; see junction.hpp for is and phi):
+//   is(T)  = is (T/Tr)^xti exp((T/Tr - 1) Eg / vt(T))
+//   beta(T) = beta (T/Tr)^xtb
+//   leakage current with its own emission n: scaled like is with n, divided
+//   by (T/Tr)^xtb, so that the leakage-limited beta follows the same law
+//   (Massobrio and Antognetti, "Semiconductor Device Modeling", 2nd ed.,
+//   ch. 2, temperature dependence of the bipolar model; from memory);
+//   potentials and zero-bias capacitances as in junction.hpp.
+BipolarParameters scale_bipolar(const BipolarModel& model, double area, double kelvin);
+
+// DC currents at internal junction voltages vbe = v(b') - v(e'),
+// vbc = v(b') - v(c').
+struct GummelPoonCurrents {
+  double ibe1 = 0, gbe1 = 0;  // forward diffusion current IS (e^(vbe/nf vt) - 1) and slope
+  double ibc1 = 0, gbc1 = 0;
+  double qb = 1, dqb_dvbe = 0, dqb_dvbc = 0;     // normalised base charge
+  double ict = 0, dict_dvbe = 0, dict_dvbc = 0;  // transport current c' -> e'
+  double ibe = 0, dibe_dvbe = 0;                 // base current b' -> e': ibe1/bf + leakage
+  double ibc = 0, dibc_dvbc = 0;                 // base current b' -> c': ibc1/br + leakage
+};
+GummelPoonCurrents gummel_poon_currents(const BipolarParameters& p, double vbe, double vbc);
+
+// Base resistance between the base terminal and b'.
+struct BaseResistance {
+  double r = 0, dr_dvbe = 0, dr_dvbc = 0;
+};
+BaseResistance base_resistance(const BipolarParameters& p, const GummelPoonCurrents& i);
+
+// Charges (depletion plus diffusion) and their capacitances.
+struct GummelPoonCharges {
+  double qbe = 0, cbe_vbe = 0, cbe_vbc = 0;  // b' -> e', depends on vbe and (via qb, tf) vbc
+  double qbc = 0, cbc = 0;                   // b' -> c'
+  double qbx = 0, cbx = 0;                   // b -> c' (external share of the B-C depletion)
+  double qcs = 0, ccs = 0;                   // s -> c'
+};
+GummelPoonCharges gummel_poon_charges(const BipolarParameters& p, const GummelPoonCurrents& i,
+                                      double vbe, double vbc, double vbx, double vsc);
+
+}  // namespace stage::devices
