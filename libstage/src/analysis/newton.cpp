@@ -11,6 +11,7 @@ NewtonSolver::NewtonSolver(const mna::System& system, const SolverOptions& optio
       options_(options),
       work_(system.make_workspace()),
       jacobian_(work_.g.size()),
+      factored_(work_.g.size()),
       residual_(work_.f.size()),
       update_(work_.f.size()),
       scale_(work_.f.size()),
@@ -78,10 +79,14 @@ NewtonOutcome NewtonSolver::solve(std::vector<double>& x, const NewtonProblem& p
       return outcome;
     }
     if (iteration >= problem.max_iterations) return outcome;
-    if (!lu_.factor(jacobian_.data())) {
-      outcome.status = NewtonStatus::singular;
-      outcome.singular_unknown = lu_.singular_column() + 1;
-      return outcome;
+    if (!factored_valid_ || jacobian_ != factored_) {
+      factored_valid_ = lu_.factor(jacobian_.data());
+      if (!factored_valid_) {
+        outcome.status = NewtonStatus::singular;
+        outcome.singular_unknown = lu_.singular_column() + 1;
+        return outcome;
+      }
+      factored_ = jacobian_;
     }
     for (std::size_t i = 0; i < update_.size(); ++i) update_[i] = -residual_[i];
     lu_.solve(update_.data() + 1);

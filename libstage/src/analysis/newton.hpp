@@ -49,6 +49,10 @@ class NewtonSolver {
   const std::vector<double>& last_update() const { return update_; }
   const mna::System& system() const { return system_; }
   const SolverOptions& options() const { return options_; }
+  // Numeric factorisations done (full and refactorisations); an iteration
+  // whose Jacobian equals the last factored one reuses it (a linear circuit
+  // at a constant time step never refactors).
+  int factorizations() const { return lu_.full_factorizations() + lu_.refactorizations(); }
   mna::SparseLu<double>& lu() { return lu_; }
 
  private:
@@ -60,6 +64,8 @@ class NewtonSolver {
   SolverOptions options_;
   mna::Workspace work_;
   std::vector<double> jacobian_;  // nnz + 1
+  std::vector<double> factored_;  // the Jacobian behind lu_'s current factors
+  bool factored_valid_ = false;
   std::vector<double> residual_;  // n + 1
   std::vector<double> update_;    // n + 1
   std::vector<double> scale_;     // n + 1: size of the terms meeting in each row

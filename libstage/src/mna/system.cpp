@@ -11,11 +11,15 @@
 
 namespace stage::mna {
 
-System::System(const Circuit& circuit) : temperature_(circuit.temperature) {
+System::System(const Circuit& circuit) : System(circuit, {}) {}
+
+System::System(const Circuit& circuit, const std::vector<DeviceMaker>& extra)
+    : temperature_(circuit.temperature) {
   for (const Element& element : circuit.elements()) {
     devices_.push_back(devices::make_device(element, circuit, topology_));
-    nonlinear_ = nonlinear_ || devices_.back()->nonlinear();
   }
+  for (const auto& make : extra) devices_.push_back(make(topology_));
+  for (const auto& d : devices_) nonlinear_ = nonlinear_ || d->nonlinear();
 
   TopologyCheck check(topology_);
   for (const auto& d : devices_) d->describe_topology(check);

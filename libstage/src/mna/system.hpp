@@ -2,6 +2,7 @@
 // unknowns, the sparse pattern, and evaluation of f, q, G and C at a point.
 #pragma once
 
+#include <functional>
 #include <memory>
 #include <span>
 #include <string>
@@ -25,6 +26,10 @@ class System {
   // Builds one device per element; throws NumericalError if the graph is
   // singular at DC (floating node, voltage loop, current cut-set).
   explicit System(const Circuit& circuit);
+  // Devices made outside the element factory (tests add model devices this
+  // way); each maker numbers its nodes in the topology it is given.
+  using DeviceMaker = std::function<std::unique_ptr<Device>(Topology&)>;
+  System(const Circuit& circuit, const std::vector<DeviceMaker>& extra);
 
   int size() const { return topology_.size(); }
   const Topology& topology() const { return topology_; }
