@@ -1,0 +1,257 @@
+// The transient step loop: predictor, Newton corrector, error estimate from
+// the charges, step control and breakpoints (see integration.hpp for the
+// formulas and transient_start.cpp for the first point).
+#include "analysis/transient.hpp"
+
+#include <spdlog/spdlog.h>
+
+#include <algorithm>
+#include <array>
+#include <cmath>
+#include <stdexcept>
+
+#include "analysis/integration.hpp"
+#include "analysis/signal_recorder.hpp"
+#include "analysis/transient_start.hpp"
+#include "stage/errors.hpp"
+
+namespace stage::analysis {
+namespace {
+
+// Step control constants, common practice in variable-step integrators:
+constexpr double kSafety = 0.9;         // aim below the tolerance
+constexpr double kMaxGrowth = 2.0;      // per accepted step
+constexpr double kMinShrink = 0.1;      // per rejected step
+constexpr double kGrowThreshold = 1.5;  // keep the step unless it can grow this much
+                                        // (SUNDIALS CVODE's rule): a linear circuit
+                                        // then keeps its factorisation
+constexpr double kNewtonFailureShrink = 0.125;
+constexpr int kStepIterations = 20;          // Newton iterations before the step is shrunk
+constexpr double kDefaultStepsPerRun = 50;   // max_step = stop / 50 when not given
+constexpr double kFirstStepFraction = 1e-2;  // of max_step, and of the gap after a corner
+constexpr double kMinStepFraction = 1e-12;   // of stop: below this the run fails
+constexpr double kSameStep = 1e-9;           // relative: a step this close counts as equal
+
+struct Point {
+  double t = 0;
+  std::vector<double> x, q, qdot;
+};
+
+class Stepper {
+ public:
+  Stepper(const mna::System& system, const SolverOptions& solver, const TransientOptions& options,
+          TransientResult& result)
+      : system_(system),
+        solver_(solver),
+        options_(options),
+        result_(result),
+        recorder_(system, options.signals, result),
+        newton_(system, solver) {}
+
+  void run();
+
+ private:
+  enum class Outcome { accepted, error_too_large, newton_failed };
+  Outcome attempt(double t_new, double h, double& error_ratio);
+  void accept(double t_new, bool at_breakpoint);
+  double error_ratio(const StepFormula& formula, double h, double h_prev) const;
+  [[noreturn]] void fail(double t, double h) const;
+
+  const mna::System& system_;
+  SolverOptions solver_;
+  TransientOptions options_;
+  TransientResult& result_;
+  SignalRecorder recorder_;
+  NewtonSolver newton_;
+  std::array<Point, 3> past_;  // newest first
+  int since_breakpoint_ = 1;   // accepted points since the last corner, that one included
+  std::vector<double> x_, history_, peak_, weights_;
+  StepFormula formula_;
+};
+
+void Stepper::run() {
+  const double stop = options_.stop;
+  const double max_step = options_.max_step > 0 ? options_.max_step : stop / kDefaultStepsPerRun;
+  std::vector<double> breakpoints;
+  for (const auto& d : system_.devices()) d->corners(0.0, stop, breakpoints);
+  std::sort(breakpoints.begin(), breakpoints.end());
+  const double min_step = kMinStepFraction * stop;
+  // Corners closer than the minimum step are one corner.
+  breakpoints.erase(std::unique(breakpoints.begin(), breakpoints.end(),
+                                [&](double a, double b) { return b - a < min_step; }),
+                    breakpoints.end());
+  breakpoints.erase(std::upper_bound(breakpoints.begin(), breakpoints.end(), stop),
+                    breakpoints.end());
+  if (!breakpoints.empty() && stop - breakpoints.back() < min_step) breakpoints.pop_back();
+  breakpoints.push_back(stop);
+
+  StartPoint start = start_transient(newton_, options_.start, stop);
+  result_.newton_iterations += start.newton_iterations;
+  for (Point& p : past_) p = {0.0, start.x, start.q, start.qdot};
+  x_ = start.x;
+  history_.assign(x_.size(), 0.0);
+  peak_.resize(x_.size());
+  for (std::size_t i = 0; i < x_.size(); ++i) peak_[i] = std::abs(start.q[i]);
+  weights_.assign(3, 0.0);
+  if (options_.from <= 0.0) recorder_.record(0.0, start.x);
+
+  std::size_t next = 0;  // next breakpoint
+  double h = std::min(max_step, breakpoints.front()) * kFirstStepFraction;
+  while (next < breakpoints.size()) {
+    const double t = past_[0].t;
+    const double gap = breakpoints[next] - t;
+    h = std::min(h, max_step);
+    // Land on the corner exactly; split the approach rather than leave a sliver.
+    double step = h;
+    bool lands = false;
+    if (gap <= h * (1.0 + kSameStep)) {
+      step = gap;
+      lands = true;
+    } else if (gap < 2.0 * h) {
+      step = 0.5 * gap;
+    }
+    const double t_new = lands ? breakpoints[next] : t + step;
+    // A step equal to h up to rounding keeps h in the formula, and so the
+    // Jacobian and its factorisation.
+    if (std::abs(step - h) > kSameStep * h) h = step;
+
+    double ratio = 0;
+    const Outcome outcome = attempt(t_new, h, ratio);
+    if (outcome != Outcome::accepted) {
+      ++result_.rejected_steps;
+      const double factor =
+          outcome == Outcome::newton_failed
+              ? kNewtonFailureShrink
+              : std::max(kMinShrink, kSafety * std::pow(ratio, -1.0 / (formula_.order + 1)));
+      if (outcome == Outcome::newton_failed) {
+        for (const auto& d : system_.devices()) d->reset_limiting();
+      }
+      h *= factor;
+      if (h < min_step) fail(t_new, h);
+      continue;
+    }
+    accept(t_new, lands);
+    const double grow =
+        ratio > 0 ? std::min(kMaxGrowth, kSafety * std::pow(ratio, -1.0 / (formula_.order + 1)))
+                  : kMaxGrowth;
+    if (grow >= kGrowThreshold) h *= grow;
+    if (lands) {
+      ++next;
+      if (next < breakpoints.size()) {
+        h = std::min(h, kFirstStepFraction * 10.0 * (breakpoints[next] - t_new));
+      }
+    }
+  }
+  result_.factorizations = newton_.factorizations();
+}
+
+Stepper::Outcome Stepper::attempt(double t_new, double h, double& ratio) {
+  const Point& now = past_[0];
+  const double h_prev = now.t - past_[1].t;
+  const Formula formula = since_breakpoint_ == 1                     ? Formula::backward_euler
+                          : solver_.integration == Integration::bdf2 ? Formula::bdf2
+                                                                     : Formula::trapezoidal;
+  formula_ = step_formula(formula, h, h_prev);
+  for (std::size_t i = 0; i < x_.size(); ++i) {
+    history_[i] =
+        formula_.c_n * now.q[i] + formula_.c_prev * past_[1].q[i] + formula_.c_dot * now.qdot[i];
+  }
+  // Predictor: the polynomial through the points since the last corner.
+  const std::size_t used = static_cast<std::size_t>(since_breakpoint_);
+  std::array<double, 3> times{};
+  for (std::size_t k = 0; k < used; ++k) times[k] = past_[k].t;
+  extrapolation_weights(std::span(times.data(), used), t_new, std::span(weights_.data(), used));
+  for (std::size_t i = 0; i < x_.size(); ++i) {
+    double v = 0;
+    for (std::size_t k = 0; k < used; ++k) v += weights_[k] * past_[k].x[i];
+    x_[i] = v;
+  }
+
+  NewtonProblem problem;
+  problem.request = system_.request(nullptr);
+  problem.request.dc = false;
+  problem.request.time = t_new;
+  problem.reactive_scale = formula_.a;
+  problem.reactive_history = history_.data();
+  problem.max_iterations = std::min(kStepIterations, solver_.max_newton_iterations);
+  const auto outcome = newton_.solve(x_, problem);
+  result_.newton_iterations += outcome.iterations;
+  if (outcome.status != NewtonStatus::converged) return Outcome::newton_failed;
+  ratio = error_ratio(formula_, h, h_prev);
+  return ratio <= 1.0 ? Outcome::accepted : Outcome::error_too_large;
+}
+
+// Largest local truncation error over the rows that hold charge, each over
+// its tolerance: relative to the largest the charge has been (so a charge
+// passing through zero is not held to an absolute floor) plus the solver's
+// absolute voltage (current) tolerance times the row's capacitance
+// (inductance).
+double Stepper::error_ratio(const StepFormula& formula, double h, double h_prev) const {
+  const Point& now = past_[0];
+  const auto& w = newton_.workspace();
+  const auto& topology = system_.topology();
+  double worst = 0;
+  for (mna::Index i = 1; i <= system_.size(); ++i) {
+    const double absolute =
+        topology.is_voltage(i) ? solver_.voltage_tolerance : solver_.current_tolerance;
+    const double tolerance = solver_.relative_tolerance * std::max(std::abs(w.q[i]), peak_[i]) +
+                             absolute * std::abs(w.c[system_.diagonal(i)]);
+    if (tolerance <= 0) continue;
+    const double predicted =
+        predict_charge(formula.order, h, h_prev, now.q[i], now.qdot[i], past_[1].q[i]);
+    worst = std::max(worst, formula.error_fraction * std::abs(w.q[i] - predicted) / tolerance);
+  }
+  return worst;
+}
+
+void Stepper::accept(double t_new, bool at_breakpoint) {
+  std::rotate(past_.begin(), past_.end() - 1, past_.end());
+  Point& p = past_[0];
+  const auto& q = newton_.workspace().q;
+  p.t = t_new;
+  p.x = x_;
+  p.q = q;
+  for (std::size_t i = 0; i < q.size(); ++i) {
+    p.qdot[i] = formula_.a * q[i] + history_[i];
+    peak_[i] = std::max(peak_[i], std::abs(q[i]));
+  }
+  since_breakpoint_ = at_breakpoint ? 1 : std::min(since_breakpoint_ + 1, 3);
+  ++result_.accepted_steps;
+  if (t_new >= options_.from) recorder_.record(t_new, x_);
+}
+
+void Stepper::fail(double t, double h) const {
+  const auto worst = system_.worst_unknowns(newton_.last_update(), 3);
+  std::string message = fmt::format(
+      "the transient step fell below its minimum ({:.3g} s) at t = {:.9g} s; not settling:", h, t);
+  for (const auto& name : worst) message += " " + name;
+  throw NumericalError(message, worst);
+}
+
+}  // namespace
+
+TransientResult integrate(const mna::System& system, const SolverOptions& solver,
+                          const TransientOptions& options) {
+  if (!(options.stop > 0) || options.from >= options.stop || options.from < 0) {
+    throw std::invalid_argument("a transient needs 0 <= from < stop");
+  }
+  TransientResult result;
+  result.integration = solver.integration;
+  Stepper stepper(system, solver, options, result);
+  stepper.run();
+  spdlog::debug("transient: {} steps accepted, {} rejected, {} Newton iterations",
+                result.accepted_steps, result.rejected_steps, result.newton_iterations);
+  return result;
+}
+
+}  // namespace stage::analysis
+
+namespace stage {
+
+TransientResult run_transient(const Circuit& circuit, const TransientOptions& options) {
+  mna::System system(circuit);
+  TransientResult result = analysis::integrate(system, circuit.solver, options);
+  return options.resample_step ? resample(result, *options.resample_step) : result;
+}
+
+}  // namespace stage

@@ -1,0 +1,109 @@
+// Starting a transient.
+//
+// start = bias: the DC operating point with sources at their DC (t = 0)
+// value; every charge is then constant, so q' = 0.
+//
+// start = zero: the wanted charges q0 are those of the zero state plus each
+// capacitor's initial voltage and each inductor's initial current. The other
+// unknowns (resistive node voltages, source currents) must still satisfy the
+// circuit at t = 0. Both come from one backward-Euler step of a very short
+// length tau from the charges q0:  f(x, 0) + (q(x) - q0) / tau = 0.
+// Its solution satisfies every algebraic equation exactly and moves each
+// charge only by tau q' (tau is 1e-9 of the run), and (q(x) - q0) / tau is
+// the charge derivative q'(0) the first step's error estimate needs. Where
+// the circuit forces a charge (a capacitor straight across a source) the
+// step moves it to the forced value, which is the physical outcome.
+#include "analysis/transient_start.hpp"
+
+#include "analysis/operating_point.hpp"
+#include "devices/passive.hpp"
+#include "stage/errors.hpp"
+
+namespace stage::analysis {
+namespace {
+
+constexpr double kConsistencyFraction = 1e-9;  // tau over the run's length
+
+// Adds the charge of one element held at its initial value: the device
+// evaluated alone at a point where only its own terminals are set.
+void add_initial_charge(const mna::System& system, mna::Device& device, mna::Index a, mna::Index b,
+                        double value, std::vector<double>& q0) {
+  std::vector<double> x(q0.size(), 0.0);
+  if (a != mna::kGroundIndex) {
+    x[a] = value;
+  } else {
+    x[b] = -value;
+  }
+  mna::Workspace w = system.make_workspace();
+  auto out = w.output();
+  device.evaluate(system.request(x.data()), out);
+  for (std::size_t i = 1; i < q0.size(); ++i) q0[i] += w.q[i];
+}
+
+std::vector<double> initial_charges(const mna::System& system) {
+  std::vector<double> zero(static_cast<std::size_t>(system.size()) + 1, 0.0);
+  mna::Workspace w = system.make_workspace();
+  system.evaluate(system.request(zero.data()), w);
+  std::vector<double> q0 = w.q;
+  for (const auto& d : system.devices()) {
+    if (auto* c = dynamic_cast<devices::CapacitorDevice*>(d.get()); c && c->initial_voltage()) {
+      add_initial_charge(system, *c, c->a(), c->b(), *c->initial_voltage(), q0);
+    } else if (auto* l = dynamic_cast<devices::InductorDevice*>(d.get());
+               l && l->initial_current()) {
+      add_initial_charge(system, *l, l->branch(), mna::kGroundIndex, *l->initial_current(), q0);
+    }
+  }
+  return q0;
+}
+
+StartPoint zero_start(NewtonSolver& newton, double duration) {
+  const mna::System& system = newton.system();
+  const std::vector<double> q0 = initial_charges(system);
+  const double tau = kConsistencyFraction * duration;
+  std::vector<double> history(q0.size());
+  for (std::size_t i = 0; i < q0.size(); ++i) history[i] = -q0[i] / tau;
+
+  StartPoint start;
+  start.x.assign(q0.size(), 0.0);
+  NewtonProblem p;
+  p.request = system.request(nullptr);
+  p.request.dc = false;
+  p.reactive_scale = 1.0 / tau;
+  p.reactive_history = history.data();
+  p.max_iterations = newton.options().max_newton_iterations;
+  const auto outcome = newton.solve(start.x, p);
+  start.newton_iterations = outcome.iterations;
+  if (outcome.status != NewtonStatus::converged) {
+    const auto worst = system.worst_unknowns(newton.last_update(), 3);
+    throw NumericalError(
+        "no consistent initial point for the transient (start = zero): "
+        "did not settle: " +
+            worst.front(),
+        worst);
+  }
+  start.q = newton.workspace().q;
+  start.qdot.resize(q0.size());
+  for (std::size_t i = 0; i < q0.size(); ++i) start.qdot[i] = (start.q[i] - q0[i]) / tau;
+  return start;
+}
+
+StartPoint bias_start(NewtonSolver& newton) {
+  const mna::System& system = newton.system();
+  StartPoint start;
+  start.x.assign(static_cast<std::size_t>(system.size()) + 1, 0.0);
+  start.newton_iterations = solve_operating_point(newton, start.x).newton_iterations;
+  mna::Workspace w = system.make_workspace();
+  system.evaluate(system.request(start.x.data()), w);
+  start.q = w.q;
+  start.qdot.assign(start.x.size(), 0.0);
+  return start;
+}
+
+}  // namespace
+
+StartPoint start_transient(NewtonSolver& newton, TransientStart start, double duration) {
+  for (const auto& d : newton.system().devices()) d->reset_limiting();
+  return start == TransientStart::bias ? bias_start(newton) : zero_start(newton, duration);
+}
+
+}  // namespace stage::analysis

@@ -1,0 +1,57 @@
+// Spectrum reports.
+#include "report/spectrum_report.hpp"
+
+#include <cmath>
+
+namespace stage::report {
+namespace {
+
+std::string percent(double ratio) {
+  char buffer[32];
+  std::snprintf(buffer, sizeof buffer, "%.4g %%", 100.0 * ratio);
+  return buffer;
+}
+
+}  // namespace
+
+Json to_json(const SpectrumResult& r) {
+  Json harmonics = Json::array();
+  for (const auto& h : r.harmonics) {
+    harmonics.push_back(Json{{"n", h.n}, {"amplitude", h.amplitude}, {"phase_deg", h.phase_deg}});
+  }
+  Json j{{"kind", "spectrum"}, {"signal", r.signal},     {"fundamental_Hz", r.fundamental},
+         {"dc", r.dc},         {"harmonics", harmonics}, {"thd", r.thd}};
+  if (r.thd_plus_noise) j["thd_plus_noise"] = *r.thd_plus_noise;
+  j["settled"] = r.settled;
+  if (!r.settled) j["warning"] = r.message;
+  return j;
+}
+
+void print_table(std::ostream& out, const SpectrumResult& r) {
+  out << "Spectrum of " << r.signal << ": fundamental " << si(r.fundamental, "Hz") << ", "
+      << r.periods << " period(s), DC " << si(r.dc, "") << "\n";
+  out << "THD " << percent(r.thd);
+  if (r.thd_plus_noise) out << ", THD+N " << percent(*r.thd_plus_noise);
+  out << "\n";
+  if (!r.settled) out << "warning: " << r.message << "\n";
+  out << '\n';
+  TextTable table({"n", "frequency", "amplitude", "relative", "phase"});
+  const double first = r.harmonics.empty() ? 0.0 : r.harmonics.front().amplitude;
+  for (const auto& h : r.harmonics) {
+    char phase[32];
+    std::snprintf(phase, sizeof phase, "%.2f°", h.phase_deg);
+    table.add_row({std::to_string(h.n), si(h.n * r.fundamental, "Hz"), si(h.amplitude, ""),
+                   first > 0 ? percent(h.amplitude / first) : "-", phase});
+  }
+  table.print(out);
+}
+
+void write_csv(std::ostream& out, const SpectrumResult& r) {
+  out << "n,frequency_Hz,amplitude,phase_deg\n";
+  for (const auto& h : r.harmonics) {
+    out << h.n << ',' << csv_number(h.n * r.fundamental) << ',' << csv_number(h.amplitude) << ','
+        << csv_number(h.phase_deg) << '\n';
+  }
+}
+
+}  // namespace stage::report

@@ -1,0 +1,24 @@
+// Helpers shared by the transient tests: the largest deviation of a
+// simulated signal from an exact solution.
+#pragma once
+
+#include <algorithm>
+#include <cmath>
+#include <functional>
+
+#include "stage/transient.hpp"
+
+namespace stage::testing {
+
+// max over the samples of |signal(t) - exact(t)|.
+inline double max_error(const TransientResult& r, const std::string& signal,
+                        const std::function<double(double)>& exact) {
+  const auto& v = r.signal(signal);
+  double worst = 0;
+  for (std::size_t k = 0; k < r.time.size(); ++k) {
+    worst = std::max(worst, std::abs(v[k] - exact(r.time[k])));
+  }
+  return worst;
+}
+
+}  // namespace stage::testing
