@@ -1,0 +1,280 @@
+// The walk over a deck's statements in file order: titles, lets (with
+// overrides), includes, temperature, solver settings, models, element and
+// block instances, analyses; then the references that could point forward.
+#include "circuit/elaborator.hpp"
+
+#include <cmath>
+
+#include "reader/suggest.hpp"
+
+namespace stage::elaborate {
+
+namespace x3 = boost::spirit::x3;
+
+namespace {
+// Deeper block nesting than this is surely a mistake; it also bounds recursion.
+constexpr std::size_t kMaxBlockDepth = 50;
+const std::set<std::string> kElementKinds{"resistor", "capacitor", "inductor", "voltage",
+                                          "current",  "vcvs",      "vccs",     "cccs",
+                                          "ccvs",     "diode",     "npn",      "pnp"};
+}  // namespace
+
+Deck elaborate(std::shared_ptr<const SyntaxTree> tree, const ReadOptions& options) {
+  Deck deck;
+  deck.options = options;
+  deck.tree = tree;
+  deck.file = tree->files.front().source.file_name();
+  Elaborator(*tree, deck.options, deck).run();
+  return deck;
+}
+
+Elaborator::Elaborator(const SyntaxTree& tree, const ReadOptions& options, Deck& deck)
+    : tree_(tree), options_(options), deck_(deck) {}
+
+void Elaborator::fail(const Frame& frame, int offset, const std::string& message) const {
+  frame.file->source.fail(offset, message);
+}
+
+void Elaborator::run() {
+  const File& main = tree_.files.front();
+  collect_blocks(main);
+  statements(main.ast.statements, Frame{&main, "", {}, &globals_, {}});
+  check_references();
+  for (const auto& [name, value] : options_.overrides) {
+    if (!used_overrides_.count(name)) {
+      std::vector<std::string> lets = globals_.names();
+      throw InputError(
+          {main.source.file_name(), 0, 0},
+          "the override '" + name + "' names no let parameter" + reader::suggestion(name, lets));
+    }
+  }
+  for (const auto& [file, analyze] : analyses_) analysis(*analyze, *file);
+}
+
+// Blocks may be used before they are defined, so they are gathered first.
+void Elaborator::collect_blocks(const File& file) {
+  for (const ast::Statement& statement : file.ast.statements) {
+    if (const auto* b = boost::get<x3::forward_ast<ast::Block>>(&statement)) {
+      const ast::Block& block = b->get();
+      if (kElementKinds.count(block.name)) {
+        file.source.fail(block.offset,
+                         "a block cannot be named like the element kind '" + block.name + "'");
+      }
+      if (!blocks_.emplace(block.name, std::make_pair(&file, &block)).second) {
+        file.source.fail(block.offset, "a block named '" + block.name + "' is already defined");
+      }
+      for (const ast::Statement& inner : block.body) {
+        if (boost::get<x3::forward_ast<ast::Block>>(&inner)) {
+          file.source.fail(ast::offset_of(inner), "blocks are defined outside other blocks");
+        }
+      }
+    } else if (const auto* include = boost::get<ast::Include>(&statement)) {
+      const int index = file.includes.at(include->offset);
+      if (index >= 0) collect_blocks(tree_.files[index]);
+    }
+  }
+}
+
+void Elaborator::statements(const std::vector<ast::Statement>& list, const Frame& frame) {
+  const bool top = frame.blocks.empty();
+  // Lets inside a block instance are local to it.
+  reader::Scope& scope = *frame.scope;
+  for (const ast::Statement& statement : list) {
+    const int at = ast::offset_of(statement);
+    const auto top_only = [&](const char* what) {
+      if (!top) fail(frame, at, std::string(what) + " is not allowed inside a block");
+    };
+    if (const auto* title = boost::get<ast::Title>(&statement)) {
+      top_only("title");
+      if (have_title_) fail(frame, at, "the title is given twice");
+      have_title_ = true;
+      deck_.circuit.title = title->text;
+    } else if (const auto* l = boost::get<ast::Let>(&statement)) {
+      let(*l, frame, scope);
+    } else if (const auto* include = boost::get<ast::Include>(&statement)) {
+      top_only("include");
+      const int index = frame.file->includes.at(include->offset);
+      if (index >= 0) {
+        const File& file = tree_.files[index];
+        statements(file.ast.statements, Frame{&file, "", {}, &globals_, {}});
+      }
+    } else if (const auto* t = boost::get<ast::Temperature>(&statement)) {
+      top_only("temperature");
+      const double kelvin =
+          reader::evaluate_as(t->value, Quantity::temperature, scope, frame.file->source);
+      if (kelvin <= 0) fail(frame, ast::offset_of(t->value), "the temperature must be above 0 K");
+      deck_.circuit.temperature = kelvin;
+    } else if (const auto* s = boost::get<ast::Solver>(&statement)) {
+      top_only("solver");
+      solver(*s, frame);
+    } else if (const auto* m = boost::get<ast::Model>(&statement)) {
+      top_only("model");
+      model(*m, frame);
+    } else if (const auto* a = boost::get<ast::Analyze>(&statement)) {
+      top_only("analyze");
+      analyses_.emplace_back(frame.file, a);
+    } else if (const auto* instance = boost::get<ast::Instance>(&statement)) {
+      if (blocks_.count(instance->call.name)) {
+        instantiate_block(*instance, frame);
+      } else {
+        element(*instance, frame);
+      }
+    }
+    // Block definitions were gathered by collect_blocks().
+  }
+}
+
+void Elaborator::let(const ast::Let& let, const Frame& frame, reader::Scope& scope) {
+  if (let.name == "pi" || let.name == "inf") {
+    fail(frame, let.offset, "'" + let.name + "' is a constant and cannot be redefined");
+  }
+  if (scope.contains_here(let.name)) {
+    fail(frame, let.offset, "the parameter '" + let.name + "' is already defined");
+  }
+  reader::Value value = reader::evaluate(let.value, scope, frame.file->source);
+  const auto override = options_.overrides.find(let.name);
+  if (frame.blocks.empty() && override != options_.overrides.end()) {
+    value.number = override->second;
+    used_overrides_.insert(let.name);
+  }
+  if (std::isnan(value.number)) fail(frame, let.offset, "this value is not a number");
+  scope.set(let.name, value);
+}
+
+void Elaborator::solver(const ast::Solver& solver, const Frame& frame) {
+  static constexpr Slot kSlots[] = {{"relative_tolerance"}, {"voltage_tolerance"},
+                                    {"current_tolerance"},  {"max_newton_iterations"},
+                                    {"integration"},        {"minimum_conductance"}};
+  const ast::Call call{{solver.offset}, "solver", solver.arguments};
+  const BoundArguments args(call, kSlots, "solver", frame.file->source);
+  SolverOptions& options = deck_.circuit.solver;
+  const auto positive = [&](std::string_view name, Quantity q, double& field) {
+    if (!args.get(name)) return;
+    field = value(args, name, q, frame);
+    if (field <= 0) fail(frame, args.offset(name), std::string(name) + " must be positive");
+  };
+  positive("relative_tolerance", Quantity::ratio, options.relative_tolerance);
+  positive("voltage_tolerance", Quantity::voltage, options.voltage_tolerance);
+  positive("current_tolerance", Quantity::current, options.current_tolerance);
+  positive("minimum_conductance", Quantity::conductance, options.minimum_conductance);
+  if (args.get("max_newton_iterations")) {
+    const double n = value(args, "max_newton_iterations", Quantity::dimensionless, frame);
+    if (n < 1 || n > 1e6 || n != std::floor(n)) {
+      fail(frame, args.offset("max_newton_iterations"),
+           "max_newton_iterations must be a whole number from 1 to 1000000");
+    }
+    options.max_newton_iterations = static_cast<int>(n);
+  }
+  if (const ast::Expr* e = args.get("integration")) {
+    options.integration = require_choice(*e, {"trapezoidal", "bdf2"}, frame.file->source) == "bdf2"
+                              ? Integration::bdf2
+                              : Integration::trapezoidal;
+  }
+}
+
+void Elaborator::instantiate_block(const ast::Instance& instance, const Frame& frame) {
+  const auto& [file, block] = blocks_.at(instance.call.name);
+  for (const std::string& active : frame.blocks) {
+    if (active == block->name) {
+      std::string chain;
+      for (const std::string& b : frame.blocks) chain += b + " -> ";
+      fail(frame, instance.call.offset,
+           "block '" + block->name + "' contains itself: " + chain + block->name);
+    }
+  }
+  if (frame.blocks.size() >= kMaxBlockDepth) {
+    fail(frame, instance.call.offset, "blocks are nested too deeply");
+  }
+  std::vector<std::string> names;  // ports, then parameters
+  for (const ast::Name& port : block->ports) names.push_back(port.text);
+  for (const ast::Argument& parameter : block->parameters) {
+    if (!parameter.key) {
+      file->source.fail(parameter.offset, "a block parameter needs a default: name = value");
+    }
+    names.push_back(*parameter.key);
+  }
+  std::vector<Slot> slots;
+  for (std::size_t i = 0; i < names.size(); ++i) {
+    const bool port = i < block->ports.size();
+    slots.push_back({names[i], port, port});
+  }
+  const BoundArguments args(instance.call, slots, "block " + block->name, frame.file->source);
+  Frame inner{file, frame.prefix + instance.name + "/", {}, nullptr, frame.blocks};
+  inner.blocks.push_back(block->name);
+  for (const ast::Name& port : block->ports) {
+    inner.ports[port.text] = node(*args.get(port.text), frame);
+  }
+  // Defaults are read in the file's scope, values given here in the caller's.
+  reader::Scope scope(&globals_);
+  for (const ast::Argument& parameter : block->parameters) {
+    const ast::Expr* given = args.get(*parameter.key);
+    scope.set(*parameter.key, given ? reader::evaluate(*given, *frame.scope, frame.file->source)
+                                    : reader::evaluate(parameter.value, globals_, file->source));
+  }
+  inner.scope = &scope;
+  const std::string name = element_name(instance.name, frame);
+  if (element_kinds_.count(name)) {
+    fail(frame, instance.offset, "an element or instance named '" + name + "' already exists");
+  }
+  element_kinds_[name] = "block";
+  statements(block->body, inner);
+}
+
+std::string Elaborator::element_name(const std::string& local, const Frame& frame) const {
+  return frame.prefix + local;
+}
+
+std::string Elaborator::node(const ast::Expr& e, const Frame& frame) {
+  const std::string name = require_name(e, "a node name", frame.file->source);
+  const int at = ast::offset_of(e);
+  if (name.find('.') != std::string::npos) fail(frame, at, "expected a node name");
+  if (frame.scope->find(name) || name == "pi" || name == "inf") {
+    fail(frame, at, "'" + name + "' is a parameter, not a node");
+  }
+  std::string global;
+  if (name == kGround) {
+    global = kGround;
+  } else if (const auto port = frame.ports.find(name); port != frame.ports.end()) {
+    global = port->second;
+  } else {
+    global = frame.prefix + name;
+  }
+  nodes_.insert(global);
+  return global;
+}
+
+void Elaborator::check_references() {
+  for (const Reference& r : references_) {
+    const auto fail_here = [&](const std::string& message) {
+      r.file->source.fail(r.offset, message);
+    };
+    if (r.kind == Reference::Kind::sense_source) {
+      const auto it = element_kinds_.find(r.name);
+      if (it == element_kinds_.end()) {
+        std::vector<std::string> names;
+        for (const auto& [name, kind] : element_kinds_) names.push_back(name);
+        fail_here("no element named '" + r.name + "'" + reader::suggestion(r.name, names));
+      }
+      if (it->second != "voltage" && it->second != "inductor") {
+        fail_here("'" + r.name + "' is a " + it->second +
+                  "; sense = needs a voltage source or an inductor");
+      }
+      continue;
+    }
+    const auto model = models_.find(r.name);
+    if (model == models_.end()) {
+      std::vector<std::string> names;
+      for (const auto& [name, entry] : models_) names.push_back(name);
+      fail_here("no model named '" + r.name + "'" + reader::suggestion(r.name, names));
+    }
+    const std::string wanted = r.kind == Reference::Kind::diode_model ? "diode"
+                               : r.kind == Reference::Kind::npn_model ? "npn"
+                                                                      : "pnp";
+    if (model->second.kind != wanted) {
+      fail_here("'" + r.name + "' is a " + model->second.kind + " model; expected a " + wanted +
+                " model");
+    }
+  }
+}
+
+}  // namespace stage::elaborate

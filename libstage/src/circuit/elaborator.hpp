@@ -1,0 +1,96 @@
+// Elaboration: the syntax tree of a deck in, a flat stage::Circuit and its
+// analysis statements out. Gives names their meaning (node, parameter, model,
+// element, block by position), evaluates values with their units, expands
+// block instances into hierarchical names (`x1/q`, `x1/mid`; `gnd` stays
+// global), derives models, and checks every reference. Errors are
+// InputErrors at the place in the text that caused them.
+#pragma once
+
+#include <map>
+#include <set>
+#include <string>
+#include <vector>
+
+#include "circuit/arguments.hpp"
+#include "reader/expression.hpp"
+#include "reader/syntax_tree.hpp"
+#include "stage/reader.hpp"
+
+namespace stage::elaborate {
+
+Deck elaborate(std::shared_ptr<const SyntaxTree> tree, const ReadOptions& options);
+
+class Elaborator {
+ public:
+  Elaborator(const SyntaxTree& tree, const ReadOptions& options, Deck& deck);
+  void run();
+
+ private:
+  using File = SyntaxTree::File;
+
+  // Where statements are being read: which file, inside which block instance.
+  struct Frame {
+    const File* file;
+    std::string prefix;                        // "" or "x1/" or "x1/x2/"
+    std::map<std::string, std::string> ports;  // port -> node outside
+    reader::Scope* scope;
+    std::vector<std::string> blocks;  // instantiation chain
+  };
+
+  struct ModelEntry {
+    std::string kind;  // npn, pnp, diode
+    BipolarModel bipolar;
+    DiodeModel diode;
+    // Parameters set explicitly (here or in a base model) and where.
+    std::map<std::string, std::pair<const File*, int>> set;
+  };
+
+  // A reference checked once every statement is read (models and sense
+  // sources may be defined after their use).
+  struct Reference {
+    const File* file;
+    int offset;
+    std::string name;
+    enum class Kind { diode_model, npn_model, pnp_model, sense_source } kind;
+  };
+
+  // elaborator.cpp: the walk over statements.
+  void collect_blocks(const File& file);
+  void statements(const std::vector<ast::Statement>& list, const Frame& frame);
+  void let(const ast::Let& let, const Frame& frame, reader::Scope& scope);
+  void solver(const ast::Solver& solver, const Frame& frame);
+  void instantiate_block(const ast::Instance& instance, const Frame& frame);
+  void check_references();
+  std::string node(const ast::Expr& e, const Frame& frame);
+  std::string element_name(const std::string& local, const Frame& frame) const;
+  [[noreturn]] void fail(const Frame& frame, int offset, const std::string& message) const;
+
+  // elements.cpp
+  void element(const ast::Instance& instance, const Frame& frame);
+  Waveform waveform(const ast::Expr& e, Quantity level, const Frame& frame);
+  double value(const BoundArguments& args, std::string_view name, Quantity q, const Frame& frame,
+               double fallback = 0, bool allow_infinity = false);
+
+  // model_statements.cpp
+  void model(const ast::Model& model, const Frame& frame);
+
+  // analysis_statements.cpp
+  void analysis(const ast::Analyze& analyze, const File& file);
+  SignalRef signal(const ast::Expr& e, const File& file) const;
+  std::string existing_element(const ast::Expr& e, const File& file, bool source_only) const;
+
+  const SyntaxTree& tree_;
+  const ReadOptions& options_;
+  Deck& deck_;
+  reader::Scope globals_;
+  std::set<std::string> used_overrides_;
+  std::map<std::string, std::pair<const File*, const ast::Block*>> blocks_;
+  std::map<std::string, ModelEntry> models_;
+  std::map<std::string, std::string> element_kinds_;  // element name -> kind
+  std::set<std::string> nodes_;
+  std::vector<Reference> references_;
+  std::vector<std::pair<const File*, const ast::Analyze*>> analyses_;
+  bool have_title_ = false;
+};
+
+}  // namespace stage::elaborate

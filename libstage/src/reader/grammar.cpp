@@ -1,0 +1,237 @@
+// The whole Boost.Spirit X3 grammar of the language, kept in this one
+// translation unit because X3 is slow to compile. Statements end at a newline.
+// The grammar reads the text prepared by prepare_for_grammar(), where comments
+// and the newlines inside ( ) and { } are already blanks, so one skipper
+// (blanks) serves everywhere; switching skippers inside recursive rules would
+// make X3 nest contexts without end. Every rule whose attribute is a located
+// node records its start offset.
+#include "reader/grammar.hpp"
+
+#include <boost/fusion/include/adapt_struct.hpp>
+#include <boost/spirit/home/x3.hpp>
+
+BOOST_FUSION_ADAPT_STRUCT(stage::ast::Argument, key, value)
+BOOST_FUSION_ADAPT_STRUCT(stage::ast::Call, name, arguments)
+BOOST_FUSION_ADAPT_STRUCT(stage::ast::Unary, signs, operand)
+BOOST_FUSION_ADAPT_STRUCT(stage::ast::Operation, op, operand)
+BOOST_FUSION_ADAPT_STRUCT(stage::ast::Chain, first, rest)
+BOOST_FUSION_ADAPT_STRUCT(stage::ast::Let, name, value)
+BOOST_FUSION_ADAPT_STRUCT(stage::ast::Instance, name, call)
+BOOST_FUSION_ADAPT_STRUCT(stage::ast::Model, name, base, parameters)
+BOOST_FUSION_ADAPT_STRUCT(stage::ast::Block, name, ports, parameters, body)
+
+namespace stage::reader {
+namespace grammar {
+
+namespace x3 = boost::spirit::x3;
+using x3::eoi;
+using x3::eol;
+using x3::lexeme;
+using x3::lit;
+using x3::raw;
+using x3::ascii::alnum;
+using x3::ascii::alpha;
+using x3::ascii::blank;
+using x3::ascii::char_;
+using x3::ascii::digit;
+using Iterator = const char*;
+
+struct begin_tag;
+
+// Records where each located node starts (after skipped blanks).
+struct annotate {
+  template <class T, class Context>
+  void on_success(Iterator first, Iterator, T& node, const Context& context) const {
+    if constexpr (std::is_base_of_v<ast::Located, T>) {
+      node.offset = static_cast<int>(first - x3::get<begin_tag>(context));
+    }
+  }
+};
+
+// Offset of the first non-blank at or after `it`. Rules with semantic
+// actions do not get on_success with their own node, so they record it here.
+template <class Context>
+int offset_at(Iterator it, const Context& context) {
+  while (*it == ' ' || *it == '\t') ++it;
+  return static_cast<int>(it - x3::get<begin_tag>(context));
+}
+
+// Moves a rule's parsed attribute into one member of its node (for nodes
+// with a single field, which X3 does not adapt reliably).
+template <class Node, class Member>
+auto into(Member Node::*member) {
+  return [member](auto& context) {
+    x3::_val(context).*member = std::move(x3::_attr(context));
+    x3::_val(context).offset = offset_at(x3::_where(context).begin(), context);
+  };
+}
+
+// The matched text of a raw[] directive into a node's `text`.
+const auto matched_text = [](auto& context) {
+  x3::_val(context).text.assign(x3::_attr(context).begin(), x3::_attr(context).end());
+  x3::_val(context).offset = offset_at(x3::_attr(context).begin(), context);
+};
+
+auto keyword(const char* word) { return lexeme[lit(word) >> !(alnum | '_')]; }
+
+// Letters and the non-ASCII symbols that units use: µ μ Ω Ω °.
+const auto unit_word = +(alpha | char_('%') | lit("\xC2\xB5") | lit("\xCE\xBC") | lit("\xCE\xA9") |
+                         lit("\xE2\x84\xA6") | lit("\xC2\xB0"));
+const auto digits_and_point = (+digit >> -('.' >> *digit)) | ('.' >> +digit);
+const auto exponent = char_("eE") >> -char_("+-") >> +digit;
+const auto name_chars = (alpha | '_') >> *(alnum | '_');
+
+x3::rule<class identifier_r, std::string> const identifier = "a name";
+x3::rule<struct number_r, ast::Number> const number = "a number";
+x3::rule<struct name_r, ast::Name> const name = "a name";
+x3::rule<struct expression_r, ast::Expr> const expression = "an expression";
+x3::rule<struct additive_r, ast::Chain> const additive = "an expression";
+x3::rule<struct add_operation_r, ast::Operation> const add_operation = "'+' or '-'";
+x3::rule<struct multiplicative_r, ast::Chain> const multiplicative = "an expression";
+x3::rule<struct mul_operation_r, ast::Operation> const mul_operation = "'*' or '/'";
+x3::rule<struct unary_r, ast::Unary> const unary = "an expression";
+x3::rule<struct power_r, ast::Chain> const power = "an expression";
+x3::rule<struct power_operation_r, ast::Operation> const power_operation = "'^'";
+x3::rule<struct primary_r, ast::Expr> const primary = "a value";
+x3::rule<struct tuple_r, ast::Tuple> const tuple = "a parenthesised list";
+x3::rule<struct call_r, ast::Call> const call = "kind(arguments)";
+x3::rule<struct arguments_r, std::vector<ast::Argument>> const arguments = "'(' arguments ')'";
+x3::rule<struct argument_r, ast::Argument> const argument = "an argument";
+x3::rule<struct keyed_argument_r, ast::Argument> const keyed_argument = "name = value";
+x3::rule<struct positional_argument_r, ast::Argument> const positional_argument = "a value";
+x3::rule<class quoted_r, std::string> const quoted = "a string in double quotes";
+
+x3::rule<struct title_r, ast::Title> const title = "title";
+x3::rule<struct let_r, ast::Let> const let = "let";
+x3::rule<struct include_r, ast::Include> const include = "include";
+x3::rule<struct temperature_r, ast::Temperature> const temperature = "temperature";
+x3::rule<struct solver_r, ast::Solver> const solver = "solver";
+x3::rule<struct instance_r, ast::Instance> const instance = "an element";
+x3::rule<struct model_r, ast::Model> const model = "model";
+x3::rule<struct model_body_r, std::vector<ast::Argument>> const model_body =
+    "'{' parameter = value … '}'";
+x3::rule<struct analyze_r, ast::Analyze> const analyze = "analyze";
+x3::rule<struct block_r, ast::Block> const block = "block";
+x3::rule<struct ports_r, std::vector<ast::Name>> const ports = "port names";
+x3::rule<struct defaults_r, std::vector<ast::Argument>> const defaults =
+    "'; parameter = default, …'";
+x3::rule<struct statement_r, ast::Statement> const statement = "a statement";
+x3::rule<struct statement_line_r, ast::Statement> const statement_line = "a statement";
+x3::rule<struct block_body_r, std::vector<ast::Statement>> const block_body = "block body";
+x3::rule<class line_end_r> const line_end = "the end of the statement";
+x3::rule<class block_end_r> const block_end = "a statement, or 'end' to close the block";
+x3::rule<class input_end_r> const input_end =
+    "a statement (title, let, include, temperature, solver, model, block, analyze, "
+    "or name = kind(…))";
+x3::rule<struct file_r, std::vector<ast::Statement>> const file = "a circuit description";
+
+const auto identifier_def = lexeme[(alpha | char_('_')) >> *(alnum | char_('_'))];
+const auto number_def =
+    raw[lexeme[digits_and_point >> -exponent >> *blank >> -unit_word]][matched_text];
+const auto name_def = raw[lexeme[name_chars >> -('.' >> name_chars)]][matched_text];
+
+const auto expression_def = additive;
+const auto additive_def = multiplicative >> *add_operation;
+const auto add_operation_def = char_("+-") >> multiplicative;
+const auto multiplicative_def = unary >> *mul_operation;
+const auto mul_operation_def = char_("*/") >> unary;
+const auto unary_def = *char_("+-") >> power;
+const auto power_def = primary >> *power_operation;
+const auto power_operation_def = char_('^') >> unary;
+const auto primary_def = number | call | name | tuple;
+const auto tuple_def = (lit('(') >> (expression % ',') > lit(')'))[into(&ast::Tuple::items)];
+const auto call_def = identifier >> arguments;
+const auto arguments_def = lit('(') >> -(argument % ',') >> -lit(',') > lit(')');
+// X3 keeps what a failed alternative wrote into a shared attribute, so the
+// positional form clears the key a failed `name =` may have left.
+const auto argument_def = keyed_argument | positional_argument;
+const auto keyed_argument_def = identifier >> '=' >> expression;
+const auto positional_argument_def = x3::attr(std::optional<std::string>()) >> expression;
+const auto quoted_def = lexeme['"' > *(char_ - '"' - eol) > '"'];
+
+const auto title_def = (keyword("title") > quoted)[into(&ast::Title::text)];
+const auto let_def = keyword("let") > identifier > '=' > expression;
+const auto include_def = (keyword("include") > quoted)[into(&ast::Include::path)];
+const auto temperature_def = (keyword("temperature") > expression)[into(&ast::Temperature::value)];
+const auto solver_def = (keyword("solver") > arguments)[into(&ast::Solver::arguments)];
+const auto instance_def = identifier >> '=' > call;
+const auto model_def = keyword("model") > identifier > '=' > identifier > model_body;
+const auto model_body_def = lit('{') > -(argument % -lit(',')) >> -lit(',') > lit('}');
+const auto analyze_def = (keyword("analyze") > call)[into(&ast::Analyze::call)];
+const auto block_def = keyword("block") > identifier > '(' > ports > -defaults > ')' > line_end >
+                       block_body > block_end;
+const auto ports_def = -(name % ',');
+const auto defaults_def = lit(';') >> -(argument % ',');
+const auto block_body_def = *eol >> *(!keyword("end") >> statement_line);
+const auto block_end_def = keyword("end");
+const auto statement_def =
+    title | let | include | temperature | solver | model | block | analyze | instance;
+const auto statement_line_def = statement > (line_end >> *eol);
+const auto line_end_def = eol | eoi;
+const auto input_end_def = eoi;
+const auto file_def = *eol >> *statement_line > input_end;
+
+BOOST_SPIRIT_DEFINE(identifier, number, name, expression, additive, add_operation, multiplicative,
+                    mul_operation, unary, power, power_operation, primary, tuple, call, arguments,
+                    argument, keyed_argument, positional_argument, quoted, title, let, include,
+                    temperature, solver, instance, model, model_body, analyze, block, ports,
+                    defaults, statement, statement_line, block_body, line_end, block_end, input_end,
+                    file)
+
+#define STAGE_ANNOTATE(r) \
+  struct r : annotate {};
+STAGE_ANNOTATE(number_r)
+STAGE_ANNOTATE(name_r)
+STAGE_ANNOTATE(expression_r)
+STAGE_ANNOTATE(additive_r)
+STAGE_ANNOTATE(add_operation_r)
+STAGE_ANNOTATE(multiplicative_r)
+STAGE_ANNOTATE(mul_operation_r)
+STAGE_ANNOTATE(unary_r)
+STAGE_ANNOTATE(power_r)
+STAGE_ANNOTATE(power_operation_r)
+STAGE_ANNOTATE(primary_r)
+STAGE_ANNOTATE(tuple_r)
+STAGE_ANNOTATE(call_r)
+STAGE_ANNOTATE(arguments_r)
+STAGE_ANNOTATE(argument_r)
+STAGE_ANNOTATE(keyed_argument_r)
+STAGE_ANNOTATE(positional_argument_r)
+STAGE_ANNOTATE(title_r)
+STAGE_ANNOTATE(let_r)
+STAGE_ANNOTATE(include_r)
+STAGE_ANNOTATE(temperature_r)
+STAGE_ANNOTATE(solver_r)
+STAGE_ANNOTATE(instance_r)
+STAGE_ANNOTATE(model_r)
+STAGE_ANNOTATE(model_body_r)
+STAGE_ANNOTATE(analyze_r)
+STAGE_ANNOTATE(block_r)
+STAGE_ANNOTATE(ports_r)
+STAGE_ANNOTATE(defaults_r)
+STAGE_ANNOTATE(statement_r)
+STAGE_ANNOTATE(statement_line_r)
+STAGE_ANNOTATE(block_body_r)
+STAGE_ANNOTATE(file_r)
+#undef STAGE_ANNOTATE
+
+}  // namespace grammar
+
+ast::File parse(const SourceText& source) {
+  namespace x3 = boost::spirit::x3;
+  const std::string text = prepare_for_grammar(source);
+  const char* const begin = text.data();
+  const char* first = begin;
+  const char* const last = begin + text.size();
+  ast::File result;
+  try {
+    x3::parse(first, last,
+              x3::with<grammar::begin_tag>(begin)[x3::skip(x3::ascii::blank)[grammar::file]],
+              result.statements);
+  } catch (const x3::expectation_failure<const char*>& failure) {
+    source.fail(static_cast<int>(failure.where() - begin), "expected " + failure.which());
+  }
+  return result;
+}
+
+}  // namespace stage::reader

@@ -1,0 +1,144 @@
+// The reader's entry points: files in, Deck out. Loads the main file and every
+// file it includes (relative to the including file, then the model search
+// path), refusing include cycles with their chain, then elaborates.
+#include "stage/reader.hpp"
+
+#include <cstdlib>
+#include <fstream>
+#include <sstream>
+
+#include "circuit/elaborator.hpp"
+#include "reader/grammar.hpp"
+
+namespace stage {
+
+namespace fs = std::filesystem;
+
+namespace {
+
+// Includes deeper than this are a mistake even without a cycle.
+constexpr std::size_t kMaxIncludeDepth = 32;
+// Far beyond any hand-written circuit; keeps offsets in an int.
+constexpr std::uintmax_t kMaxFileSize = 64u << 20;
+
+std::string read_whole(const fs::path& path, const SourceLocation& from) {
+  std::error_code ec;
+  const auto size = fs::file_size(path, ec);
+  if (!ec && size > kMaxFileSize) {
+    throw InputError(from, "the file '" + path.string() + "' is too large to be a circuit");
+  }
+  std::ifstream in(path, std::ios::binary);
+  if (!in || fs::is_directory(path, ec)) {
+    throw InputError(from, "cannot read the file '" + path.string() + "'");
+  }
+  std::ostringstream text;
+  text << in.rdbuf();
+  return text.str();
+}
+
+class Loader {
+ public:
+  Loader(SyntaxTree& tree, const ReadOptions& options) : tree_(tree), options_(options) {
+    search_ = options.model_path;
+    for (const fs::path& p : default_model_path()) search_.push_back(p);
+  }
+
+  // Parses one file and, depth first, everything it includes.
+  int load(fs::path path, std::string text) {
+    const fs::path key = fs::weakly_canonical(path);
+    const int index = static_cast<int>(tree_.files.size());
+    tree_.files.push_back({reader::SourceText(path.string(), std::move(text)), {}, {}});
+    tree_.files[index].ast = reader::parse(tree_.files[index].source);
+    chain_.push_back(key);
+    loaded_.insert(key);
+    // Indexing again after each load: nested loads grow `files`.
+    for (std::size_t i = 0; i < tree_.files[index].ast.statements.size(); ++i) {
+      const auto* include = boost::get<ast::Include>(&tree_.files[index].ast.statements[i]);
+      if (include) resolve(index, *include, path.parent_path());
+    }
+    chain_.pop_back();
+    return index;
+  }
+
+ private:
+  void resolve(int from, const ast::Include& include, const fs::path& folder) {
+    const reader::SourceText& source = tree_.files[from].source;
+    const fs::path written(include.path);
+    std::vector<fs::path> candidates{folder / written};
+    if (written.is_relative()) {
+      for (const fs::path& p : search_) candidates.push_back(p / written);
+    }
+    std::error_code ec;
+    for (const fs::path& candidate : candidates) {
+      if (!fs::is_regular_file(candidate, ec)) continue;
+      const fs::path key = fs::weakly_canonical(candidate);
+      for (std::size_t i = 0; i < chain_.size(); ++i) {
+        if (chain_[i] != key) continue;
+        std::string cycle;
+        for (std::size_t j = i; j < chain_.size(); ++j)
+          cycle += chain_[j].filename().string() + " -> ";
+        source.fail(include.offset, "include cycle: " + cycle + key.filename().string());
+      }
+      if (chain_.size() >= kMaxIncludeDepth)
+        source.fail(include.offset, "includes nest too deeply");
+      if (loaded_.count(key)) {
+        tree_.files[from].includes[include.offset] = -1;
+        return;
+      }
+      std::string text = read_whole(candidate, source.location(include.offset));
+      const int index = load(candidate, std::move(text));
+      tree_.files[from].includes[include.offset] = index;
+      return;
+    }
+    std::string looked;
+    for (const fs::path& c : candidates) looked += "\n  " + c.string();
+    source.fail(include.offset, "cannot find '" + include.path + "'; looked for:" + looked);
+  }
+
+  SyntaxTree& tree_;
+  const ReadOptions& options_;
+  std::vector<fs::path> search_;
+  std::vector<fs::path> chain_;
+  std::set<fs::path> loaded_;
+};
+
+Deck read(const fs::path& path, std::string text, const ReadOptions& options) {
+  auto tree = std::make_shared<SyntaxTree>();
+  Loader(*tree, options).load(path, std::move(text));
+  return elaborate::elaborate(std::move(tree), options);
+}
+
+}  // namespace
+
+std::vector<fs::path> default_model_path() {
+  std::vector<fs::path> path;
+  if (const char* env = std::getenv("STAGE_MODEL_PATH")) {
+    std::string_view rest(env);
+    while (!rest.empty()) {
+      const auto colon = rest.find(':');
+      if (colon != 0) path.emplace_back(std::string(rest.substr(0, colon)));
+      if (colon == std::string_view::npos) break;
+      rest.remove_prefix(colon + 1);
+    }
+  }
+  path.emplace_back(STAGE_INSTALLED_MODELS);
+  path.emplace_back(STAGE_SOURCE_MODELS);
+  return path;
+}
+
+Deck read_file(const fs::path& path, const ReadOptions& options) {
+  return read(path, read_whole(path, {path.string(), 0, 0}), options);
+}
+
+Deck read_text(const std::string& text, const std::string& file_name, const ReadOptions& options) {
+  return read(file_name, text, options);
+}
+
+Circuit Deck::with_parameter(const std::string& name, double value) const {
+  if (!tree) throw InputError({file.string(), 0, 0}, "this deck was not read from text");
+  ReadOptions changed = options;
+  changed.overrides[name] = value;
+  return elaborate::elaborate(tree, changed).circuit;
+}
+
+}  // namespace stage

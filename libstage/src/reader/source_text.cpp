@@ -1,0 +1,131 @@
+// Offsets to lines and columns, and the preparation of raw text for the
+// grammar: checks for bad UTF-8 and unbalanced or too deeply nested brackets
+// (so the grammar never recurses without bound or runs off an unclosed list),
+// and blanking of comments and of newlines inside brackets.
+#include "reader/source_text.hpp"
+
+#include <algorithm>
+
+namespace stage::reader {
+
+SourceText::SourceText(std::string file_name, std::string text)
+    : file_name_(std::move(file_name)), text_(std::move(text)) {
+  line_starts_.push_back(0);
+  for (std::size_t i = 0; i < text_.size(); ++i) {
+    if (text_[i] == '\n') line_starts_.push_back(static_cast<int>(i + 1));
+  }
+}
+
+SourceLocation SourceText::location(int offset) const {
+  offset = std::clamp(offset, 0, static_cast<int>(text_.size()));
+  const auto next = std::upper_bound(line_starts_.begin(), line_starts_.end(), offset);
+  const int line = static_cast<int>(next - line_starts_.begin());
+  int column = 1;
+  for (int i = line_starts_[line - 1]; i < offset; ++i) {
+    if ((static_cast<unsigned char>(text_[i]) & 0xC0) != 0x80) ++column;
+  }
+  return {file_name_, line, column};
+}
+
+std::string SourceText::line_text(int line) const {
+  if (line < 1 || line > static_cast<int>(line_starts_.size())) return {};
+  const int begin = line_starts_[line - 1];
+  int end = begin;
+  while (end < static_cast<int>(text_.size()) && text_[end] != '\n' && text_[end] != '\r') ++end;
+  return text_.substr(begin, end - begin);
+}
+
+InputError SourceText::error(int offset, const std::string& message) const {
+  const SourceLocation where = location(offset);
+  return InputError(where, message, line_text(where.line));
+}
+
+void SourceText::fail(int offset, const std::string& message) const {
+  throw error(offset, message);
+}
+
+namespace {
+
+// Length of the valid UTF-8 sequence starting at `i`, or 0 if it is invalid.
+int utf8_length(const std::string& s, std::size_t i) {
+  const auto b0 = static_cast<unsigned char>(s[i]);
+  int length = 0;
+  unsigned min = 0;
+  if (b0 < 0x80) return 1;
+  if ((b0 & 0xE0) == 0xC0)
+    length = 2, min = 0x80;
+  else if ((b0 & 0xF0) == 0xE0)
+    length = 3, min = 0x800;
+  else if ((b0 & 0xF8) == 0xF0)
+    length = 4, min = 0x10000;
+  else
+    return 0;
+  if (i + length > s.size()) return 0;
+  unsigned code = b0 & (0x7F >> length);
+  for (int k = 1; k < length; ++k) {
+    const auto b = static_cast<unsigned char>(s[i + k]);
+    if ((b & 0xC0) != 0x80) return 0;
+    code = (code << 6) | (b & 0x3F);
+  }
+  if (code < min || code > 0x10FFFF || (code >= 0xD800 && code <= 0xDFFF)) return 0;
+  return length;
+}
+
+}  // namespace
+
+std::string prepare_for_grammar(const SourceText& source) {
+  // Deep enough for any real circuit, shallow enough for the grammar's stack.
+  constexpr std::size_t kMaxNesting = 100;
+  const std::string& s = source.text();
+  std::string prepared = s;
+  struct Open {
+    char bracket;
+    int offset;
+  };
+  std::vector<Open> open;
+  bool in_comment = false, in_string = false;
+  for (std::size_t i = 0; i < s.size();) {
+    const int length = utf8_length(s, i);
+    const int offset = static_cast<int>(i);
+    if (length == 0) source.fail(offset, "this byte is not valid UTF-8 text");
+    const char c = s[i];
+    if (c == '\0') source.fail(offset, "a NUL character is not allowed in a circuit description");
+    if (c == '\n' || c == '\r') {
+      in_comment = in_string = false;
+      if (!open.empty()) prepared[i] = ' ';
+    }
+    if (c == '#' && !in_string) in_comment = true;
+    if (in_comment) std::fill_n(prepared.begin() + i, length, ' ');
+    i += length;
+    if (in_comment) continue;
+    if (in_string) {
+      in_string = c != '"';
+      continue;
+    }
+    if (c == '"')
+      in_string = true;
+    else if (c == '(' || c == '{') {
+      if (open.size() >= kMaxNesting) {
+        source.fail(offset, "brackets nested more than " + std::to_string(kMaxNesting) + " deep");
+      }
+      open.push_back({c, offset});
+    } else if (c == ')' || c == '}') {
+      const char wanted = c == ')' ? '(' : '{';
+      if (open.empty()) source.fail(offset, std::string("this '") + c + "' closes nothing");
+      if (open.back().bracket != wanted) {
+        source.fail(offset, std::string("this '") + c + "' does not match the '" +
+                                open.back().bracket + "' at " +
+                                std::to_string(source.location(open.back().offset).line) + ":" +
+                                std::to_string(source.location(open.back().offset).column));
+      }
+      open.pop_back();
+    }
+  }
+  if (!open.empty()) {
+    source.fail(open.back().offset,
+                std::string("this '") + open.back().bracket + "' is never closed");
+  }
+  return prepared;
+}
+
+}  // namespace stage::reader

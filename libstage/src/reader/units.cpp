@@ -1,0 +1,120 @@
+// Unit symbols, SI prefixes and unit names for messages. One table lists
+// every symbol so that reading and printing cannot drift apart.
+#include <array>
+
+#include "reader/unit_table.hpp"
+
+namespace stage {
+namespace {
+
+struct UnitSymbol {
+  std::string_view symbol;
+  Quantity quantity;
+  double scale;
+  double offset;
+  bool takes_prefix;
+};
+
+constexpr std::array kUnits{
+    UnitSymbol{"V", Quantity::voltage, 1, 0, true},
+    UnitSymbol{"A", Quantity::current, 1, 0, true},
+    UnitSymbol{"Ω", Quantity::resistance, 1, 0, true},  // U+03A9
+    UnitSymbol{"Ω", Quantity::resistance, 1, 0, true},  // U+2126 OHM SIGN
+    UnitSymbol{"ohm", Quantity::resistance, 1, 0, true},
+    UnitSymbol{"S", Quantity::conductance, 1, 0, true},
+    UnitSymbol{"F", Quantity::capacitance, 1, 0, true},
+    UnitSymbol{"H", Quantity::inductance, 1, 0, true},
+    UnitSymbol{"s", Quantity::time, 1, 0, true},
+    UnitSymbol{"Hz", Quantity::frequency, 1, 0, true},
+    UnitSymbol{"W", Quantity::power, 1, 0, true},
+    UnitSymbol{"K", Quantity::temperature, 1, 0, true},
+    UnitSymbol{"°C", Quantity::temperature, 1, 273.15, false},
+    UnitSymbol{"degC", Quantity::temperature, 1, 273.15, false},
+    UnitSymbol{"eV", Quantity::energy, 1, 0, true},
+    UnitSymbol{"%", Quantity::ratio, 0.01, 0, false},
+    UnitSymbol{"dB", Quantity::decibel, 1, 0, false},
+    UnitSymbol{"deg", Quantity::angle, 1, 0, false},
+};
+
+struct Prefix {
+  std::string_view symbol;
+  double scale;
+};
+
+constexpr std::array kPrefixes{
+    Prefix{"a", 1e-18}, Prefix{"f", 1e-15}, Prefix{"p", 1e-12}, Prefix{"n", 1e-9},
+    Prefix{"u", 1e-6},  Prefix{"µ", 1e-6},  Prefix{"μ", 1e-6},  Prefix{"m", 1e-3},
+    Prefix{"k", 1e3},   Prefix{"M", 1e6},   Prefix{"G", 1e9},   Prefix{"T", 1e12},
+};
+
+}  // namespace
+
+std::string_view unit_name(Quantity quantity) {
+  switch (quantity) {
+    case Quantity::dimensionless:
+      return "no unit";
+    case Quantity::voltage:
+      return "V";
+    case Quantity::current:
+      return "A";
+    case Quantity::resistance:
+      return "Ω";
+    case Quantity::conductance:
+      return "S";
+    case Quantity::capacitance:
+      return "F";
+    case Quantity::inductance:
+      return "H";
+    case Quantity::time:
+      return "s";
+    case Quantity::frequency:
+      return "Hz";
+    case Quantity::power:
+      return "W";
+    case Quantity::temperature:
+      return "K";
+    case Quantity::energy:
+      return "eV";
+    case Quantity::angle:
+      return "deg";
+    case Quantity::ratio:
+      return "%";
+    case Quantity::decibel:
+      return "dB";
+  }
+  return "?";
+}
+
+namespace reader {
+
+UnitReading read_unit(std::string_view word, bool touching) {
+  for (const UnitSymbol& unit : kUnits) {
+    if (word == unit.symbol) return {unit.scale, unit.offset, unit.quantity, {}};
+  }
+  for (const Prefix& prefix : kPrefixes) {
+    if (!word.starts_with(prefix.symbol)) continue;
+    const std::string_view rest = word.substr(prefix.symbol.size());
+    if (rest.empty()) {
+      if (touching) return {prefix.scale, 0, std::nullopt, {}};
+      return {1, 0, std::nullopt,
+              "the prefix '" + std::string(word) +
+                  "' must touch the number (write it without a space, e.g. 4.7k)"};
+    }
+    for (const UnitSymbol& unit : kUnits) {
+      if (rest == unit.symbol && unit.takes_prefix) {
+        return {prefix.scale * unit.scale, 0, unit.quantity, {}};
+      }
+    }
+  }
+  return {1, 0, std::nullopt, "'" + std::string(word) + "' is not a unit or SI prefix"};
+}
+
+bool units_fit(Quantity given, Quantity wanted) {
+  const auto fraction = [](Quantity q) {
+    return q == Quantity::dimensionless || q == Quantity::ratio;
+  };
+  return given == wanted || (fraction(given) && fraction(wanted));
+}
+
+}  // namespace reader
+}  // namespace stage
