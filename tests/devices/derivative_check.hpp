@@ -92,7 +92,10 @@ class DerivativeCheck {
   }
 
   struct Result {
-    double worst = 0;   // largest scaled error over every entry of G and C
+    double worst = 0;  // largest scaled error over every entry of G and C
+    // Largest |analytic - difference| / max(|analytic|, |difference|, floor)
+    // before the rounding allowance: what the comparison actually resolved.
+    double worst_raw = 0;
     std::string where;  // the entry it was found at
   };
 
@@ -136,7 +139,9 @@ class DerivativeCheck {
     for (int i = 0; i < size(); ++i) {
       const double floor = 1e-4 * analytic.row(i).cwiseAbs().maxCoeff();
       const double scale = std::max({std::abs(analytic(i, j)), std::abs(difference[i]), floor});
-      const double excess = std::abs(analytic(i, j) - difference[i]) - noise[i];
+      const double gap = std::abs(analytic(i, j) - difference[i]);
+      if (scale > 0) result.worst_raw = std::max(result.worst_raw, gap / scale);
+      const double excess = gap - noise[i];
       if (excess <= 0) continue;
       const double error = scale > 0 ? excess / scale : kInfinity;
       if (error > result.worst) {

@@ -5,6 +5,10 @@
 // junction exponential is continued linearly (80 n kT/q ~ 2.1 V).
 #include <gtest/gtest.h>
 
+#include <algorithm>
+#include <cstdio>
+#include <string>
+
 #include "device_fixtures.hpp"
 
 namespace {
@@ -19,6 +23,12 @@ using namespace stage::testing;
 // catching any wrong term, which shows up at order 1 (common practice).
 constexpr double kTolerance = 1e-6;
 
+std::string scientific(double v) {
+  char text[32];
+  std::snprintf(text, sizeof text, "%.3g", v);
+  return text;
+}
+
 // Junction voltages in the npn sense. Zero itself is left out: the
 // current-crowding base resistance has a corner at zero base current.
 const double kJunctionGrid[] = {-2.0, -0.4, 0.2, 0.6, 0.72, 0.85, 1.1, 2.5};
@@ -26,15 +36,18 @@ const double kJunctionGrid[] = {-2.0, -0.4, 0.2, 0.6, 0.72, 0.85, 1.1, 2.5};
 double worst_over_grid(const BipolarModel& model, Polarity polarity, double area = 1,
                        double kelvin = stage::kRoomTemperature) {
   auto check = bipolar_check(model, polarity, area);
-  double worst = 0;
+  double worst = 0, raw = 0;
   for (double vbe : kJunctionGrid) {
     for (double vbc : kJunctionGrid) {
       const auto result = check.compare(bipolar_state(check, polarity, vbe, vbc), kelvin);
       EXPECT_LT(result.worst, kTolerance)
           << "vbe " << vbe << " vbc " << vbc << ": " << result.where;
       worst = std::max(worst, result.worst);
+      raw = std::max(raw, result.worst_raw);
     }
   }
+  ::testing::Test::RecordProperty(polarity == Polarity::npn ? "worst_npn" : "worst_pnp",
+                                  scientific(worst) + " raw " + scientific(raw));
   return worst;
 }
 
@@ -49,10 +62,7 @@ TEST(BipolarDerivatives, EbersMollFormWithResistancesAndCharges) {
 }
 
 TEST(BipolarDerivatives, FullGummelPoonBaseChargeModulatedResistance) {
-  for (Polarity p : {Polarity::npn, Polarity::pnp}) {
-    const double worst = worst_over_grid(full_bipolar_model(), p, 2.0);
-    RecordProperty(p == Polarity::npn ? "worst_npn" : "worst_pnp", std::to_string(worst));
-  }
+  for (Polarity p : {Polarity::npn, Polarity::pnp}) worst_over_grid(full_bipolar_model(), p, 2.0);
 }
 
 TEST(BipolarDerivatives, FullGummelPoonCurrentCrowdingAwayFromReference) {
@@ -72,7 +82,7 @@ TEST(BipolarDerivatives, GummelPoonWithoutResistancesOrCharges) {
 double worst_diode(const stage::DiodeModel& model, double area = 1,
                    double kelvin = stage::kRoomTemperature) {
   auto check = diode_check(model, area);
-  double worst = 0;
+  double worst = 0, raw = 0;
   // Through breakdown (-6.2 V) and past its linear continuation, and
   // forward past the limiting and continuation voltages.
   for (double v : {-12.0, -9.0, -6.6, -6.2, -3.0, -0.5, 0.2, 0.6, 0.8, 1.2, 3.0, 6.0}) {
@@ -82,7 +92,9 @@ double worst_diode(const stage::DiodeModel& model, double area = 1,
     const auto result = check.compare(x, kelvin);
     EXPECT_LT(result.worst, kTolerance) << "v " << v << ": " << result.where;
     worst = std::max(worst, result.worst);
+    raw = std::max(raw, result.worst_raw);
   }
+  ::testing::Test::RecordProperty("worst_diode", scientific(worst) + " raw " + scientific(raw));
   return worst;
 }
 
