@@ -74,7 +74,7 @@ NewtonOutcome NewtonSolver::solve(std::vector<double>& x, const NewtonProblem& p
     request.limit = iteration > 0;
     system_.evaluate(request, work_);
     assemble(problem, x);
-    if (last_update_small && residual_small()) {
+    if (last_update_small && !work_.limited && residual_small()) {
       outcome.status = NewtonStatus::converged;
       return outcome;
     }

@@ -105,8 +105,10 @@ class BipolarDevice final : public mna::Device {
     const auto x = scatter_.gather(request.x);
     JunctionVoltages v = junction_voltages(pol_, x);
     if (request.limit) {
+      const JunctionVoltages wanted = v;
       v.vbe = limit_junction_voltage(v.vbe, last_.vbe, params_.nf_vt, params_.vcrit_be);
       v.vbc = limit_junction_voltage(v.vbc, last_.vbc, params_.nr_vt, params_.vcrit_bc);
+      if (v.vbe != wanted.vbe || v.vbc != wanted.vbc) out.limited = true;
     }
     last_ = v;
     scatter_.scatter(local_system(params_, pol_, x, v), out);

@@ -109,6 +109,7 @@ class DiodeDevice final : public mna::Device {
                                                 params_.nvt, params_.vcrit_breakdown);
         v = -w - params_.bv;
       }
+      if (v != x[kJunction] - x[kCathode]) out.limited = true;
     }
     last_v_ = v;
     scatter_.scatter(local_system(params_, x, v), out);

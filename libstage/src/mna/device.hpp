@@ -61,6 +61,10 @@ struct EvalOutput {
   double* q = nullptr;
   double* g = nullptr;
   double* c = nullptr;
+  // Set by a device whose evaluation used a limited junction voltage instead
+  // of the one in x: the stamped residual is then that of a linearisation,
+  // and Newton must not take it as converged.
+  bool limited = false;
 };
 
 struct OperatingPointReport {

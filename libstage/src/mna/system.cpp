@@ -55,7 +55,7 @@ Workspace System::make_workspace() const {
   const std::size_t n = static_cast<std::size_t>(size()) + 1;
   const std::size_t nnz = static_cast<std::size_t>(pattern_.nnz()) + 1;
   return {std::vector<double>(n), std::vector<double>(n), std::vector<double>(nnz),
-          std::vector<double>(nnz)};
+          std::vector<double>(nnz), false};
 }
 
 void System::evaluate(const EvalRequest& request, Workspace& w) const {
@@ -65,6 +65,7 @@ void System::evaluate(const EvalRequest& request, Workspace& w) const {
   std::fill(w.c.begin(), w.c.end(), 0.0);
   EvalOutput out = w.output();
   for (const auto& d : devices_) d->evaluate(request, out);
+  w.limited = out.limited;
 }
 
 EvalRequest System::request(const double* x) const {

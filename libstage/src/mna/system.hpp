@@ -18,6 +18,7 @@ namespace stage::mna {
 struct Workspace {
   std::vector<double> f, q;  // n + 1
   std::vector<double> g, c;  // nnz + 1
+  bool limited = false;      // some device evaluated at a limited junction voltage
   EvalOutput output() { return {f.data(), q.data(), g.data(), c.data()}; }
 };
 

@@ -1,0 +1,135 @@
+// DC operating point of generated transistor circuits with 10 to 2,000
+// transistors (chains of emitter followers, arrays of resistor-loaded
+// differential pairs): Newton iterations and time of a whole solve from zero,
+// and how an iteration splits between device evaluation and the KLU
+// refactor+solve of the same matrix.
+#include <benchmark/benchmark.h>
+
+#include "analysis/newton.hpp"
+#include "analysis/operating_point.hpp"
+#include "mna/sparse_lu.hpp"
+#include "mna/system.hpp"
+
+namespace {
+
+stage::BipolarModel generic_npn() {  // generic textbook-typical values
+  stage::BipolarModel m;
+  m.saturation_current = 1e-15;
+  m.beta_forward = 150;
+  m.early_voltage_forward = 80;
+  m.base_resistance = 50;
+  m.be_capacitance = 10e-12;
+  m.bc_capacitance = 4e-12;
+  m.forward_transit_time = 0.4e-9;
+  return m;
+}
+
+// Direct-coupled chain of followers, each with its own emitter resistor; a
+// divider biases the first base. Alternating 12 V rails keep every stage active.
+stage::Circuit follower_chain(int transistors) {
+  stage::Circuit c;
+  c.add_model("npn", generic_npn());
+  c.add("vcc", stage::VoltageSource{"vcc", "gnd", 24.0});
+  c.add("rb1", stage::Resistor{"vcc", "e0", 10e3});
+  c.add("rb2", stage::Resistor{"e0", "gnd", 10e3});
+  for (int k = 1; k <= transistors; ++k) {
+    const std::string base = "e" + std::to_string(k - 1), emitter = "e" + std::to_string(k);
+    c.add("q" + std::to_string(k),
+          stage::Bipolar{stage::Polarity::npn, "vcc", base, emitter, {}, "npn"});
+    c.add("re" + std::to_string(k), stage::Resistor{emitter, "gnd", 20e3});
+    // Pull each node back up so that the chain does not run out of headroom.
+    c.add("rp" + std::to_string(k), stage::Resistor{"vcc", emitter, 40e3});
+  }
+  return c;
+}
+
+// Independent differential pairs with a shared tail per pair, inputs offset
+// by a few millivolts from a common bias.
+stage::Circuit differential_pairs(int transistors) {
+  stage::Circuit c;
+  c.add_model("npn", generic_npn());
+  c.add("vcc", stage::VoltageSource{"vcc", "gnd", 12.0});
+  c.add("vee", stage::VoltageSource{"vee", "gnd", -12.0});
+  c.add("vin", stage::VoltageSource{"inp", "gnd", 0.005});
+  for (int k = 0; k < transistors / 2; ++k) {
+    const std::string s = std::to_string(k);
+    c.add("qa" + s, stage::Bipolar{stage::Polarity::npn, "ca" + s, "inp", "t" + s, {}, "npn"});
+    c.add("qb" + s, stage::Bipolar{stage::Polarity::npn, "cb" + s, "gnd", "t" + s, {}, "npn"});
+    c.add("rca" + s, stage::Resistor{"vcc", "ca" + s, 10e3});
+    c.add("rcb" + s, stage::Resistor{"vcc", "cb" + s, 10e3});
+    c.add("rt" + s, stage::Resistor{"t" + s, "vee", 11.3e3});
+  }
+  return c;
+}
+
+stage::Circuit generate(int kind, int transistors) {
+  return kind == 0 ? follower_chain(transistors) : differential_pairs(transistors);
+}
+
+void BM_BiasFromZero(benchmark::State& state) {
+  const auto circuit = generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
+  stage::mna::System system(circuit);
+  stage::analysis::NewtonSolver newton(system, circuit.solver);
+  std::vector<double> x(static_cast<std::size_t>(system.size()) + 1);
+  int iterations = 0;
+  for (auto _ : state) {
+    std::fill(x.begin(), x.end(), 0.0);
+    iterations = stage::analysis::solve_operating_point(newton, x).newton_iterations;
+  }
+  state.counters["newton_iterations"] = iterations;
+  state.counters["unknowns"] = system.size();
+  // Seconds per Newton iteration: elapsed / (runs * iterations per run).
+  state.counters["seconds_per_newton_iteration"] = benchmark::Counter(
+      iterations, benchmark::Counter::kIsIterationInvariantRate | benchmark::Counter::kInvert);
+}
+
+// One evaluation of every device at the solution (what each iteration does
+// before the linear solve).
+void BM_DeviceEvaluation(benchmark::State& state) {
+  const auto circuit = generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
+  stage::mna::System system(circuit);
+  stage::analysis::NewtonSolver newton(system, circuit.solver);
+  std::vector<double> x(static_cast<std::size_t>(system.size()) + 1, 0.0);
+  stage::analysis::solve_operating_point(newton, x);
+  auto w = system.make_workspace();
+  auto request = system.request(x.data());
+  request.limit = true;
+  for (auto _ : state) {
+    system.evaluate(request, w);
+    benchmark::DoNotOptimize(w.f.data());
+  }
+}
+
+// The linear-algebra half of an iteration: KLU refactor and solve.
+void BM_RefactorSolve(benchmark::State& state) {
+  const auto circuit = generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
+  stage::mna::System system(circuit);
+  stage::analysis::NewtonSolver newton(system, circuit.solver);
+  std::vector<double> x(static_cast<std::size_t>(system.size()) + 1, 0.0);
+  stage::analysis::solve_operating_point(newton, x);
+  auto w = system.make_workspace();
+  system.evaluate(system.request(x.data()), w);
+  stage::mna::SparseLu<double> lu(system.pattern());
+  lu.factor(w.g.data());
+  std::vector<double> rhs(w.f.begin() + 1, w.f.end());
+  for (auto _ : state) {
+    lu.factor(w.g.data());
+    std::copy(w.f.begin() + 1, w.f.end(), rhs.begin());
+    lu.solve(rhs.data());
+    benchmark::DoNotOptimize(rhs.data());
+  }
+}
+
+void Sizes(benchmark::internal::Benchmark* b) {
+  for (int kind : {0, 1}) {
+    for (int n : {10, 100, 500, 2000}) b->Args({kind, n});
+  }
+}
+
+BENCHMARK(BM_BiasFromZero)->Apply(Sizes)->Unit(benchmark::kMicrosecond);
+BENCHMARK(BM_DeviceEvaluation)->Apply(Sizes)->Unit(benchmark::kMicrosecond);
+BENCHMARK(BM_RefactorSolve)->Apply(Sizes)->Unit(benchmark::kMicrosecond);
+
+}  // namespace
+
+BENCHMARK_MAIN();
