@@ -60,11 +60,13 @@ int offset_at(Iterator it, const Context& context) {
 // with a single field, which X3 does not adapt reliably).
 template <class Node, class Member>
 auto into(Member Node::*member) {
-  return [member](auto& context) {
-    x3::_val(context).*member = std::move(x3::_attr(context));
-    x3::_val(context).offset = offset_at(x3::_where(context).begin(), context);
-  };
+  return [member](auto& context) { x3::_val(context).*member = std::move(x3::_attr(context)); };
 }
+
+// Records where the node of a rule with semantic actions starts.
+const auto mark = x3::eps[([](auto& context) {
+  x3::_val(context).offset = offset_at(x3::_where(context).begin(), context);
+})];
 
 // The matched text of a raw[] directive into a node's `text`.
 const auto matched_text = [](auto& context) {
@@ -119,6 +121,7 @@ x3::rule<struct statement_r, ast::Statement> const statement = "a statement";
 x3::rule<struct statement_line_r, ast::Statement> const statement_line = "a statement";
 x3::rule<struct block_body_r, std::vector<ast::Statement>> const block_body = "block body";
 x3::rule<class line_end_r> const line_end = "the end of the statement";
+x3::rule<class statement_end_r> const statement_end = "the end of the statement";
 x3::rule<class block_end_r> const block_end = "a statement, or 'end' to close the block";
 x3::rule<class input_end_r> const input_end =
     "a statement (title, let, include, temperature, solver, model, block, analyze, "
@@ -139,7 +142,8 @@ const auto unary_def = *char_("+-") >> power;
 const auto power_def = primary >> *power_operation;
 const auto power_operation_def = char_('^') >> unary;
 const auto primary_def = number | call | name | tuple;
-const auto tuple_def = (lit('(') >> (expression % ',') > lit(')'))[into(&ast::Tuple::items)];
+const auto tuple_def = mark >>
+                       (lit('(') >> (expression % ',') > lit(')'))[into(&ast::Tuple::items)];
 const auto call_def = identifier >> arguments;
 const auto arguments_def = lit('(') >> -(argument % ',') >> -lit(',') > lit(')');
 // X3 keeps what a failed alternative wrote into a shared attribute, so the
@@ -149,15 +153,16 @@ const auto keyed_argument_def = identifier >> '=' >> expression;
 const auto positional_argument_def = x3::attr(std::optional<std::string>()) >> expression;
 const auto quoted_def = lexeme['"' > *(char_ - '"' - eol) > '"'];
 
-const auto title_def = (keyword("title") > quoted)[into(&ast::Title::text)];
+const auto title_def = mark >> (keyword("title") > quoted)[into(&ast::Title::text)];
 const auto let_def = keyword("let") > identifier > '=' > expression;
-const auto include_def = (keyword("include") > quoted)[into(&ast::Include::path)];
-const auto temperature_def = (keyword("temperature") > expression)[into(&ast::Temperature::value)];
-const auto solver_def = (keyword("solver") > arguments)[into(&ast::Solver::arguments)];
+const auto include_def = mark >> (keyword("include") > quoted)[into(&ast::Include::path)];
+const auto temperature_def = mark >>
+                             (keyword("temperature") > expression)[into(&ast::Temperature::value)];
+const auto solver_def = mark >> (keyword("solver") > arguments)[into(&ast::Solver::arguments)];
 const auto instance_def = identifier >> '=' > call;
 const auto model_def = keyword("model") > identifier > '=' > identifier > model_body;
 const auto model_body_def = lit('{') > -(argument % -lit(',')) >> -lit(',') > lit('}');
-const auto analyze_def = (keyword("analyze") > call)[into(&ast::Analyze::call)];
+const auto analyze_def = mark >> (keyword("analyze") > call)[into(&ast::Analyze::call)];
 const auto block_def = keyword("block") > identifier > '(' > ports > -defaults > ')' > line_end >
                        block_body > block_end;
 const auto ports_def = -(name % ',');
@@ -166,7 +171,8 @@ const auto block_body_def = *eol >> *(!keyword("end") >> statement_line);
 const auto block_end_def = keyword("end");
 const auto statement_def =
     title | let | include | temperature | solver | model | block | analyze | instance;
-const auto statement_line_def = statement > (line_end >> *eol);
+const auto statement_line_def = statement > statement_end;
+const auto statement_end_def = line_end >> *eol;
 const auto line_end_def = eol | eoi;
 const auto input_end_def = eoi;
 const auto file_def = *eol >> *statement_line > input_end;
@@ -175,8 +181,8 @@ BOOST_SPIRIT_DEFINE(identifier, number, name, expression, additive, add_operatio
                     mul_operation, unary, power, power_operation, primary, tuple, call, arguments,
                     argument, keyed_argument, positional_argument, quoted, title, let, include,
                     temperature, solver, instance, model, model_body, analyze, block, ports,
-                    defaults, statement, statement_line, block_body, line_end, block_end, input_end,
-                    file)
+                    defaults, statement, statement_line, statement_end, block_body, line_end,
+                    block_end, input_end, file)
 
 #define STAGE_ANNOTATE(r) \
   struct r : annotate {};
@@ -229,7 +235,10 @@ ast::File parse(const SourceText& source) {
               x3::with<grammar::begin_tag>(begin)[x3::skip(x3::ascii::blank)[grammar::file]],
               result.statements);
   } catch (const x3::expectation_failure<const char*>& failure) {
-    source.fail(static_cast<int>(failure.where() - begin), "expected " + failure.which());
+    // Point at what was found, not at the blanks before it.
+    const char* at = failure.where();
+    while (at < last && (*at == ' ' || *at == '\t')) ++at;
+    source.fail(static_cast<int>(at - begin), "expected " + failure.which());
   }
   return result;
 }

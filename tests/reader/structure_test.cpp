@@ -1,0 +1,129 @@
+// Input errors with their line and column, block flattening, and includes
+// (relative paths, search path, cycles) using fixture files in a temp folder.
+#include <filesystem>
+#include <fstream>
+
+#include "reader_test_support.hpp"
+
+namespace stage::testing {
+namespace {
+
+namespace fs = std::filesystem;
+
+TEST(Errors, SyntaxAndRange) {
+  expect_error("r = resistor(a, b, 0)\n", 1, 20, "must be positive");
+  expect_error("c = capacitor(a, b, -1 nF)\n", 1, 21, "must be positive");
+  expect_error("r = resistor(a, b, 1k)\nr = resistor(b, gnd, 1k)\n", 2, 1, "already exists");
+  expect_error("let rl = 8\nr = resistor(rl, gnd, 1k)\n", 2, 14, "is a parameter, not a node");
+  expect_error("q = npn(c, b, e, model = nothing)\n", 1, 18, "no model named 'nothing'");
+  expect_error("r = resistor(a, b, 1k) extra\n", 1, 24, "expected the end of the statement");
+  expect_error("r = resistor(a, b,\n  1k\n", 1, 13, "never closed");
+  expect_error("r = resistr(a, b, 1k)\n", 1, 5, "nearest: resistor");
+  expect_error("r = resistor(a, b, resistence = 1k)\n", 1, 20, "nearest: resistance");
+  expect_error("x = \xff\n", 1, 5, "not valid UTF-8");
+  expect_error("let x = " + std::string(150, '(') + "1" + std::string(150, ')') + "\n", 1, 109,
+               "nested more than");
+  expect_error("f = cccs(a, gnd, sense = r1, gain = 2)\nr1 = resistor(a, gnd, 1)\n", 1, 18,
+               "needs a voltage source or an inductor");
+}
+
+TEST(Errors, EmptyAndBlankFilesAreFine) {
+  EXPECT_TRUE(read("").circuit.elements().empty());
+  EXPECT_TRUE(read("\n\n# only a comment\n   \n").circuit.elements().empty());
+}
+
+TEST(Errors, MessageShowsLineAndCaret) {
+  try {
+    read("let a = 1\nr = resistor(a1, b, 10 nF)\n");
+    FAIL();
+  } catch (const InputError& e) {
+    EXPECT_STREQ(e.what(),
+                 "test.stage:2:21: expected a value in Ω, but this value is in F\n"
+                 "r = resistor(a1, b, 10 nF)\n"
+                 "                    ^");
+  }
+}
+
+TEST(Blocks, FlattenWithHierarchicalNames) {
+  const Deck deck = read(
+      "block follower(in, out, rail; re = 1 kΩ)\n"
+      "  q  = npn(rail, in, out, model = m)\n"
+      "  r1 = resistor(out, mid, re)\n"
+      "  r2 = resistor(mid, gnd, re / 2)\n"
+      "end\n"
+      "model m = npn { }\n"
+      "x1 = follower(sig, drive, vcc, re = 470 Ω)\n"
+      "x2 = follower(in = a, out = b, rail = vcc)\n");
+  const auto& q = element<Bipolar>(deck, "x1/q");
+  EXPECT_EQ(q.collector, "vcc");
+  EXPECT_EQ(q.base, "sig");
+  EXPECT_EQ(q.emitter, "drive");
+  EXPECT_EQ(element<Resistor>(deck, "x1/r1").b, "x1/mid");
+  EXPECT_EQ(element<Resistor>(deck, "x1/r2").b, "gnd");
+  EXPECT_DOUBLE_EQ(element<Resistor>(deck, "x1/r2").resistance, 235);   // 470 / 2
+  EXPECT_DOUBLE_EQ(element<Resistor>(deck, "x2/r1").resistance, 1000);  // default
+  EXPECT_EQ(element<Resistor>(deck, "x2/r1").a, "b");
+}
+
+TEST(Blocks, NestedAndRecursive) {
+  const Deck deck = read(
+      "block inner(a; r = 1k)\n  r1 = resistor(a, n, r)\nend\n"
+      "block outer(p)\n  y = inner(p, r = 2k)\nend\nx = outer(top)\n");
+  EXPECT_EQ(element<Resistor>(deck, "x/y/r1").a, "top");
+  EXPECT_EQ(element<Resistor>(deck, "x/y/r1").b, "x/y/n");
+  expect_error("block a(p)\n  u = b(p)\nend\nblock b(p)\n  v = a(p)\nend\nx = a(n)\n", 5, 7,
+               "contains itself: a -> b -> a");
+}
+
+class Includes : public ::testing::Test {
+ protected:
+  void SetUp() override {
+    dir_ = fs::temp_directory_path() /
+           ("stage_reader_" + std::to_string(::testing::UnitTest::GetInstance()->random_seed()) +
+            ::testing::UnitTest::GetInstance()->current_test_info()->name());
+    fs::create_directories(dir_ / "sub" / "models");
+    fs::create_directories(dir_ / "library");
+  }
+  void TearDown() override { fs::remove_all(dir_); }
+  void write(const fs::path& name, const std::string& text) { std::ofstream(dir_ / name) << text; }
+  fs::path dir_;
+};
+
+TEST_F(Includes, RelativeToTheIncludingFileThenSearchPath) {
+  write("sub/main.stage", "include \"models/a.stage\"\nq = npn(c, b, e, model = qa)\n");
+  write("sub/models/a.stage", "include \"lib.stage\"\nmodel qa = qlib { beta_forward = 77 }\n");
+  write("library/lib.stage", "model qlib = npn { saturation_current = 2 fA }\n");
+  ReadOptions options;
+  options.model_path = {dir_ / "library"};
+  const Deck deck = read_file(dir_ / "sub/main.stage", options);
+  EXPECT_DOUBLE_EQ(deck.circuit.bipolar_models().at("qa").beta_forward, 77);
+  EXPECT_DOUBLE_EQ(deck.circuit.bipolar_models().at("qa").saturation_current, 2e-15);
+}
+
+TEST_F(Includes, CycleIsReportedWithItsChain) {
+  write("a.stage", "include \"b.stage\"\n");
+  write("b.stage", "\ninclude \"a.stage\"\n");
+  try {
+    read_file(dir_ / "a.stage");
+    FAIL();
+  } catch (const InputError& e) {
+    EXPECT_EQ(e.where().line, 2);
+    EXPECT_EQ(e.where().column, 1);
+    EXPECT_NE(e.message().find("a.stage -> b.stage -> a.stage"), std::string::npos) << e.what();
+  }
+}
+
+TEST_F(Includes, MissingFile) {
+  write("a.stage", "let x = 1\n  include \"nowhere.stage\"\n");
+  try {
+    read_file(dir_ / "a.stage");
+    FAIL();
+  } catch (const InputError& e) {
+    EXPECT_EQ(e.where().line, 2);
+    EXPECT_EQ(e.where().column, 3);
+    EXPECT_NE(e.message().find("cannot find 'nowhere.stage'"), std::string::npos);
+  }
+}
+
+}  // namespace
+}  // namespace stage::testing
