@@ -40,8 +40,9 @@ struct Point {
 class Stepper {
  public:
   Stepper(const mna::System& system, const SolverOptions& solver, const TransientOptions& options,
-          TransientResult& result)
+          TransientResult& result, const StepObserver& observer)
       : system_(system),
+        observer_(observer),
         solver_(solver),
         options_(options),
         result_(result),
@@ -56,8 +57,13 @@ class Stepper {
   void accept(double t_new, bool at_breakpoint);
   double error_ratio(const StepFormula& formula, double h, double h_prev) const;
   [[noreturn]] void fail(double t, double h) const;
+  void record(double t, const std::vector<double>& x) {
+    recorder_.record(t, x);
+    if (observer_) observer_(t, x);
+  }
 
   const mna::System& system_;
+  const StepObserver& observer_;
   SolverOptions solver_;
   TransientOptions options_;
   TransientResult& result_;
@@ -93,7 +99,7 @@ void Stepper::run() {
   peak_.resize(x_.size());
   for (std::size_t i = 0; i < x_.size(); ++i) peak_[i] = std::abs(start.q[i]);
   weights_.assign(3, 0.0);
-  if (options_.from <= 0.0) recorder_.record(0.0, start.x);
+  if (options_.from <= 0.0) record(0.0, start.x);
 
   std::size_t next = 0;  // next breakpoint
   double h = std::min(max_step, breakpoints.front()) * kFirstStepFraction;
@@ -217,7 +223,7 @@ void Stepper::accept(double t_new, bool at_breakpoint) {
   }
   since_breakpoint_ = at_breakpoint ? 1 : std::min(since_breakpoint_ + 1, 3);
   ++result_.accepted_steps;
-  if (t_new >= options_.from) recorder_.record(t_new, x_);
+  if (t_new >= options_.from) record(t_new, x_);
 }
 
 void Stepper::fail(double t, double h) const {
@@ -231,13 +237,13 @@ void Stepper::fail(double t, double h) const {
 }  // namespace
 
 TransientResult integrate(const mna::System& system, const SolverOptions& solver,
-                          const TransientOptions& options) {
+                          const TransientOptions& options, const StepObserver& observer) {
   if (!(options.stop > 0) || options.from >= options.stop || options.from < 0) {
     throw std::invalid_argument("a transient needs 0 <= from < stop");
   }
   TransientResult result;
   result.integration = solver.integration;
-  Stepper stepper(system, solver, options, result);
+  Stepper stepper(system, solver, options, result, observer);
   stepper.run();
   spdlog::debug("transient: {} steps accepted, {} rejected, {} Newton iterations",
                 result.accepted_steps, result.rejected_steps, result.newton_iterations);

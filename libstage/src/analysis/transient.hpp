@@ -2,12 +2,20 @@
 // and benchmarks that build a system with their own devices.
 #pragma once
 
+#include <functional>
+#include <vector>
+
 #include "mna/system.hpp"
 #include "stage/transient.hpp"
 
 namespace stage::analysis {
 
+// Called with the time and every unknown (n + 1 entries) at the start and
+// after each accepted step from options.from on, for analyses that need
+// more than the recorded signals (the device states at a waveform's peak).
+using StepObserver = std::function<void(double time, const std::vector<double>& x)>;
+
 TransientResult integrate(const mna::System& system, const SolverOptions& solver,
-                          const TransientOptions& options);
+                          const TransientOptions& options, const StepObserver& observer = {});
 
 }  // namespace stage::analysis
