@@ -38,7 +38,7 @@ std::string read_whole(const fs::path& path, const SourceLocation& from) {
 
 class Loader {
  public:
-  Loader(SyntaxTree& tree, const ReadOptions& options) : tree_(tree), options_(options) {
+  Loader(SyntaxTree& tree, const ReadOptions& options) : tree_(tree) {
     search_ = options.model_path;
     for (const fs::path& p : default_model_path()) search_.push_back(p);
   }
@@ -96,7 +96,6 @@ class Loader {
   }
 
   SyntaxTree& tree_;
-  const ReadOptions& options_;
   std::vector<fs::path> search_;
   std::vector<fs::path> chain_;
   std::set<fs::path> loaded_;
