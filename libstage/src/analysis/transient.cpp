@@ -34,6 +34,8 @@ constexpr double kSameStep = 1e-9;           // relative: a step this close coun
 
 struct Point {
   double t = 0;
+  double step = 0;  // the h that reached it: t differences would carry rounding into
+                    // BDF2's step ratio and so into the Jacobian
   std::vector<double> x, q, qdot;
 };
 
@@ -54,7 +56,7 @@ class Stepper {
  private:
   enum class Outcome { accepted, error_too_large, newton_failed };
   Outcome attempt(double t_new, double h, double& error_ratio);
-  void accept(double t_new, bool at_breakpoint);
+  void accept(double t_new, double h, bool at_breakpoint);
   double error_ratio(const StepFormula& formula, double h, double h_prev) const;
   [[noreturn]] void fail(double t, double h) const;
   void record(double t, const std::vector<double>& x) {
@@ -93,7 +95,7 @@ void Stepper::run() {
 
   StartPoint start = start_transient(newton_, options_.start, stop);
   result_.newton_iterations += start.newton_iterations;
-  for (Point& p : past_) p = {0.0, start.x, start.q, start.qdot};
+  for (Point& p : past_) p = {0.0, 0.0, start.x, start.q, start.qdot};
   x_ = start.x;
   history_.assign(x_.size(), 0.0);
   peak_.resize(x_.size());
@@ -136,7 +138,7 @@ void Stepper::run() {
       if (h < min_step) fail(t_new, h);
       continue;
     }
-    accept(t_new, lands);
+    accept(t_new, h, lands);
     const double grow =
         ratio > 0 ? std::min(kMaxGrowth, kSafety * std::pow(ratio, -1.0 / (formula_.order + 1)))
                   : kMaxGrowth;
@@ -153,7 +155,7 @@ void Stepper::run() {
 
 Stepper::Outcome Stepper::attempt(double t_new, double h, double& ratio) {
   const Point& now = past_[0];
-  const double h_prev = now.t - past_[1].t;
+  const double h_prev = now.step;
   const Formula formula = since_breakpoint_ == 1                     ? Formula::backward_euler
                           : solver_.integration == Integration::bdf2 ? Formula::bdf2
                                                                      : Formula::trapezoidal;
@@ -210,11 +212,12 @@ double Stepper::error_ratio(const StepFormula& formula, double h, double h_prev)
   return worst;
 }
 
-void Stepper::accept(double t_new, bool at_breakpoint) {
+void Stepper::accept(double t_new, double h, bool at_breakpoint) {
   std::rotate(past_.begin(), past_.end() - 1, past_.end());
   Point& p = past_[0];
   const auto& q = newton_.workspace().q;
   p.t = t_new;
+  p.step = h;
   p.x = x_;
   p.q = q;
   for (std::size_t i = 0; i < q.size(); ++i) {
