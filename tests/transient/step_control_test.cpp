@@ -52,8 +52,9 @@ TEST_P(StepControl, ErrorFollowsTheToleranceAsTheOrderPredicts) {
 
 // The factorisation count does not grow with the number of constant steps:
 // the Jacobian G + a C is unchanged, so it is factored only while the first
-// steps grow to max_step and when the last one is cut to land on `stop`,
-// the same in both runs here (a requirement of the design).
+// steps grow to max_step and when the last ones are cut to land on `stop`
+// (which may cost one more or one fewer between runs; a requirement of the
+// design).
 TEST_P(StepControl, LinearConstantStepNeverRefactors) {
   const auto run = [&](double stop) {
     stage::TransientOptions o;
@@ -63,7 +64,8 @@ TEST_P(StepControl, LinearConstantStepNeverRefactors) {
   };
   const auto short_run = run(kTau), long_run = run(10 * kTau);
   EXPECT_GT(long_run.accepted_steps, short_run.accepted_steps + 800);
-  EXPECT_EQ(long_run.factorizations, short_run.factorizations);
+  EXPECT_LE(long_run.factorizations, short_run.factorizations + 1);
+  EXPECT_LT(long_run.factorizations, 20);  // over 1000 steps
   EXPECT_EQ(long_run.rejected_steps, 0);
 }
 
