@@ -1,0 +1,216 @@
+// The `curves` subcommands: read a model library (.stage file with `model`
+// statements) and curve files, then check the model against them or fit
+// chosen parameters to them. Output is readable tables on stdout; the
+// model's curves go to CSV files with --csv, the fitted model statement to
+// stdout and, with --output, to a file.
+#include "command_curves.hpp"
+
+#include <spdlog/spdlog.h>
+
+#include <filesystem>
+#include <fstream>
+#include <iostream>
+#include <memory>
+
+#include "stage/curves.hpp"
+#include "stage/errors.hpp"
+#include "stage/reader.hpp"
+
+namespace {
+
+constexpr const char* kExamples = R"(
+Examples:
+  stage curves check models/transistors.stage models/curves/small_npn_*.csv
+  stage curves check models/transistors.stage gummel.csv --model small_npn --tolerance 2%
+  stage curves fit models/transistors.stage gummel.csv output.csv --model small_npn \
+      --params saturation_current beta_forward early_voltage_forward --output fitted.stage
+
+Curve files: libstage/src/curves/curve-format.md. Exit status: 0 every curve within
+tolerance (check) or a converged fit, 1 a curve out of tolerance or no convergence,
+2 bad input, 3 a point the simulator could not solve.)";
+
+struct CurvesSettings {
+  std::string model_file;
+  std::vector<std::string> curve_files;
+  std::string model;
+  std::vector<std::string> tolerances;
+  std::string csv_dir;
+  std::vector<std::string> params;
+  std::string fitted_name;
+  std::string output;
+};
+
+// "5%" for every ratio quantity, "20mV" or "0.02 V" for every voltage.
+stage::ToleranceOverride parse_tolerances(const std::vector<std::string>& texts) {
+  stage::ToleranceOverride o;
+  for (const auto& text : texts) {
+    std::size_t used = 0;
+    double value = 0;
+    try {
+      value = std::stod(text, &used);
+    } catch (const std::exception&) {
+      used = 0;
+    }
+    std::string unit = text.substr(used);
+    unit.erase(0, unit.find_first_not_of(' '));
+    const double factor = unit == "%" ? 0.01 : unit == "V" ? 1 : unit == "mV" ? 1e-3 : 0;
+    if (used == 0 || factor == 0 || !(value > 0)) {
+      throw stage::InputError({"--tolerance", 0, 0},
+                              "expected a percentage (5%) or a voltage (20mV), got '" + text + "'");
+    }
+    (unit == "%" ? o.ratio : o.voltage) = value * factor;
+  }
+  return o;
+}
+
+std::string model_name_for(const stage::Curve& curve, const CurvesSettings& s,
+                           const stage::Circuit& library) {
+  if (!s.model.empty()) return s.model;
+  if (!curve.model.empty()) return curve.model;
+  if (library.bipolar_models().size() + library.diode_models().size() == 1) {
+    return library.bipolar_models().empty() ? library.diode_models().begin()->first
+                                            : library.bipolar_models().begin()->first;
+  }
+  throw stage::InputError(
+      {curve.file.string(), 0, 0},
+      "the curve names no model and " + s.model_file + " holds several: give --model NAME");
+}
+
+// Reference and model side by side, one row per point, for plotting.
+void write_comparison_csv(const std::filesystem::path& path, const stage::CurveCheckResult& r,
+                          const stage::Curve& reference) {
+  std::ofstream out(path);
+  auto column = [](stage::CurveQuantity q) {
+    return std::string(stage::to_string(q)) + "_" + std::string(stage::unit_of(q));
+  };
+  if (reference.stepped) out << column(*reference.stepped) << ",";
+  out << column(reference.swept);
+  for (auto q : reference.measured)
+    out << "," << column(q) << "_reference," << column(q) << "_model";
+  out << "\n";
+  out.precision(10);
+  for (std::size_t i = 0; i < reference.points.size(); ++i) {
+    const auto& p = reference.points[i];
+    if (reference.stepped) out << p.step << ",";
+    out << p.swept;
+    for (std::size_t k = 0; k < p.measured.size(); ++k) {
+      out << "," << p.measured[k] << "," << r.computed.points[i].measured[k];
+    }
+    out << "\n";
+  }
+  if (!out) throw stage::InputError({path.string(), 0, 0}, "cannot write the CSV file");
+}
+
+struct Inputs {
+  stage::Deck library;
+  std::vector<stage::Curve> curves;
+};
+
+Inputs read_inputs(const CurvesSettings& s) {
+  stage::ReadOptions options;
+  options.model_path = stage::default_model_path();
+  Inputs in{stage::read_file(s.model_file, options), {}};
+  for (const auto& file : s.curve_files) in.curves.push_back(stage::read_curve_file(file));
+  return in;
+}
+
+int check(const CurvesSettings& s) {
+  Inputs in = read_inputs(s);
+  const auto tolerance = parse_tolerances(s.tolerances);
+  std::vector<stage::CurveCheckResult> results;
+  for (auto& curve : in.curves) {
+    stage::apply_tolerance(curve, tolerance);
+    const auto model = stage::find_device_model(
+        in.library.circuit, model_name_for(curve, s, in.library.circuit), s.model_file);
+    results.push_back(stage::check_curve(curve, model));
+    if (!s.csv_dir.empty()) {
+      std::filesystem::create_directories(s.csv_dir);
+      const auto path = std::filesystem::path(s.csv_dir) / (curve.name + "_model.csv");
+      write_comparison_csv(path, results.back(), curve);
+      spdlog::info("wrote {}", path.string());
+    }
+  }
+  std::cout << stage::check_table(results);
+  int status = 0;
+  for (const auto& r : results) {
+    if (r.passed()) continue;
+    std::cout << "\n" << r.summary();
+    status = 1;
+  }
+  return status;
+}
+
+int fit(const CurvesSettings& s) {
+  const Inputs in = read_inputs(s);
+  const std::string name = model_name_for(in.curves.front(), s, in.library.circuit);
+  for (const auto& curve : in.curves) {
+    if (model_name_for(curve, s, in.library.circuit) != name) {
+      throw stage::InputError({curve.file.string(), 0, 0}, "the curves name different models ('" +
+                                                               name + "' and '" + curve.model +
+                                                               "'): give --model NAME");
+    }
+  }
+  const auto start = stage::find_device_model(in.library.circuit, name, s.model_file);
+  const stage::FitResult result = stage::fit_model(start, in.curves, s.params);
+  std::cout << result.report() << "\n";
+  const std::string statement =
+      result.model_statement(s.fitted_name.empty() ? name + "_fitted" : s.fitted_name);
+  std::cout << statement;
+  if (!s.output.empty()) {
+    std::ofstream out(s.output);
+    out << "# Fitted by `stage curves fit` to:";
+    for (const auto& file : s.curve_files) out << " " << file;
+    out << "\n" << statement;
+    if (!out) throw stage::InputError({s.output, 0, 0}, "cannot write the model file");
+  }
+  return result.converged ? 0 : 1;
+}
+
+int guarded(int (*command)(const CurvesSettings&), const CurvesSettings& s) {
+  try {
+    return command(s);
+  } catch (const stage::InputError& e) {
+    std::cerr << e.what() << '\n';
+    return stage::kExitInputError;
+  } catch (const stage::NumericalError& e) {
+    std::cerr << "error: " << e.what() << '\n';
+    return stage::kExitNumericalError;
+  } catch (const std::invalid_argument& e) {
+    std::cerr << "error: " << e.what() << '\n';
+    return stage::kExitInputError;
+  }
+}
+
+}  // namespace
+
+CLI::App* add_curves_commands(CLI::App& app, int& exit_status) {
+  auto s = std::make_shared<CurvesSettings>();
+  CLI::App* curves =
+      app.add_subcommand("curves", "Check or fit device models against reference curves");
+  curves->footer(kExamples);
+  curves->require_subcommand(1);
+
+  auto common = [&](CLI::App* cmd) {
+    cmd->add_option("model_file", s->model_file,
+                    "Model library (.stage file with `model` statements)")
+        ->required();
+    cmd->add_option("curve_files", s->curve_files, "Reference curve files")->required();
+    cmd->add_option("--model", s->model, "Model to use (default: the curve file's `model` line)");
+  };
+
+  CLI::App* check_cmd = curves->add_subcommand("check", "Compare a model with reference curves");
+  common(check_cmd);
+  check_cmd->add_option("--tolerance", s->tolerances,
+                        "Replace the files' tolerances: 5% for currents, gains, capacitances and "
+                        "frequencies, 20mV for voltages (repeatable)");
+  check_cmd->add_option("--csv", s->csv_dir, "Write reference and model side by side into DIR");
+  check_cmd->callback([s, &exit_status] { exit_status = guarded(check, *s); });
+
+  CLI::App* fit_cmd = curves->add_subcommand("fit", "Fit model parameters to reference curves");
+  common(fit_cmd);
+  fit_cmd->add_option("--params", s->params, "Parameters to fit, by their long names")->required();
+  fit_cmd->add_option("--name", s->fitted_name, "Name of the fitted model (default MODEL_fitted)");
+  fit_cmd->add_option("--output", s->output, "Also write the fitted model statement to FILE");
+  fit_cmd->callback([s, &exit_status] { exit_status = guarded(fit, *s); });
+  return curves;
+}
