@@ -119,7 +119,11 @@ OperatingPoint solve_operating_point(NewtonSolver& newton, std::vector<double>& 
                 outcome.status == NewtonStatus::converged ? "converged" : "failed",
                 outcome.iterations);
   if (outcome.status == NewtonStatus::converged) return how;
-  if (outcome.status == NewtonStatus::singular) fail(newton, outcome);
+  // A Jacobian can be singular only at the cold start, where every junction
+  // is off and a node driven by current sources alone hangs on picoamp
+  // conductances; conductance stepping gives every node a path to ground.
+  // A circuit that is singular in itself fails there too and is reported
+  // with this first diagnosis.
 
   x = guess;
   reset_limiting(newton.system());
