@@ -7,6 +7,8 @@
 #include <spdlog/sinks/stdout_color_sinks.h>
 #include <spdlog/spdlog.h>
 
+#include <unistd.h>
+
 #include <cstdlib>
 #include <iostream>
 
@@ -71,7 +73,18 @@ int run(const Settings& s, bool check_only) {
               << deck.analyses.size() << " analyses; no errors\n";
     return 0;
   }
-  const stage::RunResult result = stage::run_deck(deck);
+  // Long work (headroom searches, sweeps) reports progress on one rewritten
+  // line of stderr, only when stderr is a terminal.
+  stage::RunOptions run_options;
+  bool progress_shown = false;
+  if (isatty(STDERR_FILENO) != 0) {
+    run_options.progress = [&progress_shown](const std::string& what) {
+      std::cerr << '\r' << what << "\x1b[K" << std::flush;
+      progress_shown = true;
+    };
+  }
+  const stage::RunResult result = stage::run_deck(deck, run_options);
+  if (progress_shown) std::cerr << "\r\x1b[K" << std::flush;
   if (s.json) {
     std::cout << stage::json_document(result) << '\n';
   } else {

@@ -1,4 +1,5 @@
-// The deck runner: checks every analysis statement, then runs them in order.
+// The deck runner: checks every analysis statement against the circuit,
+// then runs them in order.
 #include "stage/run.hpp"
 
 #include <spdlog/spdlog.h>
@@ -8,28 +9,51 @@
 namespace stage {
 namespace {
 
-bool available(const AnalysisOptions& options) {
-  return std::holds_alternative<BiasOptions>(options) ||
-         std::holds_alternative<SweepOptions>(options);
+// Why a statement cannot run on the deck's circuit, or nothing.
+std::optional<std::string> statement_error(const Deck& deck, const AnalysisOptions& options,
+                                           bool transient_before) {
+  const Circuit& c = deck.circuit;
+  if (const auto* f = std::get_if<FrequencyOptions>(&options)) {
+    return frequency_options_error(c, *f);
+  }
+  if (std::holds_alternative<SpectrumOptions>(options) && !transient_before) {
+    return std::string("a spectrum analyses the transient before it: put an "
+                       "`analyze transient(...)` statement first");
+  }
+  const std::string* input = nullptr;
+  if (const auto* h = std::get_if<HeadroomOptions>(&options)) input = &h->input;
+  if (const auto* s = std::get_if<CharacterizeOptions>(&options)) input = &s->input;
+  if (input != nullptr) {
+    const Element* e = c.find(*input);
+    if (e == nullptr || !(std::holds_alternative<VoltageSource>(e->data) ||
+                          std::holds_alternative<CurrentSource>(e->data))) {
+      return "the input '" + *input + "' must be an independent voltage or current source";
+    }
+  }
+  return std::nullopt;
 }
 
 }  // namespace
 
 void check_deck(const Deck& deck) {
+  bool transient_before = false;
   for (const auto& statement : deck.analyses) {
-    if (!available(statement.options)) {
-      throw InputError(statement.where,
-                       "the '" + std::string(analysis_kind(statement.options)) +
-                           "' analysis is not available in this version of stage; available: "
-                           "bias, sweep");
+    if (auto why = statement_error(deck, statement.options, transient_before)) {
+      throw InputError(statement.where, *why);
     }
+    transient_before = transient_before ||
+                       std::holds_alternative<TransientOptions>(statement.options);
   }
 }
 
-SweepResult run_parameter_sweep(const Deck& deck, const SweepOptions& options) {
+SweepResult run_parameter_sweep(const Deck& deck, const SweepOptions& options,
+                                const ProgressCallback& progress) {
   SweepResult result{options, {}};
   std::vector<double> x;
   for (double value : options.values) {
+    if (progress) progress("sweep of " + options.name + ": point " +
+                           std::to_string(result.points.size() + 1) + " of " +
+                           std::to_string(options.values.size()));
     const Circuit circuit = deck.with_parameter(options.name, value);
     mna::System system(circuit);
     analysis::NewtonSolver newton(system, circuit.solver);
@@ -44,17 +68,46 @@ SweepResult run_parameter_sweep(const Deck& deck, const SweepOptions& options) {
   return result;
 }
 
-RunResult run_deck(const Deck& deck) {
+RunResult run_deck(const Deck& deck, const RunOptions& run_options) {
   check_deck(deck);
   RunResult run{deck.circuit.title, deck.circuit.temperature, {}};
+  const Circuit& circuit = deck.circuit;
+  std::optional<std::size_t> last_transient;  // index into run.analyses
   for (const auto& statement : deck.analyses) {
     spdlog::debug("running analyze {}", analysis_kind(statement.options));
-    if (std::holds_alternative<BiasOptions>(statement.options)) {
-      run.analyses.emplace_back(run_bias(deck.circuit));
-    } else if (const auto* sweep = std::get_if<SweepOptions>(&statement.options)) {
-      run.analyses.emplace_back(sweep->target == SweepOptions::Target::parameter
-                                    ? run_parameter_sweep(deck, *sweep)
-                                    : run_sweep(deck.circuit, *sweep));
+    struct Visitor {
+      const Deck& deck;
+      const Circuit& circuit;
+      const RunOptions& run_options;
+      const TransientResult* last_transient;
+      AnalysisResult operator()(const BiasOptions&) const { return run_bias(circuit); }
+      AnalysisResult operator()(const SweepOptions& o) const {
+        return o.target == SweepOptions::Target::parameter
+                   ? run_parameter_sweep(deck, o, run_options.progress)
+                   : run_sweep(circuit, o);
+      }
+      AnalysisResult operator()(const FrequencyOptions& o) const {
+        return run_frequency(circuit, o);
+      }
+      AnalysisResult operator()(const TransientOptions& o) const {
+        return run_transient(circuit, o);
+      }
+      AnalysisResult operator()(const SpectrumOptions& o) const {
+        return run_spectrum(*last_transient, o);
+      }
+      AnalysisResult operator()(const HeadroomOptions& o) const {
+        return run_headroom(circuit, o, run_options.progress);
+      }
+      AnalysisResult operator()(const CharacterizeOptions& o) const {
+        return run_characterize(circuit, o, run_options.progress);
+      }
+    };
+    const TransientResult* transient =
+        last_transient ? &std::get<TransientResult>(run.analyses[*last_transient]) : nullptr;
+    run.analyses.push_back(
+        std::visit(Visitor{deck, circuit, run_options, transient}, statement.options));
+    if (std::holds_alternative<TransientResult>(run.analyses.back())) {
+      last_transient = run.analyses.size() - 1;
     }
   }
   return run;

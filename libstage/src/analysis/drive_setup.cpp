@@ -1,0 +1,51 @@
+// Small-signal drive and supply rails of a stage.
+#include "analysis/drive_setup.hpp"
+
+#include <stdexcept>
+
+namespace stage::analysis {
+namespace {
+
+template <class Visitor>
+void visit_sources(Circuit& circuit, Visitor&& visit) {
+  for (const Element& e : circuit.elements()) {
+    std::visit(
+        [&](auto& d) {
+          using T = std::decay_t<decltype(d)>;
+          if constexpr (std::is_same_v<T, VoltageSource> || std::is_same_v<T, CurrentSource>) {
+            visit(e.name, d);
+          }
+        },
+        circuit.find(e.name)->data);
+  }
+}
+
+}  // namespace
+
+Circuit with_only_ac_input(const Circuit& circuit, const std::string& input) {
+  Circuit c = circuit;
+  bool found = false;
+  visit_sources(c, [&](const std::string& name, auto& source) {
+    const bool is_input = name == input;
+    found = found || is_input;
+    source.ac_magnitude = is_input ? 1.0 : 0.0;
+    source.ac_phase_deg = 0.0;
+  });
+  if (!found) {
+    throw std::invalid_argument("'" + input + "' is not an independent voltage or current source");
+  }
+  return c;
+}
+
+std::vector<Rail> supply_rails(const Circuit& circuit, const std::string& input) {
+  std::vector<Rail> rails;
+  for (const Element& e : circuit.elements()) {
+    const auto* v = std::get_if<VoltageSource>(&e.data);
+    if (v == nullptr || v->wave || e.name == input) continue;
+    if (v->n == kGround) rails.push_back({e.name, v->p, v->dc, v->dc});
+    if (v->p == kGround) rails.push_back({e.name, v->n, -v->dc, v->dc});
+  }
+  return rails;
+}
+
+}  // namespace stage::analysis

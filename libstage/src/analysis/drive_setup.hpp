@@ -1,0 +1,30 @@
+// Preparing a circuit for the stage analyses (headroom, characterize): the
+// input source alone carries the small-signal drive, and the DC supplies
+// whose power a swing draws.
+#pragma once
+
+#include <string>
+#include <vector>
+
+#include "stage/circuit.hpp"
+
+namespace stage::analysis {
+
+// A copy of `circuit` where `input` has a unit AC phasor and every other
+// source none. Throws std::invalid_argument when `input` is not an
+// independent voltage or current source.
+Circuit with_only_ac_input(const Circuit& circuit, const std::string& input);
+
+// A DC voltage source tied to ground: the rail it holds a node at.
+struct Rail {
+  std::string source;
+  std::string node;
+  double voltage = 0;         // of `node`, from ground
+  double source_voltage = 0;  // v(p) - v(n) of the source: power = this x its current
+};
+
+// Every voltage source without a waveform that has one terminal on ground,
+// except `input`.
+std::vector<Rail> supply_rails(const Circuit& circuit, const std::string& input);
+
+}  // namespace stage::analysis

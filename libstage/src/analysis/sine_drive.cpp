@@ -1,0 +1,110 @@
+// Driving a stage with a sine and reading its last period.
+#include "analysis/sine_drive.hpp"
+
+#include <spdlog/spdlog.h>
+
+#include <limits>
+#include <stdexcept>
+
+#include "analysis/transient.hpp"
+#include "mna/system.hpp"
+
+namespace stage::analysis {
+namespace {
+
+constexpr int kFirstPeriods = 4;     // simulated before the last period is judged settled
+constexpr int kMaxPeriods = 64;      // coupling capacitors get this long to settle
+constexpr double kStepsPerPeriod = 400;  // step bound: peaks read to ~3e-5 relative
+constexpr int kHarmonics = 9;
+
+template <class Source>
+void drive(Source& source, double amplitude, double frequency) {
+  source.wave = SineWave{amplitude, frequency, source.dc};
+}
+
+}  // namespace
+
+SineDrive::SineDrive(Circuit circuit, std::string input, SignalRef output, double frequency,
+                     std::vector<SignalRef> record)
+    : circuit_(std::move(circuit)),
+      input_(std::move(input)),
+      output_(std::move(output)),
+      frequency_(frequency),
+      record_(std::move(record)),
+      periods_(kFirstPeriods) {
+  if (output_.kind == SignalRef::Kind::element_current) {
+    throw std::invalid_argument("a large-signal output must be a node or a node pair, not " +
+                                output_.label());
+  }
+  const Element* element = circuit_.find(input_);
+  if (element == nullptr || !(std::holds_alternative<VoltageSource>(element->data) ||
+                              std::holds_alternative<CurrentSource>(element->data))) {
+    throw std::invalid_argument("'" + input_ + "' is not an independent voltage or current source");
+  }
+}
+
+TransientResult SineDrive::run(double amplitude, int periods, DriveMeasurement& m) const {
+  Circuit c = circuit_;
+  std::visit(
+      [&](auto& e) {
+        using T = std::decay_t<decltype(e)>;
+        if constexpr (std::is_same_v<T, VoltageSource> || std::is_same_v<T, CurrentSource>) {
+          drive(e, amplitude, frequency_);
+        }
+      },
+      c.find(input_)->data);
+  mna::System system(c);
+  const auto& topology = system.topology();
+  const auto node = [&](const std::string& name) {
+    const auto index = name.empty() ? std::optional<mna::Index>(0) : topology.find_node(name);
+    if (!index) throw std::invalid_argument("no node named '" + name + "'");
+    return *index;
+  };
+  const mna::Index p = node(output_.a);
+  const mna::Index n = output_.kind == SignalRef::Kind::node_pair ? node(output_.b) : 0;
+
+  TransientOptions options;
+  const double period = 1.0 / frequency_;
+  options.stop = periods * period;
+  options.max_step = period / kStepsPerPeriod;
+  options.signals = {output_};
+  options.signals.insert(options.signals.end(), record_.begin(), record_.end());
+
+  const double window = options.stop - period * (1 + 1e-9);
+  m.maximum = {0, -std::numeric_limits<double>::infinity(), {}};
+  m.minimum = {0, std::numeric_limits<double>::infinity(), {}};
+  const StepObserver observer = [&](double t, const std::vector<double>& x) {
+    if (t < window) return;
+    const double v = x[p] - x[n];
+    if (v > m.maximum.value) m.maximum = {t, v, x};
+    if (v < m.minimum.value) m.minimum = {t, v, x};
+  };
+  ++runs_;
+  return integrate(system, c.solver, options, observer);
+}
+
+DriveMeasurement SineDrive::measure(double amplitude) const {
+  DriveMeasurement m;
+  m.amplitude = amplitude;
+  // Start from the length the last measurement needed: the circuit's time
+  // constants do not change with the amplitude.
+  for (int periods = periods_;; periods *= 2) {
+    m.transient = run(amplitude, periods, m);
+    m.periods = periods;
+    const SpectrumResult spectrum =
+        run_spectrum(m.transient, {output_, frequency_, kHarmonics}, 1);
+    m.thd = spectrum.thd;
+    m.fundamental = spectrum.harmonics.front().amplitude;
+    m.average = spectrum.dc;
+    periods_ = periods;
+    if (spectrum.settled || periods * 2 > kMaxPeriods) {
+      if (!spectrum.settled) spdlog::warn("sine drive at {:.4g}: {}", amplitude, spectrum.message);
+      break;
+    }
+  }
+  m.positive_peak = m.maximum.value - m.average;
+  m.negative_peak = m.average - m.minimum.value;
+  return m;
+}
+
+}  // namespace stage::analysis

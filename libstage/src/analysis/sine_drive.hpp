@@ -1,0 +1,62 @@
+// One large-signal measurement of a stage: the input source driven by a sine
+// of a given amplitude around its DC value, a transient run until the
+// waveform repeats, and the output's last period read for its peaks each way,
+// its THD, and the circuit's full state at the two extremes (for telling what
+// limits each side). Shared by the headroom search and the stage report.
+#pragma once
+
+#include <string>
+#include <vector>
+
+#include "stage/circuit.hpp"
+#include "stage/signal.hpp"
+#include "stage/spectrum.hpp"
+#include "stage/transient.hpp"
+
+namespace stage::analysis {
+
+struct Extreme {
+  double time = 0;
+  double value = 0;            // output there
+  std::vector<double> state;   // every unknown (n + 1 entries) there
+};
+
+struct DriveMeasurement {
+  double amplitude = 0;      // input sine amplitude
+  // Peaks are taken from the output's average over the last period, its DC
+  // level while driven: coupling capacitors drift slowly (their time
+  // constants span many periods), and that drift is not clipping.
+  double average = 0;
+  double positive_peak = 0;  // max(output) - average, over the last period
+  double negative_peak = 0;  // average - min(output)
+  double thd = 0;
+  double fundamental = 0;    // output's fundamental amplitude
+  Extreme maximum, minimum;
+  int periods = 0;           // periods simulated
+  TransientResult transient; // the recorded signals
+};
+
+class SineDrive {
+ public:
+  // `output` must be a node or a node pair. `record` lists extra signals kept
+  // in each measurement's transient (supply and load currents, for power).
+  SineDrive(Circuit circuit, std::string input, SignalRef output, double frequency,
+            std::vector<SignalRef> record = {});
+
+  DriveMeasurement measure(double amplitude) const;
+  int runs() const { return runs_; }
+
+ private:
+  TransientResult run(double amplitude, int periods, DriveMeasurement& m) const;
+
+  Circuit circuit_;
+  std::string input_;
+  SignalRef output_;
+  double frequency_;
+  double input_dc_ = 0;
+  std::vector<SignalRef> record_;
+  mutable int runs_ = 0;
+  mutable int periods_;  // periods the last measurement needed to settle
+};
+
+}  // namespace stage::analysis
