@@ -1,9 +1,11 @@
 // The whole Boost.Spirit X3 grammar of the language, kept in this one
 // translation unit because X3 is slow to compile. Statements end at a newline.
 // The grammar reads the text prepared by prepare_for_grammar(), where comments
-// and the newlines inside ( ) and { } are already blanks, so one skipper
-// (blanks) serves everywhere; switching skippers inside recursive rules would
-// make X3 nest contexts without end. Every rule whose attribute is a located
+// are blanks and the newlines inside ( ) and { } are form feeds, so one
+// skipper (blanks and form feeds) serves everywhere; switching skippers inside
+// recursive rules would make X3 nest contexts without end. A number's unit
+// must follow it on the same line (only blanks between), so in a model body
+// `beta_forward = 200` then `beta_reverse = 4` on the next line stay apart. Every rule whose attribute is a located
 // node records its start offset.
 #include "reader/grammar.hpp"
 
@@ -52,7 +54,7 @@ struct annotate {
 // actions do not get on_success with their own node, so they record it here.
 template <class Context>
 int offset_at(Iterator it, const Context& context) {
-  while (*it == ' ' || *it == '\t') ++it;
+  while (*it == ' ' || *it == '\t' || *it == '\f') ++it;
   return static_cast<int>(it - x3::get<begin_tag>(context));
 }
 
@@ -232,12 +234,12 @@ ast::File parse(const SourceText& source) {
   ast::File result;
   try {
     x3::parse(first, last,
-              x3::with<grammar::begin_tag>(begin)[x3::skip(x3::ascii::blank)[grammar::file]],
+              x3::with<grammar::begin_tag>(begin)[x3::skip(x3::ascii::blank | x3::lit('\f'))[grammar::file]],
               result.statements);
   } catch (const x3::expectation_failure<const char*>& failure) {
     // Point at what was found, not at the blanks before it.
     const char* at = failure.where();
-    while (at < last && (*at == ' ' || *at == '\t')) ++at;
+    while (at < last && (*at == ' ' || *at == '\t' || *at == '\f')) ++at;
     source.fail(static_cast<int>(at - begin), "expected " + failure.which());
   }
   return result;

@@ -1,7 +1,7 @@
 // Offsets to lines and columns, and the preparation of raw text for the
 // grammar: checks for bad UTF-8 and unbalanced or too deeply nested brackets
 // (so the grammar never recurses without bound or runs off an unclosed list),
-// and blanking of comments and of newlines inside brackets.
+// blanking of comments, and newlines inside brackets turned into form feeds.
 #include "reader/source_text.hpp"
 
 #include <algorithm>
@@ -92,7 +92,7 @@ std::string prepare_for_grammar(const SourceText& source) {
     if (c == '\0') source.fail(offset, "a NUL character is not allowed in a circuit description");
     if (c == '\n' || c == '\r') {
       in_comment = in_string = false;
-      if (!open.empty()) prepared[i] = ' ';
+      if (!open.empty()) prepared[i] = '\f';  // skipped, but ends a number's unit
     }
     if (c == '#' && !in_string) in_comment = true;
     if (in_comment) std::fill_n(prepared.begin() + i, length, ' ');

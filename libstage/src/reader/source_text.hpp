@@ -31,7 +31,8 @@ class SourceText {
 };
 
 // The text the grammar reads, byte for byte as long as the source so offsets
-// still match: comments and the newlines inside ( ) and { } become blanks.
+// still match: comments become blanks and the newlines inside ( ) and { }
+// form feeds (skipped like blanks, but a unit cannot reach across them).
 // Checks first what needs no grammar and protects it: valid UTF-8, brackets
 // that close and do not nest absurdly deep. Throws InputError.
 std::string prepare_for_grammar(const SourceText& source);
