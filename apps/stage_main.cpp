@@ -12,6 +12,7 @@
 #include <cstdlib>
 #include <iostream>
 
+#include "command_curves.hpp"
 #include "stage/errors.hpp"
 #include "stage/reader.hpp"
 #include "stage/report.hpp"
@@ -30,6 +31,8 @@ Examples:
   stage run follower.stage --csv results   one CSV file per analysis in results/
   stage run follower.stage --set rl=16     override a `let` parameter (SI units: 16 means 16 ohm)
   stage check follower.stage               read and check the file, run nothing
+  stage curves check models/transistors.stage models/curves/small_npn_*.csv
+                                           compare a model with its reference curves
 
 Exit status: 0 done, 2 error in the input (file, line and column are shown, nothing ran),
 3 the circuit could not be solved (the nodes or elements involved are named).
@@ -125,6 +128,9 @@ int main(int argc, char** argv) {
   check_cmd->add_option("--set", s.sets, "Override a `let` parameter: NAME=VALUE");
   check_cmd->add_option("--model-path", s.model_dirs, "Extra folder searched by `include`");
 
+  int curves_status = 0;
+  CLI::App* curves_cmd = add_curves_commands(app, curves_status);
+
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
@@ -132,6 +138,7 @@ int main(int argc, char** argv) {
     return code == 0 ? 0 : stage::kExitInputError;
   }
   if (s.verbose) spdlog::set_level(spdlog::level::debug);
+  if (curves_cmd->parsed()) return curves_status;
 
   try {
     return run(s, check_cmd->parsed());

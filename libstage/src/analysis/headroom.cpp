@@ -28,6 +28,8 @@ constexpr int kMaxRuns = 60;
 constexpr double kRailMargin = 0.02;     // of the rail voltage, at least kRailMarginVolts
 constexpr double kRailMarginVolts = 0.05;
 constexpr double kCutoffFraction = 0.5;  // of the bias current: turning off
+constexpr double kTakeOver = 2.0;        // of the bias current: carrying the side
+constexpr double kStarvedFraction = 0.1; // of a bias diode's current: starved
 
 enum Criterion { kPositive, kNegative, kThd, kCriteria };
 
@@ -137,9 +139,12 @@ class Search {
 
 // What stops a side, read from the devices at the waveform's extreme, in
 // this order: a transistor newly in saturation; the output at a supply rail;
-// a transistor newly in cutoff or carrying less than kCutoffFraction of its
-// bias current (the side is being lost to it turning off, even if the
-// junction has not yet dropped below its conduction threshold); otherwise
+// a diode that conducted at the bias point carrying less than
+// kStarvedFraction of that current (the network that biases the drive has run
+// out of current: current_limit); a transistor newly in cutoff or carrying
+// less than kCutoffFraction of its bias current, unless another transistor
+// has taken over (more than kTakeOver times its bias current, as in a
+// push-pull pair, where the idle half turning off is normal); otherwise
 // smooth distortion, naming the transistor whose current moved furthest.
 LimitCause classify(const mna::System& system, const BiasResult& bias,
                     const std::vector<analysis::Rail>& rails, const analysis::Extreme& extreme,
@@ -150,15 +155,24 @@ LimitCause classify(const mna::System& system, const BiasResult& bias,
   mna::OperatingPointReport report;
   for (const auto& d : system.devices()) d->report(at, report);
 
-  const BipolarOperatingPoint* furthest = nullptr;
-  double furthest_ratio = 1;  // |IC| at the peak over |IC| at the bias point
-  for (const auto& q : report.bipolars) {
+  // |IC| at the peak over |IC| at the bias point, per transistor.
+  const auto ratio = [&](const BipolarOperatingPoint& q) {
     const double biased = std::abs(bias.bipolar(q.name).collector_current);
-    if (biased <= 0) continue;
-    const double ratio = std::max(std::abs(q.collector_current), 1e-300) / biased;
-    if (furthest == nullptr || std::abs(std::log(ratio)) > std::abs(std::log(furthest_ratio))) {
+    return biased > 0 ? std::max(std::abs(q.collector_current), 1e-300) / biased : 1.0;
+  };
+  bool taken_over = false;
+  for (const auto& q : report.bipolars) taken_over = taken_over || ratio(q) > kTakeOver;
+  // The transistor to name: with a take-over, the one carrying the side;
+  // otherwise the one whose current moved furthest either way.
+  const BipolarOperatingPoint* furthest = nullptr;
+  double furthest_ratio = 1;
+  for (const auto& q : report.bipolars) {
+    const double r = ratio(q);
+    const bool further = taken_over ? r > furthest_ratio
+                                    : std::abs(std::log(r)) > std::abs(std::log(furthest_ratio));
+    if (furthest == nullptr || further) {
       furthest = &q;
-      furthest_ratio = ratio;
+      furthest_ratio = r;
     }
   }
   const std::string detail =
@@ -180,13 +194,23 @@ LimitCause classify(const mna::System& system, const BiasResult& bias,
       return {"rail", r.source, detail};
     }
   }
-  for (const auto& q : report.bipolars) {
-    if (q.region == "cutoff" && bias.bipolar(q.name).region != "cutoff") {
-      return {"cutoff", q.name, detail};
+  for (const auto& d : report.diodes) {
+    const double biased = bias.diode(d.name).current;
+    if (biased > 0 && d.current < kStarvedFraction * biased) {
+      return {"current_limit", d.name,
+              d.name + " carries " + report::si(d.current, "A") + " at the peak, " +
+                  report::si(biased, "A") + " at the bias point"};
     }
   }
-  if (furthest != nullptr && furthest_ratio < kCutoffFraction) {
-    return {"cutoff", furthest->name, detail};
+  if (!taken_over) {
+    for (const auto& q : report.bipolars) {
+      if (q.region == "cutoff" && bias.bipolar(q.name).region != "cutoff") {
+        return {"cutoff", q.name, detail};
+      }
+    }
+    if (furthest != nullptr && furthest_ratio < kCutoffFraction) {
+      return {"cutoff", furthest->name, detail};
+    }
   }
   return {"distortion", furthest == nullptr ? "" : furthest->name, detail};
 }

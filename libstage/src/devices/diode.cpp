@@ -105,9 +105,13 @@ class DiodeDevice final : public mna::Device {
       v = limit_junction_voltage(v, last_v_, params_.nvt, params_.vcrit);
       if (!std::isinf(params_.bv)) {
         // The breakdown exponential is limited the same way, mirrored.
-        const double w = limit_junction_voltage(-(v + params_.bv), -(last_v_ + params_.bv),
-                                                params_.nvt, params_.vcrit_breakdown);
-        v = -w - params_.bv;
+        const double w_wanted = -(v + params_.bv);
+        const double w = limit_junction_voltage(w_wanted, -(last_v_ + params_.bv), params_.nvt,
+                                                params_.vcrit_breakdown);
+        // Only a real limit moves v: the round trip through -(v + bv) is not
+        // exact in floating point, and a spurious change would keep Newton
+        // from ever accepting convergence.
+        if (w != w_wanted) v = -w - params_.bv;
       }
       if (v != x[kJunction] - x[kCathode]) out.limited = true;
     }

@@ -153,7 +153,9 @@ const auto arguments_def = lit('(') >> -(argument % ',') >> -lit(',') > lit(')')
 const auto argument_def = keyed_argument | positional_argument;
 const auto keyed_argument_def = identifier >> '=' >> expression;
 const auto positional_argument_def = x3::attr(std::optional<std::string>()) >> expression;
-const auto quoted_def = lexeme['"' > *(char_ - '"' - eol) > '"'];
+// Any UTF-8 text up to the closing quote (x3::ascii::char_ would stop at bytes
+// above 0x7F).
+const auto quoted_def = lexeme['"' > *(x3::standard::char_ - '"' - eol) > '"'];
 
 const auto title_def = mark >> (keyword("title") > quoted)[into(&ast::Title::text)];
 const auto let_def = keyword("let") > identifier > '=' > expression;

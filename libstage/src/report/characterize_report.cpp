@@ -20,7 +20,7 @@ Json swing_json(const SwingPower& s) {
 }
 
 std::string impedance_text(std::complex<double> z) {
-  return si(std::abs(z), "Ω") + " ∠ " + si(std::arg(z) * 180 / std::numbers::pi, "°", 3);
+  return si(std::abs(z), "Ω") + " ∠ " + fixed(std::arg(z) * 180 / std::numbers::pi, "°", 1);
 }
 
 }  // namespace
@@ -55,8 +55,8 @@ void print_table(std::ostream& out, const CharacterizeResult& r) {
   out << "Stage report: " << r.output << " from " << r.options.input << " at "
       << si(r.options.frequency, "Hz") << "\n\n";
   print_table(out, r.bias);
-  out << "\n  gain " << si(r.gain, "") << " (" << si(fig.gain_at_dB.value_or(0), "dB", 3)
-      << "), midband " << si(fig.midband_gain_dB, "dB", 3) << "; −3 dB band "
+  out << "\n  gain " << si(r.gain, "") << " (" << fixed(fig.gain_at_dB.value_or(0), "dB")
+      << "), midband " << fixed(fig.midband_gain_dB, "dB") << "; −3 dB band "
       << (fig.lower_cutoff ? si(*fig.lower_cutoff, "Hz") : "below the sweep") << " to "
       << (fig.upper_cutoff ? si(*fig.upper_cutoff, "Hz") : "above the sweep") << '\n'
       << "  input impedance " << impedance_text(r.input_impedance) << ", output impedance "
@@ -67,9 +67,9 @@ void print_table(std::ostream& out, const CharacterizeResult& r) {
     TextTable t({"swing", "output amplitude", "THD", "supply power", "load power",
                  "dissipated", "efficiency"});
     for (const auto& [name, s] : {std::pair{"half", *r.half_swing}, {"full", *r.full_swing}}) {
-      t.add_row({name, si(s.output_amplitude, "V"), si(s.thd * 100, "%", 3),
+      t.add_row({name, si(s.output_amplitude, "V"), percent(s.thd),
                  si(s.supply_power, "W"), si(s.load_power, "W"), si(s.dissipation, "W"),
-                 si(s.efficiency * 100, "%", 3)});
+                 percent(s.efficiency)});
     }
     t.print(out);
   }

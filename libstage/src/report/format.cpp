@@ -35,6 +35,18 @@ std::string si(double value, std::string_view unit, int digits) {
   return std::string(buffer) + space + prefix + std::string(unit);
 }
 
+std::string fixed(double value, std::string_view unit, int decimals) {
+  char buffer[48];
+  std::snprintf(buffer, sizeof buffer, "%.*f %s", decimals, value, std::string(unit).c_str());
+  return buffer;
+}
+
+std::string percent(double ratio) {
+  char buffer[32];
+  std::snprintf(buffer, sizeof buffer, "%.4g %%", 100.0 * ratio);
+  return buffer;
+}
+
 TextTable::TextTable(std::vector<std::string> header) : header_(std::move(header)) {}
 
 void TextTable::add_row(std::vector<std::string> cells) {

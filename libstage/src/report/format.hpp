@@ -19,6 +19,12 @@ using Json = nlohmann::ordered_json;
 // infinity. A unit of "" gives a bare number with prefix.
 std::string si(double value, std::string_view unit, int digits = 4);
 
+// Decibels, degrees and percentages read best without an SI prefix
+// ("1.2 m°" would only confuse): fixed point, and a ratio as a percentage
+// with four significant digits.
+std::string fixed(double value, std::string_view unit, int decimals = 2);
+std::string percent(double ratio);
+
 // A table printed with columns aligned; the first column left-aligned, the
 // rest right-aligned.
 class TextTable {

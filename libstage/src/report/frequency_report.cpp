@@ -38,14 +38,6 @@ void add_impedance(Json& json, const std::string& key, const Impedances& z) {
 
 double angle_deg(std::complex<double> z) { return std::arg(z) * 180.0 / std::numbers::pi; }
 
-// Decibels and degrees read best in fixed point: an SI prefix on them
-// ("1.2 m°") would only confuse.
-std::string fixed(double value, std::string_view unit, int decimals = 2) {
-  char buffer[48];
-  std::snprintf(buffer, sizeof buffer, "%.*f %s", decimals, value, std::string(unit).c_str());
-  return buffer;
-}
-
 std::string magnitude_text(std::complex<double> z) { return si(std::abs(z), "Ω"); }
 std::string angle_text(std::complex<double> z) {
   return std::isfinite(std::abs(z)) ? fixed(angle_deg(z), "°", 1) : "";

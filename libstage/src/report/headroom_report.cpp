@@ -72,7 +72,7 @@ void print_table(std::ostream& out, const LoadLineEstimate& e) {
 
 void print_table(std::ostream& out, const HeadroomResult& r) {
   out << "Headroom of " << r.output << " at " << si(r.options.frequency, "Hz") << ", limit "
-      << r.options.distortion_limit * 100 << " % (" << r.transient_runs << " transient runs)\n"
+      << percent(r.options.distortion_limit) << " (" << r.transient_runs << " transient runs)\n"
       << "  small-signal gain " << si(r.small_signal_gain, "") << ", output at the bias point "
       << si(r.bias_output, "V") << "\n\n";
   TextTable t({"side", "peak", "input amplitude", "limited by", "at the largest drive"});

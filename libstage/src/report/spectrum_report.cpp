@@ -6,11 +6,6 @@
 namespace stage::report {
 namespace {
 
-std::string percent(double ratio) {
-  char buffer[32];
-  std::snprintf(buffer, sizeof buffer, "%.4g %%", 100.0 * ratio);
-  return buffer;
-}
 
 }  // namespace
 
