@@ -1,5 +1,6 @@
-// Stages of our own values shared by the headroom tests, built in code with
-// generic textbook-typical transistor parameters (not any real part).
+// Stages of our own values shared by the headroom and stage-report tests,
+// built in code with generic textbook-typical transistor parameters (not any
+// real part).
 #pragma once
 
 #include "stage/circuit.hpp"
@@ -15,7 +16,22 @@ inline BipolarModel generic_npn() {
   return m;
 }
 
-inline BipolarModel generic_pnp() { return generic_npn(); }
+// A medium-power device for output stages (a pnp uses the same numbers).
+inline BipolarModel generic_power() {
+  BipolarModel m;
+  m.saturation_current = 5e-13;
+  m.beta_forward = 100;
+  m.beta_reverse = 3;
+  m.early_voltage_forward = 80;
+  return m;
+}
+
+inline DiodeModel generic_diode() {
+  DiodeModel d;
+  d.saturation_current = 3e-9;
+  d.emission_coefficient = 1.8;
+  return d;
+}
 
 // An emitter follower on 12 V: 22k/22k base divider, RE = 1 k, driving a
 // 100 ohm load through 100 uF. ICQ is about 5 mA, the AC load RE || RL about
@@ -33,6 +49,90 @@ inline Circuit follower_into_low_load() {
   c.add("q1", Bipolar{Polarity::npn, "vcc", "base", "emitter", {}, "npn"});
   c.add("re", Resistor{"emitter", "gnd", 1e3});
   c.add("cout", Capacitor{"emitter", "out", 100e-6});
+  c.add("rl", Resistor{"out", "gnd", 100.0});
+  return c;
+}
+
+// A common-emitter stage on 15 V: 39k/8.2k divider, 270 ohm of emitter
+// resistance left unbypassed for linearity and 1 k bypassed, RC = 4.7 k,
+// a 4.7 k load through 10 uF. ICQ about 1.5 mA, VCEQ about 6 V, R'ac =
+// RC || RL + 270 ohm. The collector swings up until the transistor cuts off
+// and down until it saturates.
+inline Circuit common_emitter() {
+  Circuit c;
+  c.title = "Common-emitter stage";
+  c.add_model("npn", generic_npn());
+  c.add("vcc", VoltageSource{"vcc", "gnd", 15.0});
+  c.add("vin", VoltageSource{"in", "gnd", 0.0, 1.0});
+  c.add("cin", Capacitor{"in", "base", 10e-6});
+  c.add("r1", Resistor{"vcc", "base", 39e3});
+  c.add("r2", Resistor{"base", "gnd", 8.2e3});
+  c.add("q1", Bipolar{Polarity::npn, "collector", "base", "emitter", {}, "npn"});
+  c.add("rc", Resistor{"vcc", "collector", 4.7e3});
+  c.add("re1", Resistor{"emitter", "bypass", 270.0});
+  c.add("re2", Resistor{"bypass", "gnd", 1e3});
+  c.add("ce", Capacitor{"bypass", "gnd", 470e-6});
+  c.add("cout", Capacitor{"collector", "out", 10e-6});
+  c.add("rl", Resistor{"out", "gnd", 4.7e3});
+  return c;
+}
+
+// A complementary pair on +/-12 V rails into 32 ohm, driven through 100 ohm
+// into both bases: class B. (The source resistance keeps the base current
+// finite when the drive goes past a rail, as a real driver's would.)
+inline Circuit class_b_pair(double drive_amplitude = 0) {
+  Circuit c;
+  c.title = "Class-B pair";
+  c.add_model("npn", generic_power());
+  c.add_model("pnp", generic_power());
+  c.add("vpos", VoltageSource{"vpos", "gnd", 12.0});
+  c.add("vneg", VoltageSource{"vneg", "gnd", -12.0});
+  VoltageSource vin{"in", "gnd", 0.0, 1.0};
+  if (drive_amplitude > 0) vin.wave = SineWave{drive_amplitude, 1e3};
+  c.add("vin", vin);
+  c.add("rs", Resistor{"in", "base", 100.0});
+  c.add("qn", Bipolar{Polarity::npn, "vpos", "base", "out", {}, "npn"});
+  c.add("qp", Bipolar{Polarity::pnp, "vneg", "base", "out", {}, "pnp"});
+  c.add("rl", Resistor{"out", "gnd", 32.0});
+  return c;
+}
+
+// The same pair biased into class AB by two diodes between the bases, fed
+// by 2.2 k from each rail, with 1 ohm emitter resistors.
+inline Circuit class_ab_pair(double drive_amplitude = 0) {
+  Circuit c;
+  c.title = "Class-AB pair";
+  c.add_model("npn", generic_power());
+  c.add_model("pnp", generic_power());
+  c.add_model("diode", generic_diode());
+  c.add("vpos", VoltageSource{"vpos", "gnd", 12.0});
+  c.add("vneg", VoltageSource{"vneg", "gnd", -12.0});
+  VoltageSource vin{"in", "gnd", 0.0, 1.0};
+  if (drive_amplitude > 0) vin.wave = SineWave{drive_amplitude, 1e3};
+  c.add("vin", vin);
+  c.add("r_top", Resistor{"vpos", "bn", 2.2e3});
+  c.add("d1", Diode{"bn", "mid", "diode"});
+  c.add("d2", Diode{"mid", "bp", "diode"});
+  c.add("r_bottom", Resistor{"bp", "vneg", 2.2e3});
+  c.add("cin", Capacitor{"in", "mid", 100e-6});
+  c.add("rmid", Resistor{"mid", "gnd", 100e3});
+  c.add("qn", Bipolar{Polarity::npn, "vpos", "bn", "en", {}, "npn"});
+  c.add("qp", Bipolar{Polarity::pnp, "vneg", "bp", "ep", {}, "pnp"});
+  c.add("ren", Resistor{"en", "out", 1.0});
+  c.add("rep", Resistor{"ep", "out", 1.0});
+  c.add("rl", Resistor{"out", "gnd", 32.0});
+  return c;
+}
+
+// Class A with the load as the emitter resistor: a follower on 12 V whose
+// 100 ohm load carries the bias current, base held near mid-rail.
+inline Circuit class_a_emitter_load() {
+  Circuit c;
+  c.title = "Class-A follower, resistive emitter load";
+  c.add_model("npn", generic_power());
+  c.add("vcc", VoltageSource{"vcc", "gnd", 12.0});
+  c.add("vin", VoltageSource{"in", "gnd", 6.6, 1.0});
+  c.add("q1", Bipolar{Polarity::npn, "vcc", "in", "out", {}, "npn"});
   c.add("rl", Resistor{"out", "gnd", 100.0});
   return c;
 }

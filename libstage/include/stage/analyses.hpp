@@ -57,6 +57,9 @@ struct HeadroomOptions {
   double frequency = 1e3;
   double distortion_limit = 0.01;
   std::optional<std::string> load;
+  // Input amplitude of the search's first run; by default the one the
+  // small-signal gain predicts gives a 50 mV output peak.
+  std::optional<double> first_input_amplitude;
 };
 
 struct CharacterizeOptions {

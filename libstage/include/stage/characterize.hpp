@@ -20,7 +20,7 @@ struct SwingPower {
   double output_amplitude = 0;  // fundamental
   double thd = 0;
   double supply_power = 0;  // W delivered by the DC supplies (the input source excluded)
-  double load_power = 0;    // W into the load element (0 without a load)
+  double load_power = 0;    // W of signal into the load (its DC part excluded; 0 without a load)
   double dissipation = 0;   // supply power less load power: lost in the stage
   double efficiency = 0;    // load power over supply power
 };

@@ -76,7 +76,9 @@ SwingPower swing_power(const analysis::SineDrive& drive, const PowerProbes& prob
     const auto& v = m.transient.signal(probes.load_voltage->label());
     std::vector<double> p(i.size());
     for (std::size_t k = 0; k < p.size(); ++k) p[k] = v[k] * i[k];
-    s.load_power = period_mean(t, p, from, to);
+    // Signal power only: a load that also carries the bias current (class A
+    // with the load as emitter resistor) takes DC power that is no output.
+    s.load_power = period_mean(t, p, from, to) - period_mean(t, v, from, to) * period_mean(t, i, from, to);
   }
   s.dissipation = s.supply_power - s.load_power;
   s.efficiency = s.supply_power > 0 ? s.load_power / s.supply_power : 0;

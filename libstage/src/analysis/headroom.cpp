@@ -60,7 +60,7 @@ class Search {
  public:
   Search(const analysis::SineDrive& drive, double limit, double gain,
          const ProgressCallback& progress)
-      : drive_(drive), limit_(limit), gain_(gain), progress_(progress) {}
+      : drive_(drive), limit_(limit), small_signal_gain_(gain), progress_(progress) {}
 
   const analysis::DriveMeasurement& at(double amplitude) {
     auto it = runs_.find(amplitude);
@@ -74,11 +74,13 @@ class Search {
                                std::to_string(kMaxRuns) + " transient runs",
                            {});
     }
-    return runs_.emplace(amplitude, drive_.measure(amplitude)).first->second;
+    const auto& m = runs_.emplace(amplitude, drive_.measure(amplitude)).first->second;
+    large_signal_gain_ = std::max(large_signal_gain_, m.fundamental / amplitude);
+    return m;
   }
 
   double value(Criterion c, const analysis::DriveMeasurement& m) const {
-    const double predicted = gain_ * m.amplitude;
+    const double predicted = gain() * m.amplitude;
     switch (c) {
       // Clipping is a shortfall: a peak that overshoots the prediction is
       // distortion, which the THD limit judges, not a limit of that side.
@@ -126,13 +128,20 @@ class Search {
     return std::clamp(a, ok.amplitude + keep * w, bad.amplitude - keep * w);
   }
 
-  void set_gain(double gain) { gain_ = gain; }
+  // The gain the peaks are compared with: the small-signal gain, unless the
+  // stage has (almost) none at its bias point, as a class-B pair biased off,
+  // whose largest large-signal gain seen so far stands in for it.
+  double gain() const {
+    return judged_large_signal() ? large_signal_gain_ : small_signal_gain_;
+  }
+  bool judged_large_signal() const { return small_signal_gain_ < 0.5 * large_signal_gain_; }
   const std::map<double, analysis::DriveMeasurement>& runs() const { return runs_; }
 
  private:
   const analysis::SineDrive& drive_;
   double limit_;
-  double gain_;
+  double small_signal_gain_;
+  double large_signal_gain_ = 0;
   const ProgressCallback& progress_;
   std::map<double, analysis::DriveMeasurement> runs_;
 };
@@ -239,28 +248,27 @@ HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& optio
   // the output far past the rails.
   double largest_rail = 1.0;
   for (const analysis::Rail& r : analysis::supply_rails(circuit, options.input)) largest_rail = std::max(largest_rail, std::abs(r.voltage));
-  const double reference_gain = std::max(result.small_signal_gain, 1e-6);
-  double amplitude = kFirstOutputSwing / reference_gain;
+  // The first drive aims at a small output swing, and never beyond a twentieth
+  // of the largest rail (a stage biased off predicts no output at all).
+  double amplitude = options.first_input_amplitude.value_or(
+      std::min(kFirstOutputSwing / result.small_signal_gain, largest_rail / 20));
   for (int k = 0; k < kMaxDownSteps; ++k) {
     const auto& m = search.at(amplitude);
     if (search.within(kPositive, m) && search.within(kNegative, m) && search.within(kThd, m)) break;
     amplitude /= 2;
   }
-  const double largest_amplitude = 4 * largest_rail / reference_gain;
+  // A drive whose prediction is half as large again as the largest rail has
+  // clipped; beyond that an ideal source only forces junctions into the rails.
+  const auto largest_amplitude = [&] { return 1.5 * largest_rail / search.gain(); };
   for (amplitude = search.runs().rbegin()->first * 2;
-       !search.all_bracketed() && amplitude < largest_amplitude; amplitude *= 2) {
-    search.at(amplitude);
+       !search.all_bracketed() && amplitude / 2 < largest_amplitude(); amplitude *= 2) {
+    search.at(std::min(amplitude, largest_amplitude()));
   }
 
-  // A stage with (almost) no small-signal gain at its bias point, such as a
-  // class-B pair, is judged against its best large-signal gain instead.
-  double large_signal_gain = 0;
-  for (const auto& [a, m] : search.runs()) large_signal_gain = std::max(large_signal_gain, m.fundamental / a);
-  if (result.small_signal_gain < 0.5 * large_signal_gain) {
-    search.set_gain(large_signal_gain);
+  if (search.judged_large_signal()) {
     result.notes.push_back(
         "the small-signal gain at the bias point is far below the large-signal gain (a stage "
-        "biased off, such as class B): peaks are compared with the large-signal gain instead");
+        "biased off, such as class B): peaks are compared with the largest large-signal gain");
   }
 
   for (int c = 0; c < kCriteria; ++c) {
