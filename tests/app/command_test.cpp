@@ -1,0 +1,130 @@
+// The `stage` command as a user runs it: exit statuses, error messages with
+// file, line and column, JSON and CSV output, and golden figures of an
+// example circuit (compared with a tolerance, so that an unintended change in
+// any figure shows up).
+#include <gtest/gtest.h>
+
+#include <array>
+#include <cstdio>
+#include <filesystem>
+#include <fstream>
+#include <nlohmann/json.hpp>
+#include <sstream>
+#include <sys/wait.h>
+
+namespace {
+
+namespace fs = std::filesystem;
+
+struct Outcome {
+  int status = -1;
+  std::string out;  // stdout and stderr together
+};
+
+Outcome run(const std::string& arguments) {
+  const std::string command =
+      std::string(STAGE_BINARY_DIR) + "/apps/stage " + arguments + " 2>&1";
+  Outcome o;
+  FILE* pipe = popen(command.c_str(), "r");
+  std::array<char, 4096> buffer{};
+  while (std::fgets(buffer.data(), buffer.size(), pipe) != nullptr) o.out += buffer.data();
+  const int raw = pclose(pipe);
+  o.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
+  return o;
+}
+
+fs::path write_temp(const std::string& name, const std::string& text) {
+  const fs::path path = fs::temp_directory_path() / ("stage_command_test_" + name);
+  std::ofstream(path) << text;
+  return path;
+}
+
+std::string example(const std::string& name) {
+  return std::string(STAGE_SOURCE_DIR) + "/apps/examples/" + name;
+}
+
+TEST(Command, VersionAndHelp) {
+  EXPECT_EQ(run("--version").status, 0);
+  const auto help = run("--help");
+  EXPECT_EQ(help.status, 0);
+  EXPECT_NE(help.out.find("Examples:"), std::string::npos);
+  EXPECT_NE(help.out.find("Exit status"), std::string::npos);
+}
+
+TEST(Command, InputErrorNamesLineAndColumnAndExitsTwo) {
+  const auto file = write_temp("bad.stage", "v1 = voltage(a, gnd, 5 V)\nr1 = resistor(a, gnd, 10 nF)\n");
+  const auto o = run("run " + file.string());
+  EXPECT_EQ(o.status, 2);
+  EXPECT_NE(o.out.find(file.string() + ":2:"), std::string::npos) << o.out;
+  EXPECT_NE(o.out.find("^"), std::string::npos) << o.out;
+}
+
+TEST(Command, NumericalFailureNamesTheNodeAndExitsThree) {
+  const auto file =
+      write_temp("float.stage", "v1 = voltage(a, gnd, 5 V)\nc1 = capacitor(a, island, 1 nF)\n"
+                                "r1 = resistor(island, far, 1 kΩ)\nanalyze bias()\n");
+  const auto o = run("run " + file.string());
+  EXPECT_EQ(o.status, 3);
+  EXPECT_NE(o.out.find("island"), std::string::npos) << o.out;
+}
+
+TEST(Command, CheckRunsNothing) {
+  const auto o = run("check " + example("follower_32ohm.stage"));
+  EXPECT_EQ(o.status, 0);
+  EXPECT_NE(o.out.find("no errors"), std::string::npos);
+}
+
+TEST(Command, CsvWritesOneFilePerAnalysis) {
+  const fs::path dir = fs::temp_directory_path() / "stage_command_test_csv";
+  fs::remove_all(dir);
+  const auto o = run("run " + example("follower_32ohm.stage") + " --csv " + dir.string());
+  EXPECT_EQ(o.status, 0) << o.out;
+  EXPECT_TRUE(fs::exists(dir / "1_bias.csv"));
+  EXPECT_TRUE(fs::exists(dir / "2_headroom.csv"));
+}
+
+// Numbers equal to a relative 1e-6 (or 1e-12 absolute near zero); strings,
+// booleans and structure exactly.
+void expect_close(const nlohmann::json& got, const nlohmann::json& want, const std::string& at) {
+  ASSERT_EQ(got.type(), want.type()) << at;
+  if (want.is_object()) {
+    ASSERT_EQ(got.size(), want.size()) << at;
+    for (const auto& [key, value] : want.items()) {
+      ASSERT_TRUE(got.contains(key)) << at << "." << key;
+      expect_close(got[key], value, at + "." + key);
+    }
+  } else if (want.is_array()) {
+    ASSERT_EQ(got.size(), want.size()) << at;
+    for (std::size_t i = 0; i < want.size(); ++i) {
+      expect_close(got[i], want[i], at + "[" + std::to_string(i) + "]");
+    }
+  } else if (want.is_number()) {
+    const double g = got.get<double>(), w = want.get<double>();
+    EXPECT_NEAR(g, w, 1e-12 + 1e-6 * std::abs(w)) << at;
+  } else {
+    EXPECT_EQ(got, want) << at;
+  }
+}
+
+// Golden figures of the follower example; regenerate with
+//   build/apps/stage run apps/examples/follower_32ohm.stage --json \
+//     > tests/app/golden/follower_32ohm.json
+// after a deliberate change, and say why in the commit.
+TEST(Command, FollowerJsonMatchesGolden) {
+  const auto o = run("run " + example("follower_32ohm.stage") + " --json");
+  ASSERT_EQ(o.status, 0) << o.out;
+  const auto got = nlohmann::json::parse(o.out);
+  std::ifstream golden(std::string(STAGE_SOURCE_DIR) + "/tests/app/golden/follower_32ohm.json");
+  const auto want = nlohmann::json::parse(golden);
+  expect_close(got, want, "document");
+  // The keys of spec section 7 are where external tools read them.
+  const auto& headroom = got["analyses"][1];
+  EXPECT_EQ(headroom["kind"], "headroom");
+  for (const char* key : {"positive_peak_V", "negative_peak_V", "symmetric_peak_to_peak_V",
+                          "positive_limit", "negative_limit", "transient_runs", "load_line"}) {
+    EXPECT_TRUE(headroom.contains(key)) << key;
+  }
+  EXPECT_EQ(got["analyses"][0]["devices"]["q1"]["region"], "forward_active");
+}
+
+}  // namespace
