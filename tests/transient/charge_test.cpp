@@ -8,6 +8,7 @@
 #include "analysis/transient.hpp"
 #include "devices/stamp.hpp"
 #include "mna/topology_check.hpp"
+#include "reference.hpp"
 #include "stage/errors.hpp"
 
 namespace {
@@ -105,7 +106,8 @@ TEST_P(ChargeConservation, CubicCapacitorReturnsToItsStartCharge) {
 
 INSTANTIATE_TEST_SUITE_P(Formulas, ChargeConservation,
                          ::testing::Values(stage::Integration::trapezoidal,
-                                           stage::Integration::bdf2));
+                                           stage::Integration::bdf2),
+                         stage::testing::integration_name);
 
 TEST(StepFailure, NamesTheTimeAndTheNode) {
   stage::Circuit c;

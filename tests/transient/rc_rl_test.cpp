@@ -105,6 +105,7 @@ TEST_P(FirstOrder, PulseCornersAreLandedOn) {
 
 INSTANTIATE_TEST_SUITE_P(Formulas, FirstOrder,
                          ::testing::Values(stage::Integration::trapezoidal,
-                                           stage::Integration::bdf2));
+                                           stage::Integration::bdf2),
+                         stage::testing::integration_name);
 
 }  // namespace

@@ -5,6 +5,8 @@
 #include <algorithm>
 #include <cmath>
 #include <functional>
+#include <gtest/gtest.h>
+#include <string>
 
 #include "stage/transient.hpp"
 
@@ -19,6 +21,12 @@ inline double max_error(const TransientResult& r, const std::string& signal,
     worst = std::max(worst, std::abs(v[k] - exact(r.time[k])));
   }
   return worst;
+}
+
+// Test names for the two integration methods ("trapezoidal", "bdf2")
+// instead of the enum's raw bytes.
+inline std::string integration_name(const ::testing::TestParamInfo<Integration>& info) {
+  return info.param == Integration::trapezoidal ? "trapezoidal" : "bdf2";
 }
 
 }  // namespace stage::testing

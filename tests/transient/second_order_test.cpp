@@ -67,7 +67,8 @@ TEST_P(SeriesRlc, OverdampedStep) {
 
 INSTANTIATE_TEST_SUITE_P(Formulas, SeriesRlc,
                          ::testing::Values(stage::Integration::trapezoidal,
-                                           stage::Integration::bdf2));
+                                           stage::Integration::bdf2),
+                         stage::testing::integration_name);
 
 // LC tank from a capacitor charged to 1 V, L = 1 mH, C = 1 uF, 200 steps a
 // period once the first steps have grown to max_step.

@@ -71,7 +71,8 @@ TEST_P(StepControl, LinearConstantStepNeverRefactors) {
 
 INSTANTIATE_TEST_SUITE_P(Formulas, StepControl,
                          ::testing::Values(stage::Integration::trapezoidal,
-                                           stage::Integration::bdf2));
+                                           stage::Integration::bdf2),
+                         stage::testing::integration_name);
 
 // resample() puts every signal on a uniform grid; the quadratic
 // interpolation of e^{-t/tau} between samples h apart errs by at most
