@@ -5,6 +5,8 @@
 // stdout and, with --output, to a file.
 #include "command_curves.hpp"
 
+#include "exit_status.hpp"
+
 #include <spdlog/spdlog.h>
 
 #include <filesystem>
@@ -167,18 +169,7 @@ int fit(const CurvesSettings& s) {
 }
 
 int guarded(int (*command)(const CurvesSettings&), const CurvesSettings& s) {
-  try {
-    return command(s);
-  } catch (const stage::InputError& e) {
-    std::cerr << e.what() << '\n';
-    return stage::kExitInputError;
-  } catch (const stage::NumericalError& e) {
-    std::cerr << "error: " << e.what() << '\n';
-    return stage::kExitNumericalError;
-  } catch (const std::invalid_argument& e) {
-    std::cerr << "error: " << e.what() << '\n';
-    return stage::kExitInputError;
-  }
+  return run_guarded([&] { return command(s); });
 }
 
 }  // namespace

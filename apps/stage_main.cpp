@@ -13,6 +13,7 @@
 #include <iostream>
 
 #include "command_curves.hpp"
+#include "exit_status.hpp"
 #include "stage/errors.hpp"
 #include "stage/reader.hpp"
 #include "stage/report.hpp"
@@ -140,19 +141,5 @@ int main(int argc, char** argv) {
   if (s.verbose) spdlog::set_level(spdlog::level::debug);
   if (curves_cmd->parsed()) return curves_status;
 
-  try {
-    return run(s, check_cmd->parsed());
-  } catch (const stage::InputError& e) {
-    std::cerr << e.what() << '\n';
-    return stage::kExitInputError;
-  } catch (const stage::NumericalError& e) {
-    std::cerr << "error: " << e.what() << '\n';
-    return stage::kExitNumericalError;
-  } catch (const std::invalid_argument& e) {
-    std::cerr << s.file << ": error: " << e.what() << '\n';
-    return stage::kExitInputError;
-  } catch (const std::exception& e) {
-    std::cerr << "internal error: " << e.what() << '\n';
-    return 1;
-  }
+  return run_guarded([&] { return run(s, check_cmd->parsed()); });
 }

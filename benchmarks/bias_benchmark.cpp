@@ -6,23 +6,13 @@
 #include <benchmark/benchmark.h>
 
 #include "analysis/newton.hpp"
+#include "benchmark_support.hpp"
 #include "analysis/operating_point.hpp"
-#include "mna/sparse_lu.hpp"
 #include "mna/system.hpp"
 
 namespace {
 
-stage::BipolarModel generic_npn() {  // generic textbook-typical values
-  stage::BipolarModel m;
-  m.saturation_current = 1e-15;
-  m.beta_forward = 150;
-  m.early_voltage_forward = 80;
-  m.base_resistance = 50;
-  m.be_capacitance = 10e-12;
-  m.bc_capacitance = 4e-12;
-  m.forward_transit_time = 0.4e-9;
-  return m;
-}
+using stage::benchmarks::generic_npn;
 
 // Direct-coupled chain of followers, each with its own emitter resistor; a
 // divider biases the first base. Alternating 12 V rails keep every stage active.
@@ -107,17 +97,7 @@ void BM_RefactorSolve(benchmark::State& state) {
   stage::analysis::NewtonSolver newton(system, circuit.solver);
   std::vector<double> x(static_cast<std::size_t>(system.size()) + 1, 0.0);
   stage::analysis::solve_operating_point(newton, x);
-  auto w = system.make_workspace();
-  system.evaluate(system.request(x.data()), w);
-  stage::mna::SparseLu<double> lu(system.pattern());
-  lu.factor(w.g.data());
-  std::vector<double> rhs(w.f.begin() + 1, w.f.end());
-  for (auto _ : state) {
-    lu.factor(w.g.data());
-    std::copy(w.f.begin() + 1, w.f.end(), rhs.begin());
-    lu.solve(rhs.data());
-    benchmark::DoNotOptimize(rhs.data());
-  }
+  stage::benchmarks::time_refactor_solve(state, system, x);
 }
 
 void Sizes(benchmark::internal::Benchmark* b) {

@@ -8,7 +8,7 @@
 
 #include "analysis/newton.hpp"
 #include "analysis/operating_point.hpp"
-#include "mna/sparse_lu.hpp"
+#include "benchmark_support.hpp"
 #include "mna/system.hpp"
 
 namespace {
@@ -67,19 +67,8 @@ void BM_OperatingPoint(benchmark::State& state) {
 void BM_RefactorSolve(benchmark::State& state) {
   const stage::Circuit circuit = generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
   stage::mna::System system(circuit);
-  std::vector<double> x(static_cast<std::size_t>(system.size()) + 1, 0.0);
-  auto w = system.make_workspace();
-  system.evaluate(system.request(x.data()), w);
-  stage::mna::SparseLu<double> lu(system.pattern());
-  lu.factor(w.g.data());
-  std::vector<double> rhs(w.f.begin() + 1, w.f.end());
-  for (auto _ : state) {
-    lu.factor(w.g.data());
-    std::copy(w.f.begin() + 1, w.f.end(), rhs.begin());
-    lu.solve(rhs.data());
-    benchmark::DoNotOptimize(rhs.data());
-  }
-  state.counters["unknowns"] = system.size();
+  const std::vector<double> x(static_cast<std::size_t>(system.size()) + 1, 0.0);
+  stage::benchmarks::time_refactor_solve(state, system, x);
 }
 
 // Dense LU with partial pivoting of the same matrix (the test oracle).

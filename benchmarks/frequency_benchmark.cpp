@@ -10,27 +10,17 @@
 
 #include "analysis/operating_point.hpp"
 #include "analysis/small_signal.hpp"
+#include "benchmark_support.hpp"
 #include "stage/frequency.hpp"
 
 namespace {
 
 constexpr int kPoints = 200;
 
-stage::BipolarModel follower_npn() {  // values of our own, small-signal-transistor-like
-  stage::BipolarModel m;
-  m.saturation_current = 2e-15;
-  m.beta_forward = 200;
-  m.early_voltage_forward = 60;
-  m.base_resistance = 30;
-  m.be_capacitance = 8e-12;
-  m.bc_capacitance = 3e-12;
-  m.forward_transit_time = 0.3e-9;
-  return m;
-}
 
 stage::Circuit coupled_followers(int transistors) {
   stage::Circuit c;
-  c.add_model("npn", follower_npn());
+  c.add_model("npn", stage::benchmarks::generic_npn());
   c.add("vcc", stage::VoltageSource{"vcc", "gnd", 15.0});
   c.add("vin", stage::VoltageSource{"src", "gnd", 0.0, 1.0});
   c.add("rs", stage::Resistor{"src", "e0", 600});

@@ -3,6 +3,8 @@
 // real part).
 #pragma once
 
+#include <string>
+
 #include "stage/circuit.hpp"
 
 namespace stage::testing {
@@ -77,12 +79,12 @@ inline Circuit common_emitter() {
   return c;
 }
 
-// A complementary pair on +/-12 V rails into 32 ohm, driven through 100 ohm
-// into both bases: class B. (The source resistance keeps the base current
-// finite when the drive goes past a rail, as a real driver's would.)
-inline Circuit class_b_pair(double drive_amplitude = 0) {
+// What both push-pull stages share: +/-12 V rails, the pair's models, a
+// 32 ohm load from `out`, and the input source (a sine of the given peak
+// when drive_amplitude > 0, for transients).
+inline Circuit push_pull_frame(std::string title, double drive_amplitude) {
   Circuit c;
-  c.title = "Class-B pair";
+  c.title = std::move(title);
   c.add_model("npn", generic_power());
   c.add_model("pnp", generic_power());
   c.add("vpos", VoltageSource{"vpos", "gnd", 12.0});
@@ -90,26 +92,26 @@ inline Circuit class_b_pair(double drive_amplitude = 0) {
   VoltageSource vin{"in", "gnd", 0.0, 1.0};
   if (drive_amplitude > 0) vin.wave = SineWave{drive_amplitude, 1e3};
   c.add("vin", vin);
+  c.add("rl", Resistor{"out", "gnd", 32.0});
+  return c;
+}
+
+// A complementary pair driven through 100 ohm into both bases: class B.
+// (The source resistance keeps the base current finite when the drive goes
+// past a rail, as a real driver's would.)
+inline Circuit class_b_pair(double drive_amplitude = 0) {
+  Circuit c = push_pull_frame("Class-B pair", drive_amplitude);
   c.add("rs", Resistor{"in", "base", 100.0});
   c.add("qn", Bipolar{Polarity::npn, "vpos", "base", "out", {}, "npn"});
   c.add("qp", Bipolar{Polarity::pnp, "vneg", "base", "out", {}, "pnp"});
-  c.add("rl", Resistor{"out", "gnd", 32.0});
   return c;
 }
 
 // The same pair biased into class AB by two diodes between the bases, fed
 // by 2.2 k from each rail, with 1 ohm emitter resistors.
 inline Circuit class_ab_pair(double drive_amplitude = 0) {
-  Circuit c;
-  c.title = "Class-AB pair";
-  c.add_model("npn", generic_power());
-  c.add_model("pnp", generic_power());
+  Circuit c = push_pull_frame("Class-AB pair", drive_amplitude);
   c.add_model("diode", generic_diode());
-  c.add("vpos", VoltageSource{"vpos", "gnd", 12.0});
-  c.add("vneg", VoltageSource{"vneg", "gnd", -12.0});
-  VoltageSource vin{"in", "gnd", 0.0, 1.0};
-  if (drive_amplitude > 0) vin.wave = SineWave{drive_amplitude, 1e3};
-  c.add("vin", vin);
   c.add("r_top", Resistor{"vpos", "bn", 2.2e3});
   c.add("d1", Diode{"bn", "mid", "diode"});
   c.add("d2", Diode{"mid", "bp", "diode"});
@@ -120,7 +122,6 @@ inline Circuit class_ab_pair(double drive_amplitude = 0) {
   c.add("qp", Bipolar{Polarity::pnp, "vneg", "bp", "ep", {}, "pnp"});
   c.add("ren", Resistor{"en", "out", 1.0});
   c.add("rep", Resistor{"ep", "out", 1.0});
-  c.add("rl", Resistor{"out", "gnd", 32.0});
   return c;
 }
 
