@@ -52,6 +52,9 @@ struct BiasResult {
   int newton_iterations = 0;  // total, over every homotopy step
   BiasMethod method = BiasMethod::newton;
   double max_kcl_residual = 0;  // A, largest |KCL sum| over the nodes
+  // KLU's estimate of the reciprocal condition number of the last Jacobian:
+  // near machine precision (1e-16) the bias point is barely determined.
+  double reciprocal_condition = 0;
   double temperature = kRoomTemperature;
   std::vector<std::pair<std::string, double>> node_voltages;      // circuit nodes, in order of appearance
   std::vector<std::pair<std::string, double>> element_currents;   // "<name>.current"

@@ -16,6 +16,7 @@ namespace {
 
 constexpr double kFirstConductance = 1e-2;  // S; start of conductance stepping
 constexpr int kMaxHomotopySteps = 400;
+constexpr double kNearlySingular = 1e-14;  // reciprocal condition: a warning below
 
 NewtonProblem dc_problem(const NewtonSolver& newton, double gmin, double source_scale) {
   NewtonProblem p;
@@ -97,11 +98,11 @@ bool source_stepping(NewtonSolver& newton, std::vector<double>& x, int& iteratio
   std::string message = "no DC operating point found (Newton, conductance stepping and source "
                         "stepping all failed); did not settle:";
   for (const auto& name : worst) {
-    const auto index = system.topology().find_node(name);
+    const auto index = system.topology().find_unknown(name);
     message += " " + name;
     if (index) {
-      message += " (last change " + std::to_string(newton.last_update()[*index]) +
-                 ", residual " + std::to_string(newton.residual()[*index]) + ")";
+      message += fmt::format(" (last change {:.3g}, residual {:.3g})",
+                             newton.last_update()[*index], newton.residual()[*index]);
     }
   }
   throw NumericalError(message, worst);
@@ -118,7 +119,21 @@ OperatingPoint solve_operating_point(NewtonSolver& newton, std::vector<double>& 
   spdlog::debug("plain Newton: {} after {} iterations",
                 outcome.status == NewtonStatus::converged ? "converged" : "failed",
                 outcome.iterations);
-  if (outcome.status == NewtonStatus::converged) return how;
+  // KLU's estimate of the last Jacobian's reciprocal condition, kept with the
+  // result: near machine precision the bias point is barely determined.
+  const auto finish = [&](BiasMethod method) {
+    how.method = method;
+    how.reciprocal_condition = newton.lu().rcond();
+    spdlog::debug("bias point found by {}; reciprocal condition estimate {:.3g}",
+                  to_string(method), how.reciprocal_condition);
+    if (how.reciprocal_condition < kNearlySingular) {
+      spdlog::warn("the bias point is nearly singular (reciprocal condition {:.2g}): a node may "
+                   "hang on nothing but junctions in cutoff",
+                   how.reciprocal_condition);
+    }
+    return how;
+  };
+  if (outcome.status == NewtonStatus::converged) return finish(BiasMethod::newton);
   // A Jacobian can be singular only at the cold start, where every junction
   // is off and a node driven by current sources alone hangs on picoamp
   // conductances; conductance stepping gives every node a path to ground.
@@ -128,12 +143,10 @@ OperatingPoint solve_operating_point(NewtonSolver& newton, std::vector<double>& 
   x = guess;
   reset_limiting(newton.system());
   if (conductance_stepping(newton, x, how.newton_iterations)) {
-    how.method = BiasMethod::conductance_stepping;
-    return how;
+    return finish(BiasMethod::conductance_stepping);
   }
   if (source_stepping(newton, x, how.newton_iterations)) {
-    how.method = BiasMethod::source_stepping;
-    return how;
+    return finish(BiasMethod::source_stepping);
   }
   fail(newton, outcome);
 }
@@ -144,6 +157,7 @@ BiasResult describe_operating_point(const mna::System& system, const std::vector
   result.converged = true;
   result.newton_iterations = how.newton_iterations;
   result.method = how.method;
+  result.reciprocal_condition = how.reciprocal_condition;
   result.temperature = system.temperature();
 
   const auto& topology = system.topology();

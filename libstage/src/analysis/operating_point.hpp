@@ -12,6 +12,7 @@ namespace stage::analysis {
 struct OperatingPoint {
   int newton_iterations = 0;
   BiasMethod method = BiasMethod::newton;
+  double reciprocal_condition = 0;  // of the last Jacobian factored
 };
 
 // Solves f(x) = 0 from the guess in x (n + 1 entries): plain Newton, then

@@ -43,4 +43,11 @@ std::optional<Index> Topology::find_branch(const std::string& device) const {
   return it->second;
 }
 
+std::optional<Index> Topology::find_unknown(const std::string& name) const {
+  for (Index i = 1; i < static_cast<Index>(names_.size()); ++i) {
+    if (names_[i] == name) return i;
+  }
+  return std::nullopt;
+}
+
 }  // namespace stage::mna

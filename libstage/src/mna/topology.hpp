@@ -27,6 +27,8 @@ class Topology {
 
   std::optional<Index> find_node(const std::string& name) const;
   std::optional<Index> find_branch(const std::string& device) const;
+  // Any unknown by the name name() gives it (a linear search: for messages).
+  std::optional<Index> find_unknown(const std::string& name) const;
 
   int size() const { return static_cast<int>(names_.size()) - 1; }
   const std::string& name(Index i) const { return names_[i]; }

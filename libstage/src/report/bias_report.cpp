@@ -59,6 +59,7 @@ Json to_json(const BiasResult& r) {
               {"method", std::string(to_string(r.method))},
               {"temperature_K", r.temperature},
               {"max_kcl_residual_A", r.max_kcl_residual},
+              {"reciprocal_condition", r.reciprocal_condition},
               {"node_voltages", pairs_json(r.node_voltages)},
               {"element_currents", pairs_json(r.element_currents)},
               {"devices", devices},
