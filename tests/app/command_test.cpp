@@ -80,7 +80,8 @@ TEST(Command, CsvWritesOneFilePerAnalysis) {
   const auto o = run("run " + example("follower_32ohm.stage") + " --csv " + dir.string());
   EXPECT_EQ(o.status, 0) << o.out;
   EXPECT_TRUE(fs::exists(dir / "1_bias.csv"));
-  EXPECT_TRUE(fs::exists(dir / "2_headroom.csv"));
+  EXPECT_TRUE(fs::exists(dir / "2_frequency.csv"));
+  EXPECT_TRUE(fs::exists(dir / "3_headroom.csv"));
 }
 
 // Numbers equal to a relative 1e-6 (or 1e-9 absolute near zero: residuals of
@@ -119,7 +120,7 @@ TEST(Command, FollowerJsonMatchesGolden) {
   const auto want = nlohmann::json::parse(golden);
   expect_close(got, want, "document");
   // The keys of spec section 7 are where external tools read them.
-  const auto& headroom = got["analyses"][1];
+  const auto& headroom = got["analyses"][2];
   EXPECT_EQ(headroom["kind"], "headroom");
   for (const char* key : {"positive_peak_V", "negative_peak_V", "symmetric_peak_to_peak_V",
                           "positive_limit", "negative_limit", "transient_runs", "load_line"}) {
