@@ -1,0 +1,164 @@
+// A transistor stage against an independent integration: an emitter follower
+// with input and output coupling capacitors, biased by a resistor divider and
+// driven hard enough that the negative half clips at cutoff. The reference
+// writes the circuit as an ODE in the two capacitor voltages, solves the
+// resistive part (base and emitter voltages) at every right-hand-side
+// evaluation by Newton's method on KCL with the Ebers–Moll transistor written
+// out here, and integrates with Boost.Odeint's Dormand–Prince stepper at a
+// tight tolerance.
+#include <gtest/gtest.h>
+
+#include <algorithm>
+#include <array>
+#include <boost/numeric/odeint.hpp>
+#include <cmath>
+#include <iomanip>
+#include <numbers>
+#include <sstream>
+#include <vector>
+
+#include "stage/transient.hpp"
+
+namespace {
+
+// The stage: 12 V supply, divider 47k/47k to the base, 1k emitter resistor,
+// a 5 V, 1 kHz source behind 1k into 10 uF, 100 uF out into a 1k load.
+// Quiescent emitter current ~4.6 mA, so the output can fall only about
+// IE (RE || RL) ~ 2.3 V before the transistor cuts off, while it can rise
+// almost the whole drive: the negative side clips, the positive does not.
+constexpr double kVcc = 12, kAmplitude = 5, kF = 1e3;
+constexpr double kRs = 1e3, kR1 = 47e3, kR2 = 47e3, kRe = 1e3, kRl = 1e3;
+constexpr double kCin = 10e-6, kCout = 100e-6;
+constexpr double kIs = 1e-14, kBf = 150, kBr = 2;
+constexpr double kKelvin = 300.15;
+
+// Base and emitter voltages of the resistive part.
+struct Nodes {
+  double vb = 0, ve = 0;
+};
+
+// Ebers–Moll model of an npn (Ebers and Moll, Proc. IRE 1954) in its
+// transport form (Getreu, "Modeling the Bipolar Transistor", 1978): IC = IS (e^(vbe/vt) -
+// e^(vbc/vt)) - IS/BR (e^(vbc/vt) - 1), IB = IS/BF (e^(vbe/vt) - 1) + IS/BR (e^(vbc/vt) - 1), vt =
+// k T / q from the exact SI constants (CODATA 2018). Solves KCL at base and emitter for the
+// capacitor voltages vcin = v(in) - v(base), vcout = v(e) - v(out) and the
+// source voltage vs, by Newton from `x` (the last solution: it moves little
+// between right-hand-side evaluations). With `dc` the coupling branches carry
+// no current (capacitors open): the bias point.
+Nodes solve_nodes(double vs, double vcin, double vcout, Nodes x, bool dc = false) {
+  const double gs = dc ? 0 : 1 / kRs, gl = dc ? 0 : 1 / kRl;
+  const double vt = 1.380649e-23 * kKelvin / 1.602176634e-19;
+  for (int iteration = 0; iteration < 200; ++iteration) {
+    const double ef = std::exp((x.vb - x.ve) / vt), er = std::exp((x.vb - kVcc) / vt);
+    const double ic = kIs * (ef - er) - kIs / kBr * (er - 1);
+    const double ib = kIs / kBf * (ef - 1) + kIs / kBr * (er - 1);
+    const double gf = kIs * ef / vt, gr = kIs * er / vt;
+    // Residuals: current into the base node and into the emitter node.
+    const double f1 = (vs - vcin - x.vb) * gs + (kVcc - x.vb) / kR1 - x.vb / kR2 - ib;
+    const double f2 = ic + ib - x.ve / kRe - (x.ve - vcout) * gl;
+    const double j11 = -gs - 1 / kR1 - 1 / kR2 - gf / kBf - gr / kBr;
+    const double j12 = gf / kBf;
+    const double j21 = gf * (1 + 1 / kBf) - gr;
+    const double j22 = -gf * (1 + 1 / kBf) - 1 / kRe - gl;
+    const double det = j11 * j22 - j12 * j21;
+    double db = -(f1 * j22 - f2 * j12) / det;
+    double de = -(j11 * f2 - j21 * f1) / det;
+    // Limit the junction-voltage change to a few vt so the exponential cannot
+    // overshoot (common practice in Newton on diode equations).
+    const double dvbe = db - de, limit = 4 * vt;
+    if (std::abs(dvbe) > limit) {
+      db *= limit / std::abs(dvbe);
+      de *= limit / std::abs(dvbe);
+    }
+    x.vb += db;
+    x.ve += de;
+    // Settled to a few units in the last place of volt-sized values.
+    if (std::abs(db) < 1e-14 && std::abs(de) < 1e-14) return x;
+  }
+  ADD_FAILURE() << "reference Newton did not converge at vs = " << vs;
+  return x;
+}
+
+double source(double t) { return kAmplitude * std::sin(2 * std::numbers::pi * kF * t); }
+
+TEST(FollowerReference, ClippedOutputAgreesWithDormandPrince) {
+  stage::Circuit c;
+  c.temperature = kKelvin;
+  stage::BipolarModel npn;  // with the rest at its defaults: plain Ebers–Moll
+  npn.saturation_current = kIs;
+  npn.beta_forward = kBf;
+  npn.beta_reverse = kBr;
+  c.add_model("npn", npn);
+  c.add("vcc", stage::VoltageSource{"vcc", "gnd", kVcc});
+  c.add("vs", stage::VoltageSource{"src", "gnd", 0.0, 0.0, 0.0, stage::SineWave{kAmplitude, kF}});
+  c.add("rs", stage::Resistor{"src", "in", kRs});
+  c.add("cin", stage::Capacitor{"in", "base", kCin});
+  c.add("r1", stage::Resistor{"vcc", "base", kR1});
+  c.add("r2", stage::Resistor{"base", "gnd", kR2});
+  c.add("q1", stage::Bipolar{stage::Polarity::npn, "vcc", "base", "e", {}, "npn"});
+  c.add("re", stage::Resistor{"e", "gnd", kRe});
+  c.add("cout", stage::Capacitor{"e", "out", kCout});
+  c.add("rl", stage::Resistor{"out", "gnd", kRl});
+  // Tight tolerances, so that the simulator's own integration and Newton
+  // error stay two orders below the 0.1 % budget and a wrong model or stamp,
+  // not the integrator, is what would break the check. The relative
+  // tolerance serves both the charges' local error and the Newton
+  // convergence test; 1 uV and 1 pA are the absolute floors (the defaults).
+  c.solver.relative_tolerance = 1e-6;
+  c.solver.voltage_tolerance = 1e-6;
+  c.solver.current_tolerance = 1e-12;
+  stage::TransientOptions o;
+  o.stop = 5 / kF;
+  // At most 1/200 of a period per step (1.8 degrees of the sine). The
+  // trapezoidal rule's phase error on a sinusoid is (w h)^2 / 12 per radian
+  // (from its amplification factor), 8e-5 here, and the knee into cutoff,
+  // where the capacitor currents only bend, is resolved to that angle: the
+  // error estimate, which watches the charges, does not see the knee itself.
+  o.max_step = 1 / (200 * kF);
+  const auto r = stage::run_transient(c, o);
+
+  // The run starts from the bias point with the source at zero: capacitors
+  // open, so vcin = -v(base) and vcout = v(e).
+  Nodes nodes = solve_nodes(0, 0, 0, {kVcc / 2, kVcc / 2 - 0.6}, true);
+  using State = std::array<double, 2>;  // vcin, vcout
+  State state{-nodes.vb, nodes.ve};
+  const auto rhs = [&](const State& v, State& dv, double t) {
+    const double vs = source(t);
+    nodes = solve_nodes(vs, v[0], v[1], nodes);
+    dv[0] = (vs - v[0] - nodes.vb) / kRs / kCin;
+    dv[1] = (nodes.ve - v[1]) / kRl / kCout;
+  };
+  namespace odeint = boost::numeric::odeint;
+  std::vector<double> reference;
+  odeint::integrate_times(
+      odeint::make_dense_output(1e-10, 1e-10, odeint::runge_kutta_dopri5<State>()), rhs, state,
+      r.time.begin(), r.time.end(), 1e-7, [&](const State& v, double t) {
+        const Nodes n = solve_nodes(source(t), v[0], v[1], nodes);
+        reference.push_back(n.ve - v[1]);  // v(out) = v(e) - vcout
+      });
+  ASSERT_EQ(reference.size(), r.time.size());
+
+  const auto& out = r.signal("out");
+  const auto [low, high] = std::minmax_element(reference.begin(), reference.end());
+  // Full scale: the largest excursion of the reference output (its positive peak).
+  const double full_scale = std::max(std::abs(*low), std::abs(*high));
+  double worst = 0;
+  for (std::size_t k = 0; k < out.size(); ++k) {
+    worst = std::max(worst, std::abs(out[k] - reference[k]));
+  }
+  std::ostringstream fraction;
+  fraction << std::setprecision(3) << worst / full_scale;
+  RecordProperty("worst_fraction_of_full_scale", fraction.str());
+  RecordProperty("points", static_cast<int>(out.size()));
+  EXPECT_LT(worst, 1e-3 * full_scale);  // 0.1 % of full scale (Boost.Odeint reference)
+
+  const auto [out_low, out_high] = std::minmax_element(out.begin(), out.end());
+  // It follows: the positive peak is near the drive, the follower's gain
+  // being close to one (hand analysis: 17.9k / (1k + 17.9k) into the base).
+  EXPECT_GT(*out_high, 0.8 * kAmplitude);
+  // It clips: the negative peak stops near -IE (RE || RL) ~ -2.3 V at cutoff
+  // (hand analysis, the AC load line), well short of the positive one.
+  EXPECT_LT(-*out_low, 0.7 * *out_high);
+}
+
+}  // namespace
