@@ -7,6 +7,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <optional>
 
 #include "devices/sources.hpp"
 #include "stage/errors.hpp"
@@ -15,6 +16,8 @@ namespace stage::analysis {
 namespace {
 
 constexpr double kFirstConductance = 1e-2;  // S; start of conductance stepping
+constexpr double kLargestConductance = 10;  // S; where a failing start gives up
+constexpr double kMaxStepRatio = 10;        // a decade per conductance step at most
 constexpr int kMaxHomotopySteps = 400;
 constexpr double kNearlySingular = 1e-14;  // reciprocal condition: a warning below
 
@@ -32,28 +35,39 @@ void reset_limiting(const mna::System& system) {
 }
 
 // Lowers the node-to-ground conductance from kFirstConductance to the
-// minimum, one decade at a time, finer when a step fails; then removes it.
+// minimum, then removes it. The ratio between steps shrinks (square root)
+// after a failed step, which is retried closer to the last good value, and
+// grows back (squared, up to a decade) after a success. A failure before any
+// success starts again from a larger conductance, which makes the circuit
+// more nearly linear.
 bool conductance_stepping(NewtonSolver& newton, std::vector<double>& x, int& iterations) {
   const double floor = std::max(newton.options().minimum_conductance, 1e-15);
   std::vector<double> good = x;
-  double gmin = kFirstConductance, factor = 10.0;
+  std::optional<double> good_gmin;
+  double gmin = kFirstConductance, factor = kMaxStepRatio;
   for (int step = 0; step < kMaxHomotopySteps; ++step) {
     const auto outcome = newton.solve(x, dc_problem(newton, gmin, 1.0));
     iterations += outcome.iterations;
     spdlog::debug("conductance stepping: {:.3g} S {}", gmin,
                   outcome.status == NewtonStatus::converged ? "converged" : "failed");
     if (outcome.status == NewtonStatus::converged) {
-      good = x;
       if (gmin == 0.0) return true;
+      good = x;
+      good_gmin = gmin;
+      factor = std::min(kMaxStepRatio, factor * factor);
       gmin = gmin / factor < floor ? 0.0 : gmin / factor;
-    } else {
-      x = good;
-      reset_limiting(newton.system());
-      if (gmin == 0.0) gmin = floor;
-      factor = std::sqrt(factor);
-      if (factor < 1.01) return false;
-      gmin *= factor;  // back up toward the last good value
+      continue;
     }
+    x = good;
+    reset_limiting(newton.system());
+    if (!good_gmin) {
+      gmin *= kMaxStepRatio;
+      if (gmin > kLargestConductance) return false;
+      continue;
+    }
+    factor = std::sqrt(factor);
+    if (factor < 1.01) return false;
+    gmin = std::max(*good_gmin / factor, floor);
   }
   return false;
 }
@@ -96,7 +110,7 @@ bool source_stepping(NewtonSolver& newton, std::vector<double>& x, int& iteratio
   }
   const auto worst = system.worst_unknowns(newton.last_update(), 3);
   std::string message = "no DC operating point found (Newton, conductance stepping and source "
-                        "stepping all failed); did not settle:";
+                        "stepping all failed); in the last attempt these did not settle:";
   for (const auto& name : worst) {
     const auto index = system.topology().find_unknown(name);
     message += " " + name;
