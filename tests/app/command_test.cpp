@@ -84,6 +84,23 @@ TEST(Command, CsvWritesOneFilePerAnalysis) {
   EXPECT_TRUE(fs::exists(dir / "3_headroom.csv"));
 }
 
+// A model whose saturation current has drifted 20 % from the one its
+// reference Gummel curve was generated with fails the check (exit 1) and the
+// message names the curve; the library's own model passes (exit 0).
+TEST(Command, CurvesCheckFailsOnADriftedModel) {
+  const std::string curve = std::string(STAGE_SOURCE_DIR) + "/models/curves/small_npn_gummel.csv";
+  const auto passing = run("curves check " + std::string(STAGE_SOURCE_DIR) +
+                           "/models/transistors.stage " + curve);
+  EXPECT_EQ(passing.status, 0) << passing.out;
+  const auto drifted = write_temp(
+      "drifted.stage", "include \"transistors.stage\"\n"
+                       "model drifted = small_npn { saturation_current = 12 fA }\n");
+  // `include` finds transistors.stage on the default model path.
+  const auto failing = run("curves check " + drifted.string() + " " + curve + " --model drifted");
+  EXPECT_EQ(failing.status, 1) << failing.out;
+  EXPECT_NE(failing.out.find("small_npn_gummel"), std::string::npos) << failing.out;
+}
+
 // Numbers equal to a relative 1e-6 (or 1e-9 absolute near zero: residuals of
 // picoamperes are rounding, not figures); strings,
 // booleans and structure exactly.
