@@ -5,8 +5,6 @@
 // stdout and, with --output, to a file.
 #include "command_curves.hpp"
 
-#include "exit_status.hpp"
-
 #include <spdlog/spdlog.h>
 
 #include <filesystem>
@@ -14,6 +12,7 @@
 #include <iostream>
 #include <memory>
 
+#include "exit_status.hpp"
 #include "stage/curves.hpp"
 #include "stage/errors.hpp"
 #include "stage/reader.hpp"

@@ -3,12 +3,11 @@
 //
 // Exit status: 0 success, 2 bad input (nothing ran), 3 numerical failure,
 // 1 anything else (a bug: please report it).
-#include <CLI/CLI.hpp>
 #include <spdlog/sinks/stdout_color_sinks.h>
 #include <spdlog/spdlog.h>
-
 #include <unistd.h>
 
+#include <CLI/CLI.hpp>
 #include <cstdlib>
 #include <iostream>
 
@@ -62,7 +61,8 @@ stage::ReadOptions read_options(const Settings& s) {
     if (eq == std::string::npos || eq == 0 || value.empty() || *end != '\0') {
       throw stage::InputError({"--set", 0, 0},
                               "expected NAME=NUMBER in SI units (for example rl=32 or "
-                              "c1=4.7e-6), got '" + assignment + "'");
+                              "c1=4.7e-6), got '" +
+                                  assignment + "'");
     }
     options.overrides[assignment.substr(0, eq)] = number;
   }

@@ -6,8 +6,8 @@
 #include <benchmark/benchmark.h>
 
 #include "analysis/newton.hpp"
-#include "benchmark_support.hpp"
 #include "analysis/operating_point.hpp"
+#include "benchmark_support.hpp"
 #include "mna/system.hpp"
 
 namespace {

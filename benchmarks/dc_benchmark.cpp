@@ -21,8 +21,10 @@ stage::Circuit mesh(int side) {
   int k = 0;
   for (int r = 0; r < side; ++r) {
     for (int col = 0; col < side; ++col) {
-      if (col + 1 < side) c.add("r" + std::to_string(k++), stage::Resistor{node(r, col), node(r, col + 1), 1e3});
-      if (r + 1 < side) c.add("r" + std::to_string(k++), stage::Resistor{node(r, col), node(r + 1, col), 1e3});
+      if (col + 1 < side)
+        c.add("r" + std::to_string(k++), stage::Resistor{node(r, col), node(r, col + 1), 1e3});
+      if (r + 1 < side)
+        c.add("r" + std::to_string(k++), stage::Resistor{node(r, col), node(r + 1, col), 1e3});
       if ((r * side + col) % 97 == 13) {
         c.add("i" + std::to_string(k++), stage::CurrentSource{node(r, col), "gnd", 1e-6});
       }
@@ -53,7 +55,8 @@ stage::Circuit generate(int kind, int size) { return kind == 0 ? mesh(size) : la
 // solver each time, since a solver keeps the factorisation of an unchanged
 // matrix and would skip it on a second run.
 void BM_OperatingPoint(benchmark::State& state) {
-  const stage::Circuit circuit = generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
+  const stage::Circuit circuit =
+      generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
   stage::mna::System system(circuit);
   std::vector<double> x(static_cast<std::size_t>(system.size()) + 1);
   for (auto _ : state) {
@@ -67,7 +70,8 @@ void BM_OperatingPoint(benchmark::State& state) {
 
 // One numeric refactorisation and solve of the same matrix.
 void BM_RefactorSolve(benchmark::State& state) {
-  const stage::Circuit circuit = generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
+  const stage::Circuit circuit =
+      generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
   stage::mna::System system(circuit);
   const std::vector<double> x(static_cast<std::size_t>(system.size()) + 1, 0.0);
   stage::benchmarks::time_refactor_solve(state, system, x);
@@ -75,7 +79,8 @@ void BM_RefactorSolve(benchmark::State& state) {
 
 // Dense LU with partial pivoting of the same matrix (the test oracle).
 void BM_DenseLu(benchmark::State& state) {
-  const stage::Circuit circuit = generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
+  const stage::Circuit circuit =
+      generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
   stage::mna::System system(circuit);
   const int n = system.size();
   std::vector<double> x(static_cast<std::size_t>(n) + 1, 0.0);
@@ -84,7 +89,8 @@ void BM_DenseLu(benchmark::State& state) {
   Eigen::MatrixXd dense = Eigen::MatrixXd::Zero(n, n);
   const auto& p = system.pattern();
   for (int col = 0; col < n; ++col) {
-    for (int s = p.column_start[col]; s < p.column_start[col + 1]; ++s) dense(p.row[s], col) = w.g[s];
+    for (int s = p.column_start[col]; s < p.column_start[col + 1]; ++s)
+      dense(p.row[s], col) = w.g[s];
   }
   const Eigen::VectorXd rhs = Eigen::Map<Eigen::VectorXd>(w.f.data() + 1, n);
   for (auto _ : state) benchmark::DoNotOptimize(dense.partialPivLu().solve(rhs).eval());

@@ -17,7 +17,6 @@ namespace {
 
 constexpr int kPoints = 200;
 
-
 stage::Circuit coupled_followers(int transistors) {
   stage::Circuit c;
   c.add_model("npn", stage::benchmarks::generic_npn());

@@ -3,6 +3,7 @@
 // example circuit (compared with a tolerance, so that an unintended change in
 // any figure shows up).
 #include <gtest/gtest.h>
+#include <sys/wait.h>
 
 #include <array>
 #include <cstdio>
@@ -10,7 +11,6 @@
 #include <fstream>
 #include <nlohmann/json.hpp>
 #include <sstream>
-#include <sys/wait.h>
 
 namespace {
 
@@ -22,8 +22,7 @@ struct Outcome {
 };
 
 Outcome run(const std::string& arguments) {
-  const std::string command =
-      std::string(STAGE_BINARY_DIR) + "/apps/stage " + arguments + " 2>&1";
+  const std::string command = std::string(STAGE_BINARY_DIR) + "/apps/stage " + arguments + " 2>&1";
   Outcome o;
   FILE* pipe = popen(command.c_str(), "r");
   std::array<char, 4096> buffer{};
@@ -52,7 +51,8 @@ TEST(Command, VersionAndHelp) {
 }
 
 TEST(Command, InputErrorNamesLineAndColumnAndExitsTwo) {
-  const auto file = write_temp("bad.stage", "v1 = voltage(a, gnd, 5 V)\nr1 = resistor(a, gnd, 10 nF)\n");
+  const auto file =
+      write_temp("bad.stage", "v1 = voltage(a, gnd, 5 V)\nr1 = resistor(a, gnd, 10 nF)\n");
   const auto o = run("run " + file.string());
   EXPECT_EQ(o.status, 2);
   EXPECT_NE(o.out.find(file.string() + ":2:"), std::string::npos) << o.out;
@@ -60,9 +60,9 @@ TEST(Command, InputErrorNamesLineAndColumnAndExitsTwo) {
 }
 
 TEST(Command, NumericalFailureNamesTheNodeAndExitsThree) {
-  const auto file =
-      write_temp("float.stage", "v1 = voltage(a, gnd, 5 V)\nc1 = capacitor(a, island, 1 nF)\n"
-                                "r1 = resistor(island, far, 1 kΩ)\nanalyze bias()\n");
+  const auto file = write_temp("float.stage",
+                               "v1 = voltage(a, gnd, 5 V)\nc1 = capacitor(a, island, 1 nF)\n"
+                               "r1 = resistor(island, far, 1 kΩ)\nanalyze bias()\n");
   const auto o = run("run " + file.string());
   EXPECT_EQ(o.status, 3);
   EXPECT_NE(o.out.find("island"), std::string::npos) << o.out;
@@ -89,12 +89,12 @@ TEST(Command, CsvWritesOneFilePerAnalysis) {
 // message names the curve; the library's own model passes (exit 0).
 TEST(Command, CurvesCheckFailsOnADriftedModel) {
   const std::string curve = std::string(STAGE_SOURCE_DIR) + "/models/curves/small_npn_gummel.csv";
-  const auto passing = run("curves check " + std::string(STAGE_SOURCE_DIR) +
-                           "/models/transistors.stage " + curve);
+  const auto passing =
+      run("curves check " + std::string(STAGE_SOURCE_DIR) + "/models/transistors.stage " + curve);
   EXPECT_EQ(passing.status, 0) << passing.out;
-  const auto drifted = write_temp(
-      "drifted.stage", "include \"transistors.stage\"\n"
-                       "model drifted = small_npn { saturation_current = 12 fA }\n");
+  const auto drifted = write_temp("drifted.stage",
+                                  "include \"transistors.stage\"\n"
+                                  "model drifted = small_npn { saturation_current = 12 fA }\n");
   // `include` finds transistors.stage on the default model path.
   const auto failing = run("curves check " + drifted.string() + " " + curve + " --model drifted");
   EXPECT_EQ(failing.status, 1) << failing.out;
@@ -126,8 +126,8 @@ void expect_close(const nlohmann::json& got, const nlohmann::json& want, const s
 }
 
 // Golden figures of the follower example; regenerate with
-//   build/apps/stage run apps/examples/follower_32ohm.stage --json \
-//     > tests/app/golden/follower_32ohm.json
+//   build/apps/stage run apps/examples/follower_32ohm.stage --json
+//     > tests/app/golden/follower_32ohm.json   (one line)
 // after a deliberate change, and say why in the commit.
 TEST(Command, FollowerJsonMatchesGolden) {
   const auto o = run("run " + example("follower_32ohm.stage") + " --json");

@@ -1,10 +1,11 @@
 // The headroom search and the load-line estimate on stages of our own values
 // (tests/headroom/stages.hpp), against the textbook AC load line.
+#include "stage/headroom.hpp"
+
 #include <gtest/gtest.h>
 
 #include <cmath>
 
-#include "stage/headroom.hpp"
 #include "stages.hpp"
 
 namespace {
@@ -75,8 +76,10 @@ TEST(FollowerHeadroom, NegativeSideClipsFirstNearTheLoadLineCompliance) {
 // Each limit is converged to 1 % of the input amplitude, so two searches
 // started a factor of 50 apart must agree to within 1 %.
 TEST(FollowerHeadroom, IndependentOfTheStartingAmplitude) {
-  const auto low = stage::run_headroom(stage::testing::follower_into_low_load(), options(0.01, 0.01));
-  const auto high = stage::run_headroom(stage::testing::follower_into_low_load(), options(0.01, 0.5));
+  const auto low =
+      stage::run_headroom(stage::testing::follower_into_low_load(), options(0.01, 0.01));
+  const auto high =
+      stage::run_headroom(stage::testing::follower_into_low_load(), options(0.01, 0.5));
   for (auto side : {&stage::HeadroomResult::positive, &stage::HeadroomResult::negative}) {
     const double a = (low.*side).input_amplitude, b = (high.*side).input_amplitude;
     EXPECT_NEAR(a, b, 0.01 * std::max(a, b));

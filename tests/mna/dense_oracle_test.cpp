@@ -49,7 +49,8 @@ TEST(DenseOracle, RandomNetworksAgreeWithDenseLu) {
     Eigen::MatrixXd dense = Eigen::MatrixXd::Zero(n, n);
     const auto& p = system.pattern();
     for (int col = 0; col < n; ++col) {
-      for (int s = p.column_start[col]; s < p.column_start[col + 1]; ++s) dense(p.row[s], col) += w.g[s];
+      for (int s = p.column_start[col]; s < p.column_start[col + 1]; ++s)
+        dense(p.row[s], col) += w.g[s];
     }
     Eigen::VectorXd rhs(n);
     for (int i = 0; i < n; ++i) rhs[i] = -w.f[i + 1];

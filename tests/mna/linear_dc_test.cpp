@@ -93,7 +93,8 @@ TEST(LinearDc, R2RLadderBinaryWeights) {
       const std::string node = "n" + std::to_string(b), bit = "b" + std::to_string(b);
       c.add("leg" + std::to_string(b), Resistor{node, bit, 2 * kR});
       c.add("v" + std::to_string(b), VoltageSource{bit, "gnd", b == k ? kVref : 0.0});
-      if (b + 1 < kBits) c.add("rung" + std::to_string(b), Resistor{node, "n" + std::to_string(b + 1), kR});
+      if (b + 1 < kBits)
+        c.add("rung" + std::to_string(b), Resistor{node, "n" + std::to_string(b + 1), kR});
     }
     const auto bias = stage::run_bias(c);
     const double expected = kVref * std::ldexp(1.0, k) / std::ldexp(1.0, kBits);

@@ -23,8 +23,8 @@ TEST(ModelBody, OneParameterPerLineWithoutCommas) {
 }
 
 TEST(ModelBody, UnitStillReadOnTheSameLine) {
-  const auto deck = stage::read_text("model d = diode {\n  junction_capacitance = 4 pF\n}\n",
-                                     "unit.stage");
+  const auto deck =
+      stage::read_text("model d = diode {\n  junction_capacitance = 4 pF\n}\n", "unit.stage");
   EXPECT_DOUBLE_EQ(deck.circuit.diode_models().at("d").junction_capacitance, 4e-12);
 }
 

@@ -2,10 +2,11 @@
 // simulated signal from an exact solution.
 #pragma once
 
+#include <gtest/gtest.h>
+
 #include <algorithm>
 #include <cmath>
 #include <functional>
-#include <gtest/gtest.h>
 #include <string>
 
 #include "stage/transient.hpp"

@@ -27,10 +27,10 @@ struct FrequencyOptions {
   double from = 10;
   double to = 1e6;
   int per_decade = 20;
-  std::string input;                 // the AC source the gain is relative to
+  std::string input;  // the AC source the gain is relative to
   SignalRef output;
-  std::optional<std::string> load;   // removed when the output impedance is computed
-  std::optional<double> at;          // report gain and phase at this frequency
+  std::optional<std::string> load;  // removed when the output impedance is computed
+  std::optional<double> at;         // report gain and phase at this frequency
 };
 
 enum class TransientStart { bias, zero };
@@ -69,9 +69,8 @@ struct CharacterizeOptions {
   std::optional<std::string> load;
 };
 
-using AnalysisOptions =
-    std::variant<BiasOptions, SweepOptions, FrequencyOptions, TransientOptions,
-                 SpectrumOptions, HeadroomOptions, CharacterizeOptions>;
+using AnalysisOptions = std::variant<BiasOptions, SweepOptions, FrequencyOptions, TransientOptions,
+                                     SpectrumOptions, HeadroomOptions, CharacterizeOptions>;
 
 // One `analyze` statement as read, with where it was written.
 struct AnalysisStatement {

@@ -22,26 +22,26 @@ struct BipolarOperatingPoint {
   std::string region;  // forward_active, saturation, cutoff, reverse_active
   double collector_current = 0, base_current = 0, emitter_current = 0;
   double vbe = 0, vce = 0, vbc = 0;
-  double gm = 0;     // dIC/dVBE (S)
-  double r_pi = 0;   // dVBE/dIB (ohm)
-  double r_out = 0;  // dVCE/dIC (ohm), infinity without Early effect
+  double gm = 0;                        // dIC/dVBE (S)
+  double r_pi = 0;                      // dVBE/dIB (ohm)
+  double r_out = 0;                     // dVCE/dIC (ohm), infinity without Early effect
   double c_pi = 0, c_mu = 0, c_cs = 0;  // B-E, B-C, C-S small-signal capacitances (F)
-  double power = 0;  // W dissipated
+  double power = 0;                     // W dissipated
 };
 
 struct DiodeOperatingPoint {
   std::string name;
-  double current = 0;  // anode to cathode through the diode
-  double voltage = 0;  // v(anode) - v(cathode)
+  double current = 0;      // anode to cathode through the diode
+  double voltage = 0;      // v(anode) - v(cathode)
   double resistance = 0;   // small-signal dV/dI
   double capacitance = 0;  // small-signal dQ/dV
   double power = 0;
 };
 
 struct SupplyPower {
-  std::string name;   // the voltage or current source
-  double current = 0; // its reported current
-  double power = 0;   // delivered into the circuit (W); negative if absorbing
+  std::string name;    // the voltage or current source
+  double current = 0;  // its reported current
+  double power = 0;    // delivered into the circuit (W); negative if absorbing
 };
 
 // How Newton got there: plain, or through a fallback homotopy.
@@ -56,13 +56,14 @@ struct BiasResult {
   // near machine precision (1e-16) the bias point is barely determined.
   double reciprocal_condition = 0;
   double temperature = kRoomTemperature;
-  std::vector<std::pair<std::string, double>> node_voltages;      // circuit nodes, in order of appearance
-  std::vector<std::pair<std::string, double>> element_currents;   // "<name>.current"
+  std::vector<std::pair<std::string, double>>
+      node_voltages;  // circuit nodes, in order of appearance
+  std::vector<std::pair<std::string, double>> element_currents;  // "<name>.current"
   std::vector<BipolarOperatingPoint> bipolars;
   std::vector<DiodeOperatingPoint> diodes;
   std::vector<SupplyPower> supplies;
 
-  double voltage(const std::string& node) const;  // throws std::out_of_range
+  double voltage(const std::string& node) const;     // throws std::out_of_range
   double current(const std::string& element) const;  // element name, without ".current"
   const BipolarOperatingPoint& bipolar(const std::string& name) const;
   const DiodeOperatingPoint& diode(const std::string& name) const;

@@ -29,10 +29,10 @@ struct CharacterizeResult {
   CharacterizeOptions options;
   std::string output;
   BiasResult bias;
-  FrequencyResult frequency;  // a wide sweep around options.frequency
-  double gain = 0;            // |output/input| at options.frequency
+  FrequencyResult frequency;                               // a wide sweep around options.frequency
+  double gain = 0;                                         // |output/input| at options.frequency
   std::complex<double> input_impedance, output_impedance;  // at options.frequency
-  HeadroomResult headroom;    // at a 1 % limit
+  HeadroomResult headroom;                                 // at a 1 % limit
   std::optional<SwingPower> half_swing, full_swing;  // at half and all of the symmetric headroom
 };
 

@@ -102,8 +102,7 @@ struct Bipolar {
 using ElementData =
     std::variant<Resistor, Capacitor, Inductor, VoltageSource, CurrentSource,
                  VoltageControlledVoltageSource, VoltageControlledCurrentSource,
-                 CurrentControlledCurrentSource, CurrentControlledVoltageSource,
-                 Diode, Bipolar>;
+                 CurrentControlledCurrentSource, CurrentControlledVoltageSource, Diode, Bipolar>;
 
 struct Element {
   std::string name;

@@ -52,7 +52,7 @@ struct SideLimit {
   // limit): where a smooth limit is heading, cutoff or saturation.
   std::optional<LimitCause> at_largest_drive;
   double largest_drive = 0;  // that input amplitude
-  bool found = false;          // false: the limit was not reached below the largest amplitude tried
+  bool found = false;        // false: the limit was not reached below the largest amplitude tried
 };
 
 // The textbook AC load line of a single-transistor stage (Malvino and Bates,
@@ -72,8 +72,8 @@ struct LoadLineEstimate {
 
 struct HeadroomResult {
   HeadroomOptions options;
-  std::string output;          // as written
-  double bias_output = 0;      // output at the bias point
+  std::string output;            // as written
+  double bias_output = 0;        // output at the bias point
   double small_signal_gain = 0;  // |output / input| at the frequency
   SideLimit positive, negative;
   // Input amplitude where the THD reaches the limit, and the output's

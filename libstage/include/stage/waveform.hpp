@@ -39,7 +39,6 @@ double waveform_value(const Waveform& wave, double t);
 
 // Appends to `corners` every time in (from, to] where the waveform's value or
 // slope changes abruptly (pulse edges, piecewise points, a sine's start).
-void waveform_corners(const Waveform& wave, double from, double to,
-                      std::vector<double>& corners);
+void waveform_corners(const Waveform& wave, double from, double to, std::vector<double>& corners);
 
 }  // namespace stage

@@ -15,7 +15,8 @@ namespace {
 template <class Item>
 const Item& find_named(const std::vector<Item>& items, const std::string& name, const char* what) {
   auto it = std::find_if(items.begin(), items.end(), [&](const Item& i) { return i.name == name; });
-  if (it == items.end()) throw std::out_of_range(std::string("no ") + what + " named '" + name + "'");
+  if (it == items.end())
+    throw std::out_of_range(std::string("no ") + what + " named '" + name + "'");
   return *it;
 }
 
@@ -86,9 +87,12 @@ SweepResult run_sweep(const Circuit& circuit, const SweepOptions& options) {
 
 std::string_view to_string(BiasMethod method) {
   switch (method) {
-    case BiasMethod::newton: return "newton";
-    case BiasMethod::conductance_stepping: return "conductance_stepping";
-    case BiasMethod::source_stepping: return "source_stepping";
+    case BiasMethod::newton:
+      return "newton";
+    case BiasMethod::conductance_stepping:
+      return "conductance_stepping";
+    case BiasMethod::source_stepping:
+      return "source_stepping";
   }
   return "newton";
 }

@@ -11,13 +11,13 @@
 namespace stage {
 namespace {
 
-constexpr double kHeadroomLimit = 0.01;   // the stage report judges headroom at 1 %
+constexpr double kHeadroomLimit = 0.01;  // the stage report judges headroom at 1 %
 constexpr double kDecadesBelow = 3, kDecadesAbove = 4;
 constexpr int kPointsPerDecade = 20;
 
 // Mean of a sampled signal over [from, to] by the trapezoidal rule.
-double period_mean(const std::vector<double>& time, const std::vector<double>& values,
-                   double from, double to) {
+double period_mean(const std::vector<double>& time, const std::vector<double>& values, double from,
+                   double to) {
   double area = 0;
   for (std::size_t k = 1; k < time.size(); ++k) {
     const double a = std::max(time[k - 1], from), b = std::min(time[k], to);
@@ -78,7 +78,8 @@ SwingPower swing_power(const analysis::SineDrive& drive, const PowerProbes& prob
     for (std::size_t k = 0; k < p.size(); ++k) p[k] = v[k] * i[k];
     // Signal power only: a load that also carries the bias current (class A
     // with the load as emitter resistor) takes DC power that is no output.
-    s.load_power = period_mean(t, p, from, to) - period_mean(t, v, from, to) * period_mean(t, i, from, to);
+    s.load_power =
+        period_mean(t, p, from, to) - period_mean(t, v, from, to) * period_mean(t, i, from, to);
   }
   s.dissipation = s.supply_power - s.load_power;
   s.efficiency = s.supply_power > 0 ? s.load_power / s.supply_power : 0;
@@ -116,7 +117,8 @@ CharacterizeResult run_characterize(const Circuit& circuit, const CharacterizeOp
   r.headroom = run_headroom(circuit, h, progress);
 
   double full = std::min(r.headroom.positive.input_amplitude, r.headroom.negative.input_amplitude);
-  if (r.headroom.thd_limit_input_amplitude) full = std::min(full, *r.headroom.thd_limit_input_amplitude);
+  if (r.headroom.thd_limit_input_amplitude)
+    full = std::min(full, *r.headroom.thd_limit_input_amplitude);
   if (full > 0) {
     const PowerProbes probes = power_probes(circuit, options);
     const analysis::SineDrive drive(circuit, options.input, options.output, options.frequency,

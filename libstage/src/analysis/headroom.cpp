@@ -21,15 +21,15 @@
 namespace stage {
 namespace {
 
-constexpr double kTolerance = 0.01;      // each limit's input amplitude to 1 %
+constexpr double kTolerance = 0.01;         // each limit's input amplitude to 1 %
 constexpr double kFirstOutputSwing = 0.05;  // V: the first run's predicted output peak
 constexpr int kMaxDownSteps = 4;
 constexpr int kMaxRuns = 60;
-constexpr double kRailMargin = 0.02;     // of the rail voltage, at least kRailMarginVolts
+constexpr double kRailMargin = 0.02;  // of the rail voltage, at least kRailMarginVolts
 constexpr double kRailMarginVolts = 0.05;
-constexpr double kCutoffFraction = 0.5;  // of the bias current: turning off
-constexpr double kTakeOver = 2.0;        // of the bias current: carrying the side
-constexpr double kStarvedFraction = 0.1; // of a bias diode's current: starved
+constexpr double kCutoffFraction = 0.5;   // of the bias current: turning off
+constexpr double kTakeOver = 2.0;         // of the bias current: carrying the side
+constexpr double kStarvedFraction = 0.1;  // of a bias diode's current: starved
 
 enum Criterion { kPositive, kNegative, kThd, kCriteria };
 
@@ -50,9 +50,9 @@ double small_signal_gain(const Circuit& circuit, const HeadroomOptions& o) {
   f.input = o.input;
   f.output = o.output;
   f.at = o.frequency;
-  return std::pow(10.0, *run_frequency(analysis::with_only_ac_input(circuit, o.input), f)
-                             .figures.gain_at_dB /
-                            20.0);
+  return std::pow(
+      10.0,
+      *run_frequency(analysis::with_only_ac_input(circuit, o.input), f).figures.gain_at_dB / 20.0);
 }
 
 // The search state: every measurement so far, sorted by amplitude.
@@ -70,9 +70,9 @@ class Search {
                 std::to_string(amplitude));
     }
     if (static_cast<int>(runs_.size()) >= kMaxRuns) {
-      throw NumericalError("the headroom search did not converge in " +
-                               std::to_string(kMaxRuns) + " transient runs",
-                           {});
+      throw NumericalError(
+          "the headroom search did not converge in " + std::to_string(kMaxRuns) + " transient runs",
+          {});
     }
     const auto& m = runs_.emplace(amplitude, drive_.measure(amplitude)).first->second;
     large_signal_gain_ = std::max(large_signal_gain_, m.fundamental / amplitude);
@@ -84,9 +84,12 @@ class Search {
     switch (c) {
       // Clipping is a shortfall: a peak that overshoots the prediction is
       // distortion, which the THD limit judges, not a limit of that side.
-      case kPositive: return 1.0 - m.positive_peak / predicted;
-      case kNegative: return 1.0 - m.negative_peak / predicted;
-      default: return m.thd;
+      case kPositive:
+        return 1.0 - m.positive_peak / predicted;
+      case kNegative:
+        return 1.0 - m.negative_peak / predicted;
+      default:
+        return m.thd;
     }
   }
   bool within(Criterion c, const analysis::DriveMeasurement& m) const {
@@ -131,9 +134,7 @@ class Search {
   // The gain the peaks are compared with: the small-signal gain, unless the
   // stage has (almost) none at its bias point, as a class-B pair biased off,
   // whose largest large-signal gain seen so far stands in for it.
-  double gain() const {
-    return judged_large_signal() ? large_signal_gain_ : small_signal_gain_;
-  }
+  double gain() const { return judged_large_signal() ? large_signal_gain_ : small_signal_gain_; }
   bool judged_large_signal() const { return small_signal_gain_ < 0.5 * large_signal_gain_; }
   const std::map<double, analysis::DriveMeasurement>& runs() const { return runs_; }
 
@@ -236,8 +237,9 @@ HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& optio
   const auto node = [&](const std::string& name) {
     return name == kGround || name.empty() ? 0.0 : result.bias.voltage(name);
   };
-  result.bias_output = node(options.output.a) -
-                       (options.output.kind == SignalRef::Kind::node_pair ? node(options.output.b) : 0.0);
+  result.bias_output =
+      node(options.output.a) -
+      (options.output.kind == SignalRef::Kind::node_pair ? node(options.output.b) : 0.0);
   result.small_signal_gain = small_signal_gain(circuit, options);
 
   const analysis::SineDrive drive(circuit, options.input, options.output, options.frequency);
@@ -247,7 +249,8 @@ HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& optio
   // by doubling until every limit has been crossed or the drive would carry
   // the output far past the rails.
   double largest_rail = 1.0;
-  for (const analysis::Rail& r : analysis::supply_rails(circuit, options.input)) largest_rail = std::max(largest_rail, std::abs(r.voltage));
+  for (const analysis::Rail& r : analysis::supply_rails(circuit, options.input))
+    largest_rail = std::max(largest_rail, std::abs(r.voltage));
   // The first drive aims at a small output swing, and never beyond a twentieth
   // of the largest rail (a stage biased off predicts no output at all).
   double amplitude = options.first_input_amplitude.value_or(

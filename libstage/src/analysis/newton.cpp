@@ -60,7 +60,8 @@ bool NewtonSolver::update_small(const std::vector<double>& x) const {
   for (std::size_t i = 1; i < update_.size(); ++i) {
     const bool voltage = topology.is_voltage(static_cast<mna::Index>(i));
     const double absolute = voltage ? options_.voltage_tolerance : options_.current_tolerance;
-    if (std::abs(update_[i]) > absolute + options_.relative_tolerance * std::abs(x[i])) return false;
+    if (std::abs(update_[i]) > absolute + options_.relative_tolerance * std::abs(x[i]))
+      return false;
   }
   return true;
 }

@@ -109,14 +109,15 @@ bool source_stepping(NewtonSolver& newton, std::vector<double>& x, int& iteratio
                          {name});
   }
   const auto worst = system.worst_unknowns(newton.last_update(), 3);
-  std::string message = "no DC operating point found (Newton, conductance stepping and source "
-                        "stepping all failed); in the last attempt these did not settle:";
+  std::string message =
+      "no DC operating point found (Newton, conductance stepping and source "
+      "stepping all failed); in the last attempt these did not settle:";
   for (const auto& name : worst) {
     const auto index = system.topology().find_unknown(name);
     message += " " + name;
     if (index) {
-      message += fmt::format(" (last change {:.3g}, residual {:.3g})",
-                             newton.last_update()[*index], newton.residual()[*index]);
+      message += fmt::format(" (last change {:.3g}, residual {:.3g})", newton.last_update()[*index],
+                             newton.residual()[*index]);
     }
   }
   throw NumericalError(message, worst);
@@ -138,12 +139,13 @@ OperatingPoint solve_operating_point(NewtonSolver& newton, std::vector<double>& 
   const auto finish = [&](BiasMethod method) {
     how.method = method;
     how.reciprocal_condition = newton.lu().rcond();
-    spdlog::debug("bias point found by {}; reciprocal condition estimate {:.3g}",
-                  to_string(method), how.reciprocal_condition);
+    spdlog::debug("bias point found by {}; reciprocal condition estimate {:.3g}", to_string(method),
+                  how.reciprocal_condition);
     if (how.reciprocal_condition < kNearlySingular) {
-      spdlog::warn("the bias point is nearly singular (reciprocal condition {:.2g}): a node may "
-                   "hang on nothing but junctions in cutoff",
-                   how.reciprocal_condition);
+      spdlog::warn(
+          "the bias point is nearly singular (reciprocal condition {:.2g}): a node may "
+          "hang on nothing but junctions in cutoff",
+          how.reciprocal_condition);
     }
     return how;
   };

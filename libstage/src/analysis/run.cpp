@@ -17,8 +17,9 @@ std::optional<std::string> statement_error(const Deck& deck, const AnalysisOptio
     return frequency_options_error(c, *f);
   }
   if (std::holds_alternative<SpectrumOptions>(options) && !transient_before) {
-    return std::string("a spectrum analyses the transient before it: put an "
-                       "`analyze transient(...)` statement first");
+    return std::string(
+        "a spectrum analyses the transient before it: put an "
+        "`analyze transient(...)` statement first");
   }
   const std::string* input = nullptr;
   if (const auto* h = std::get_if<HeadroomOptions>(&options)) input = &h->input;
@@ -41,8 +42,8 @@ void check_deck(const Deck& deck) {
     if (auto why = statement_error(deck, statement.options, transient_before)) {
       throw InputError(statement.where, *why);
     }
-    transient_before = transient_before ||
-                       std::holds_alternative<TransientOptions>(statement.options);
+    transient_before =
+        transient_before || std::holds_alternative<TransientOptions>(statement.options);
   }
 }
 
@@ -51,9 +52,9 @@ SweepResult run_parameter_sweep(const Deck& deck, const SweepOptions& options,
   SweepResult result{options, {}};
   std::vector<double> x;
   for (double value : options.values) {
-    if (progress) progress("sweep of " + options.name + ": point " +
-                           std::to_string(result.points.size() + 1) + " of " +
-                           std::to_string(options.values.size()));
+    if (progress)
+      progress("sweep of " + options.name + ": point " + std::to_string(result.points.size() + 1) +
+               " of " + std::to_string(options.values.size()));
     const Circuit circuit = deck.with_parameter(options.name, value);
     mna::System system(circuit);
     analysis::NewtonSolver newton(system, circuit.solver);

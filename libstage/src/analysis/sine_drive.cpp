@@ -12,8 +12,8 @@
 namespace stage::analysis {
 namespace {
 
-constexpr int kFirstPeriods = 4;     // simulated before the last period is judged settled
-constexpr int kMaxPeriods = 64;      // coupling capacitors get this long to settle
+constexpr int kFirstPeriods = 4;         // simulated before the last period is judged settled
+constexpr int kMaxPeriods = 64;          // coupling capacitors get this long to settle
 constexpr double kStepsPerPeriod = 400;  // step bound: peaks read to ~3e-5 relative
 constexpr int kHarmonics = 9;
 
@@ -91,8 +91,7 @@ DriveMeasurement SineDrive::measure(double amplitude) const {
   for (int periods = periods_;; periods *= 2) {
     m.transient = run(amplitude, periods, m);
     m.periods = periods;
-    const SpectrumResult spectrum =
-        run_spectrum(m.transient, {output_, frequency_, kHarmonics}, 1);
+    const SpectrumResult spectrum = run_spectrum(m.transient, {output_, frequency_, kHarmonics}, 1);
     m.thd = spectrum.thd;
     m.fundamental = spectrum.harmonics.front().amplitude;
     m.average = spectrum.dc;

@@ -17,12 +17,12 @@ namespace stage::analysis {
 
 struct Extreme {
   double time = 0;
-  double value = 0;            // output there
-  std::vector<double> state;   // every unknown (n + 1 entries) there
+  double value = 0;           // output there
+  std::vector<double> state;  // every unknown (n + 1 entries) there
 };
 
 struct DriveMeasurement {
-  double amplitude = 0;      // input sine amplitude
+  double amplitude = 0;  // input sine amplitude
   // Peaks are taken from the output's average over the last period, its DC
   // level while driven: coupling capacitors drift slowly (their time
   // constants span many periods), and that drift is not clipping.
@@ -30,10 +30,10 @@ struct DriveMeasurement {
   double positive_peak = 0;  // max(output) - average, over the last period
   double negative_peak = 0;  // average - min(output)
   double thd = 0;
-  double fundamental = 0;    // output's fundamental amplitude
+  double fundamental = 0;  // output's fundamental amplitude
   Extreme maximum, minimum;
-  int periods = 0;           // periods simulated
-  TransientResult transient; // the recorded signals
+  int periods = 0;            // periods simulated
+  TransientResult transient;  // the recorded signals
 };
 
 class SineDrive {

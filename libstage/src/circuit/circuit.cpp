@@ -1,7 +1,7 @@
 // Building a Circuit in code: element and model registries.
-#include <stdexcept>
-
 #include "stage/circuit.hpp"
+
+#include <stdexcept>
 
 namespace stage {
 

@@ -1,9 +1,9 @@
 // Source waveforms of spec section 3: values and corners.
+#include "stage/waveform.hpp"
+
 #include <algorithm>
 #include <cmath>
 #include <numbers>
-
-#include "stage/waveform.hpp"
 
 namespace stage {
 namespace {

@@ -68,8 +68,7 @@ void VccsDevice::report(const mna::EvalRequest& at, mna::OperatingPointReport& o
   out.currents.emplace_back(name() + ".current", gain_ * (at.x[cp_] - at.x[cn_]));
 }
 
-CccsDevice::CccsDevice(std::string name, mna::Index a, mna::Index b, std::string sense,
-                       double gain)
+CccsDevice::CccsDevice(std::string name, mna::Index a, mna::Index b, std::string sense, double gain)
     : Device(std::move(name)), a_(a), b_(b), sense_(std::move(sense)), gain_(gain) {}
 
 void CccsDevice::declare(mna::PatternBuilder& pattern) {

@@ -42,8 +42,8 @@ class CapacitorDevice final : public mna::Device {
 // v(a) - v(b) - d(L i)/dt = 0, so the flux -L i is the branch's "charge".
 class InductorDevice final : public mna::Device {
  public:
-  InductorDevice(std::string name, mna::Index a, mna::Index b, mna::Index branch,
-                 double inductance, std::optional<double> initial_current);
+  InductorDevice(std::string name, mna::Index a, mna::Index b, mna::Index branch, double inductance,
+                 std::optional<double> initial_current);
   void declare(mna::PatternBuilder& pattern) override;
   void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
   void describe_topology(mna::TopologyCheck& check) const override;

@@ -44,8 +44,7 @@ void VoltageSourceDevice::describe_topology(mna::TopologyCheck& check) const {
   check.fixes_voltage(p_, n_, name());
 }
 
-void VoltageSourceDevice::report(const mna::EvalRequest& at,
-                                 mna::OperatingPointReport& out) const {
+void VoltageSourceDevice::report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const {
   out.currents.emplace_back(name() + ".current", at.x[k_]);
 }
 
@@ -68,8 +67,7 @@ void CurrentSourceDevice::describe_topology(mna::TopologyCheck& check) const {
   check.forces_current(a_, b_, name());
 }
 
-void CurrentSourceDevice::report(const mna::EvalRequest& at,
-                                 mna::OperatingPointReport& out) const {
+void CurrentSourceDevice::report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const {
   out.currents.emplace_back(name() + ".current", value_.at(at));
 }
 

@@ -119,7 +119,6 @@ class Device {
   // sources and inductors; current-controlled sources sense it).
   virtual Index branch() const { return kGroundIndex; }
 
-
  private:
   std::string name_;
 };

@@ -51,8 +51,8 @@ SparseLu<Scalar>::SparseLu(const SparsePattern& pattern)
   state_->column_start = pattern.column_start;
   state_->row = pattern.row;
   if (pattern.n > 0) {
-    state_->symbolic = klu_analyze(pattern.n, state_->column_start.data(), state_->row.data(),
-                                   &state_->common);
+    state_->symbolic =
+        klu_analyze(pattern.n, state_->column_start.data(), state_->row.data(), &state_->common);
     if (state_->symbolic == nullptr) throw std::runtime_error("KLU symbolic analysis failed");
   }
 }
@@ -72,10 +72,13 @@ bool SparseLu<Scalar>::factor(const Scalar* values) {
     int ok;
     if constexpr (kComplex<Scalar>) {
       ok = klu_z_refactor(s.column_start.data(), s.row.data(), v, s.symbolic, s.numeric, &s.common);
-      if (ok) ok = klu_z_rgrowth(s.column_start.data(), s.row.data(), v, s.symbolic, s.numeric, &s.common);
+      if (ok)
+        ok =
+            klu_z_rgrowth(s.column_start.data(), s.row.data(), v, s.symbolic, s.numeric, &s.common);
     } else {
       ok = klu_refactor(s.column_start.data(), s.row.data(), v, s.symbolic, s.numeric, &s.common);
-      if (ok) ok = klu_rgrowth(s.column_start.data(), s.row.data(), v, s.symbolic, s.numeric, &s.common);
+      if (ok)
+        ok = klu_rgrowth(s.column_start.data(), s.row.data(), v, s.symbolic, s.numeric, &s.common);
     }
     if (ok && s.common.status == KLU_OK && s.common.rgrowth > kMinimumPivotGrowth) {
       ++refactorizations_;

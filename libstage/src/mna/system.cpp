@@ -28,7 +28,8 @@ System::System(const Circuit& circuit, const std::vector<DeviceMaker>& extra)
     std::string message = "the circuit has no unique DC solution: " + findings.front().message;
     for (std::size_t i = 1; i < findings.size(); ++i) message += "; " + findings[i].message;
     std::vector<std::string> involved;
-    for (const auto& f : findings) involved.insert(involved.end(), f.involved.begin(), f.involved.end());
+    for (const auto& f : findings)
+      involved.insert(involved.end(), f.involved.begin(), f.involved.end());
     throw NumericalError(message, involved);
   }
 

@@ -5,7 +5,9 @@
 
 namespace stage::mna {
 
-Topology::Topology() : names_{kGround}, kinds_{Kind::node} { nodes_.emplace(kGround, kGroundIndex); }
+Topology::Topology() : names_{kGround}, kinds_{Kind::node} {
+  nodes_.emplace(kGround, kGroundIndex);
+}
 
 Index Topology::node(const std::string& name) {
   auto [it, inserted] = nodes_.emplace(name, static_cast<Index>(names_.size()));

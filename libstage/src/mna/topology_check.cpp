@@ -92,8 +92,8 @@ std::vector<TopologyCheck::Finding> TopologyCheck::findings() const {
       std::vector<std::string> involved(sources.begin(), sources.end());
       std::string names;
       for (const auto& s : involved) names += (names.empty() ? "" : ", ") + s;
-      found.push_back({"node(s) " + list + " are reached only through current sources (" +
-                           names + "): a cut-set of current sources fixes no voltage",
+      found.push_back({"node(s) " + list + " are reached only through current sources (" + names +
+                           "): a cut-set of current sources fixes no voltage",
                        involved});
     }
   }

@@ -27,8 +27,8 @@ class TopologyCheck {
   void capacitive(Index a, Index b, const std::string& element);
 
   struct Finding {
-    std::string message;                 // one line, names the cause
-    std::vector<std::string> involved;   // nodes or elements
+    std::string message;                // one line, names the cause
+    std::vector<std::string> involved;  // nodes or elements
   };
   // Problems that make the DC system singular; empty if the graph is sound.
   std::vector<Finding> findings() const;

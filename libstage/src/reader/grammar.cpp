@@ -5,8 +5,8 @@
 // skipper (blanks and form feeds) serves everywhere; switching skippers inside
 // recursive rules would make X3 nest contexts without end. A number's unit
 // must follow it on the same line (only blanks between), so in a model body
-// `beta_forward = 200` then `beta_reverse = 4` on the next line stay apart. Every rule whose attribute is a located
-// node records its start offset.
+// `beta_forward = 200` then `beta_reverse = 4` on the next line stay apart. Every rule whose
+// attribute is a located node records its start offset.
 #include "reader/grammar.hpp"
 
 #include <boost/fusion/include/adapt_struct.hpp>
@@ -236,7 +236,8 @@ ast::File parse(const SourceText& source) {
   ast::File result;
   try {
     x3::parse(first, last,
-              x3::with<grammar::begin_tag>(begin)[x3::skip(x3::ascii::blank | x3::lit('\f'))[grammar::file]],
+              x3::with<grammar::begin_tag>(
+                  begin)[x3::skip(x3::ascii::blank | x3::lit('\f'))[grammar::file]],
               result.statements);
   } catch (const x3::expectation_failure<const char*>& failure) {
     // Point at what was found, not at the blanks before it.

@@ -28,9 +28,12 @@ Json bipolar_json(const BipolarOperatingPoint& q) {
 }
 
 Json diode_json(const DiodeOperatingPoint& d) {
-  return Json{{"kind", "diode"},          {"current", d.current},
-              {"voltage", d.voltage},     {"resistance", number(d.resistance)},
-              {"capacitance", d.capacitance}, {"power", d.power}};
+  return Json{{"kind", "diode"},
+              {"current", d.current},
+              {"voltage", d.voltage},
+              {"resistance", number(d.resistance)},
+              {"capacitance", d.capacitance},
+              {"power", d.power}};
 }
 
 Json pairs_json(const std::vector<std::pair<std::string, double>>& pairs) {
@@ -52,7 +55,8 @@ Json to_json(const BiasResult& r) {
   for (const auto& q : r.bipolars) devices[q.name] = bipolar_json(q);
   for (const auto& d : r.diodes) devices[d.name] = diode_json(d);
   Json supplies = Json::object();
-  for (const auto& s : r.supplies) supplies[s.name] = Json{{"current", s.current}, {"power", s.power}};
+  for (const auto& s : r.supplies)
+    supplies[s.name] = Json{{"current", s.current}, {"power", s.power}};
   return Json{{"kind", "bias"},
               {"converged", r.converged},
               {"newton_iterations", r.newton_iterations},
@@ -67,9 +71,9 @@ Json to_json(const BiasResult& r) {
 }
 
 void print_table(std::ostream& out, const BiasResult& r) {
-  out << "Bias point: " << r.newton_iterations << " Newton iterations ("
-      << to_string(r.method) << "), " << temperature_text(r.temperature)
-      << ", largest KCL residual " << si(r.max_kcl_residual, "A", 2) << "\n\n";
+  out << "Bias point: " << r.newton_iterations << " Newton iterations (" << to_string(r.method)
+      << "), " << temperature_text(r.temperature) << ", largest KCL residual "
+      << si(r.max_kcl_residual, "A", 2) << "\n\n";
 
   TextTable nodes({"node", "voltage"});
   for (const auto& [name, v] : r.node_voltages) nodes.add_row({name, si(v, "V")});
@@ -77,8 +81,8 @@ void print_table(std::ostream& out, const BiasResult& r) {
 
   if (!r.bipolars.empty()) {
     out << '\n';
-    TextTable t({"transistor", "type", "region", "IC", "IB", "VBE", "VCE", "gm", "r_pi", "r_out",
-                 "power"});
+    TextTable t(
+        {"transistor", "type", "region", "IC", "IB", "VBE", "VCE", "gm", "r_pi", "r_out", "power"});
     for (const auto& q : r.bipolars) {
       t.add_row({q.name, q.polarity == Polarity::npn ? "npn" : "pnp", q.region,
                  si(q.collector_current, "A"), si(q.base_current, "A"), si(q.vbe, "V"),
@@ -106,7 +110,8 @@ void print_table(std::ostream& out, const BiasResult& r) {
 
 void write_csv(std::ostream& out, const BiasResult& r) {
   out << "quantity,value\n";
-  for (const auto& [name, v] : r.node_voltages) out << "v(" << name << ")," << csv_number(v) << '\n';
+  for (const auto& [name, v] : r.node_voltages)
+    out << "v(" << name << ")," << csv_number(v) << '\n';
   for (const auto& [name, i] : r.element_currents) out << name << ',' << csv_number(i) << '\n';
   for (const auto& q : r.bipolars) {
     const Json figures = bipolar_json(q);
@@ -141,8 +146,8 @@ Json to_json(const SweepResult& r) {
 
 void print_table(std::ostream& out, const SweepResult& r) {
   const bool temperature = r.options.target == SweepOptions::Target::temperature;
-  out << "Sweep of " << (temperature ? "temperature" : r.options.name) << ": "
-      << r.points.size() << " points\n\n";
+  out << "Sweep of " << (temperature ? "temperature" : r.options.name) << ": " << r.points.size()
+      << " points\n\n";
   if (r.points.empty()) return;
   std::vector<std::string> header{temperature ? "temperature" : r.options.name};
   const BiasResult& first = r.points.front().bias;

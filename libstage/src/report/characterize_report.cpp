@@ -13,9 +13,12 @@ namespace {
 Json optional_number(const std::optional<double>& v) { return v ? Json(*v) : Json(nullptr); }
 
 Json swing_json(const SwingPower& s) {
-  return Json{{"input_amplitude", s.input_amplitude}, {"output_amplitude", s.output_amplitude},
-              {"thd", s.thd},                         {"supply_power_W", s.supply_power},
-              {"load_power_W", s.load_power},         {"dissipation_W", s.dissipation},
+  return Json{{"input_amplitude", s.input_amplitude},
+              {"output_amplitude", s.output_amplitude},
+              {"thd", s.thd},
+              {"supply_power_W", s.supply_power},
+              {"load_power_W", s.load_power},
+              {"dissipation_W", s.dissipation},
               {"efficiency", s.efficiency}};
 }
 
@@ -64,12 +67,11 @@ void print_table(std::ostream& out, const CharacterizeResult& r) {
   print_table(out, r.headroom);
   if (r.full_swing) {
     out << '\n';
-    TextTable t({"swing", "output amplitude", "THD", "supply power", "load power",
-                 "dissipated", "efficiency"});
+    TextTable t({"swing", "output amplitude", "THD", "supply power", "load power", "dissipated",
+                 "efficiency"});
     for (const auto& [name, s] : {std::pair{"half", *r.half_swing}, {"full", *r.full_swing}}) {
-      t.add_row({name, si(s.output_amplitude, "V"), percent(s.thd),
-                 si(s.supply_power, "W"), si(s.load_power, "W"), si(s.dissipation, "W"),
-                 percent(s.efficiency)});
+      t.add_row({name, si(s.output_amplitude, "V"), percent(s.thd), si(s.supply_power, "W"),
+                 si(s.load_power, "W"), si(s.dissipation, "W"), percent(s.efficiency)});
     }
     t.print(out);
   }

@@ -79,9 +79,9 @@ void print_table(std::ostream& out, const HeadroomResult& r) {
   auto row = [&](const char* name, const SideLimit& s) {
     t.add_row({name, si(s.peak, "V"), si(s.input_amplitude, "V"),
                s.found ? cause_text(s.cause) : "not reached",
-               s.at_largest_drive ? cause_text(*s.at_largest_drive) + " at " +
-                                        si(s.largest_drive, "V")
-                                  : ""});
+               s.at_largest_drive
+                   ? cause_text(*s.at_largest_drive) + " at " + si(s.largest_drive, "V")
+                   : ""});
   };
   row("positive", r.positive);
   row("negative", r.negative);

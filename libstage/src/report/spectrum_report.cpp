@@ -4,10 +4,7 @@
 #include <cmath>
 
 namespace stage::report {
-namespace {
-
-
-}  // namespace
+namespace {}  // namespace
 
 Json to_json(const SpectrumResult& r) {
   Json harmonics = Json::array();
