@@ -78,8 +78,8 @@ TEST(BipolarClosedForm, ReverseActiveIsEbersMoll) {
   expect_ebers_moll(m, 0.7, 0.6);  // saturation
 }
 
-// Forward Early effect: with q1 = 1/(1 - VBC/VAF), IC = IS e^(VBE/VT) (1 -
-// VBC/VAF) so dIC/dVCE = IC / (VAF + VCB) ~ IC / VAF (Getreu 1978; Gray et
+// Forward Early effect: with q1 = 1/(1 - VBC/V_A), IC = IS e^(VBE/VT) (1 -
+// VBC/V_A) so dIC/dVCE = IC / (V_A + VCB) ~ IC / V_A (Getreu 1978; Gray et
 // al. ch. 1 for r_out = VA / IC).
 TEST(BipolarClosedForm, OutputConductanceIsCollectorCurrentOverEarlyVoltage) {
   BipolarModel m;
@@ -88,15 +88,15 @@ TEST(BipolarClosedForm, OutputConductanceIsCollectorCurrentOverEarlyVoltage) {
   const auto op = report(m, vbe, vbc);
   const double ic = op.collector_current;
   EXPECT_NEAR(1 / op.r_out, ic / (50 - vbc), 1e-9 * ic / 50);
-  EXPECT_NEAR(op.r_out * ic / 50, 1.0, 0.11);  // ~ IC / VAF within VCB / VAF
+  EXPECT_NEAR(op.r_out * ic / 50, 1.0, 0.11);  // ~ IC / V_A within VCB / V_A
   // Without Early effect only the reverse-biased B-C diffusion term is left:
   // IS e^(VBC/VT) / VT ~ 1e-99 S here, so r_out is effectively infinite.
   EXPECT_GT(report(BipolarModel{}, vbe, vbc).r_out, 1e90);
 }
 
-// High injection: far above the forward knee qb ~ sqrt(IS e^(VBE/VT) / IKF),
-// so IC ~ sqrt(IKF IS) e^(VBE/2VT) while IB = IS/BF e^(VBE/VT): beta ~ BF
-// IKF / IC (Gummel and Poon 1970; Massobrio and Antognetti sec. 2.4).
+// High injection: far above the forward knee qb ~ sqrt(IS e^(VBE/VT) / I_knee),
+// so IC ~ sqrt(I_knee IS) e^(VBE/2VT) while IB = IS/BF e^(VBE/VT): beta ~ BF
+// I_knee / IC (Gummel and Poon 1970; Massobrio and Antognetti sec. 2.4).
 TEST(BipolarClosedForm, BetaFallsAsOneOverCurrentAboveTheKnee) {
   BipolarModel m;
   m.knee_current_forward = 1e-3;
@@ -109,8 +109,8 @@ TEST(BipolarClosedForm, BetaFallsAsOneOverCurrentAboveTheKnee) {
   EXPECT_NEAR((higher.ic / higher.ib) / beta, 0.5, 0.01);  // doubling IC halves beta
 }
 
-// Low current: the B-E leakage ISE (e^(VBE/NE VT) - 1) dominates the base
-// current, so beta = IC / (IS/BF (e^(VBE/VT) - 1) + ISE (e^(VBE/NE VT) - 1))
+// Low current: the B-E leakage I_leak (e^(VBE/n_leak VT) - 1) dominates the base
+// current, so beta = IC / (IS/BF (e^(VBE/VT) - 1) + I_leak (e^(VBE/n_leak VT) - 1))
 // falls at low VBE (Gummel–Poon base current; Gray et al. ch. 1).
 TEST(BipolarClosedForm, BetaFallsAtLowCurrentFromLeakage) {
   BipolarModel m;

@@ -98,7 +98,8 @@ TEST(BipolarCircuit, EmitterFollowerByHand) {
 // VBE at constant collector current (100 uA, IS = 10 fA, so VBE ~ 0.6 V)
 // falls about 2 mV/K (rule of thumb, Gray et al. ch. 1). From
 // VBE = VT ln(IC / IS(T)) and IS(T) as in junction.hpp:
-// dVBE/dT = (VBE - Eg - XTI VT) / T (Gray et al. ch. 1, temperature
+// dVBE/dT = (VBE - Eg - a VT) / T, a the saturation-current temperature
+// exponent (Gray et al. ch. 1, temperature
 // dependence of VBE).
 TEST(BipolarCircuit, BaseEmitterVoltageTemperatureCoefficient) {
   auto vbe_at = [](double kelvin) {

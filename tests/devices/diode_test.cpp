@@ -54,7 +54,8 @@ TEST(Diode, BreakdownCurrentAtBreakdownVoltage) {
   EXPECT_EQ(at(m, 0).current, 0.0);
 }
 
-// Saturation current against temperature: IS(T) = IS (T/Tr)^(XTI/N)
+// Saturation current against temperature (a: its temperature exponent):
+// IS(T) = IS (T/Tr)^(a/N)
 // exp((T/Tr - 1) Eg / (N VT(T))) (Sze and Ng sec. 2.3 with ni^2 ~ T^3
 // exp(-Eg/kT); the usual compact-model statement). Read back from the
 // current at a small forward bias.

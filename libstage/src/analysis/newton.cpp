@@ -25,12 +25,12 @@ void NewtonSolver::assemble(const NewtonProblem& p, const std::vector<double>& x
   if (p.reactive_history != nullptr) {
     for (std::size_t i = 0; i < n1; ++i) residual_[i] += p.reactive_history[i];
   }
-  if (p.gmin > 0) {
+  if (p.shunt > 0) {
     const auto& topology = system_.topology();
     for (mna::Index i = 1; i < static_cast<mna::Index>(n1); ++i) {
       if (!topology.is_voltage(i)) continue;
-      jacobian_[system_.diagonal(i)] += p.gmin;
-      residual_[i] += p.gmin * x[i];
+      jacobian_[system_.diagonal(i)] += p.shunt;
+      residual_[i] += p.shunt * x[i];
     }
   }
   // Row scale: sum over the row of |J_ij x_j|, the size of the currents (or

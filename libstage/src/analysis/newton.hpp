@@ -1,9 +1,9 @@
 // Newton–Raphson on the MNA residual, shared by every analysis.
 //
-// Solves  F(x) = f(x) + a q(x) + h + gmin x_v = 0  with Jacobian
-//         J    = G    + a C    + gmin I_v
+// Solves  F(x) = f(x) + a q(x) + h + shunt x_v = 0  with Jacobian
+//         J    = G    + a C    + shunt I_v
 // where a and h are the integration formula's coefficient and history (zero
-// at DC) and gmin is a homotopy conductance from each voltage unknown to
+// at DC) and shunt is a homotopy conductance from each voltage unknown to
 // ground. Convergence needs both a small update (relative plus absolute
 // tolerance per unknown kind) and a small residual (KCL at nodes, the branch
 // equation elsewhere, relative to the size of the terms that meet there).
@@ -23,7 +23,7 @@ struct NewtonProblem {
   mna::EvalRequest request;                  // x is filled in by the solver
   double reactive_scale = 0;                 // a
   const double* reactive_history = nullptr;  // h, n + 1 entries (or null)
-  double gmin = 0;
+  double shunt = 0;
   int max_iterations = 150;
 };
 

@@ -21,11 +21,11 @@ constexpr double kMaxStepRatio = 10;        // a decade per conductance step at 
 constexpr int kMaxHomotopySteps = 400;
 constexpr double kNearlySingular = 1e-14;  // reciprocal condition: a warning below
 
-NewtonProblem dc_problem(const NewtonSolver& newton, double gmin, double source_scale) {
+NewtonProblem dc_problem(const NewtonSolver& newton, double shunt, double source_scale) {
   NewtonProblem p;
   p.request = newton.system().request(nullptr);
   p.request.source_scale = source_scale;
-  p.gmin = gmin;
+  p.shunt = shunt;
   p.max_iterations = newton.options().max_newton_iterations;
   return p;
 }
@@ -43,31 +43,31 @@ void reset_limiting(const mna::System& system) {
 bool conductance_stepping(NewtonSolver& newton, std::vector<double>& x, int& iterations) {
   const double floor = std::max(newton.options().minimum_conductance, 1e-15);
   std::vector<double> good = x;
-  std::optional<double> good_gmin;
-  double gmin = kFirstConductance, factor = kMaxStepRatio;
+  std::optional<double> good_shunt;
+  double shunt = kFirstConductance, factor = kMaxStepRatio;
   for (int step = 0; step < kMaxHomotopySteps; ++step) {
-    const auto outcome = newton.solve(x, dc_problem(newton, gmin, 1.0));
+    const auto outcome = newton.solve(x, dc_problem(newton, shunt, 1.0));
     iterations += outcome.iterations;
-    spdlog::debug("conductance stepping: {:.3g} S {}", gmin,
+    spdlog::debug("conductance stepping: {:.3g} S {}", shunt,
                   outcome.status == NewtonStatus::converged ? "converged" : "failed");
     if (outcome.status == NewtonStatus::converged) {
-      if (gmin == 0.0) return true;
+      if (shunt == 0.0) return true;
       good = x;
-      good_gmin = gmin;
+      good_shunt = shunt;
       factor = std::min(kMaxStepRatio, factor * factor);
-      gmin = gmin / factor < floor ? 0.0 : gmin / factor;
+      shunt = shunt / factor < floor ? 0.0 : shunt / factor;
       continue;
     }
     x = good;
     reset_limiting(newton.system());
-    if (!good_gmin) {
-      gmin *= kMaxStepRatio;
-      if (gmin > kLargestConductance) return false;
+    if (!good_shunt) {
+      shunt *= kMaxStepRatio;
+      if (shunt > kLargestConductance) return false;
       continue;
     }
     factor = std::sqrt(factor);
     if (factor < 1.01) return false;
-    gmin = std::max(*good_gmin / factor, floor);
+    shunt = std::max(*good_shunt / factor, floor);
   }
   return false;
 }

@@ -46,7 +46,7 @@ System local_system(const BipolarParameters& p, double pol, const std::array<dou
               {{kBi, kEi, i.dict_dvbe}, {kBi, kCi, i.dict_dvbc}});
   add_current(s, pol, kBi, kEi, i.ibe + i.dibe_dvbe * dbe, {{kBi, kEi, i.dibe_dvbe}});
   add_current(s, pol, kBi, kCi, i.ibc + i.dibc_dvbc * dbc, {{kBi, kCi, i.dibc_dvbc}});
-  if (p.rb > 0) {
+  if (p.base_resistance > 0) {
     const BaseResistance r = base_resistance(p, i);
     const double vrb = pol * (x[kB] - x[kBi]);
     const double current = vrb / r.r;
@@ -55,21 +55,26 @@ System local_system(const BipolarParameters& p, double pol, const std::array<dou
     add_current(s, pol, kB, kBi, current + di_dvbe * dbe + di_dvbc * dbc,
                 {{kB, kBi, 1 / r.r}, {kBi, kEi, di_dvbe}, {kBi, kCi, di_dvbc}});
   }
-  if (p.re > 0) add_current(s, 1, kE, kEi, (x[kE] - x[kEi]) / p.re, {{kE, kEi, 1 / p.re}});
-  if (p.rc > 0) add_current(s, 1, kC, kCi, (x[kC] - x[kCi]) / p.rc, {{kC, kCi, 1 / p.rc}});
+  if (p.emitter_resistance > 0)
+    add_current(s, 1, kE, kEi, (x[kE] - x[kEi]) / p.emitter_resistance,
+                {{kE, kEi, 1 / p.emitter_resistance}});
+  if (p.collector_resistance > 0)
+    add_current(s, 1, kC, kCi, (x[kC] - x[kCi]) / p.collector_resistance,
+                {{kC, kCi, 1 / p.collector_resistance}});
 
   const double vbx = pol * (x[kB] - x[kCi]);
   const double vsc = pol * (x[kS] - x[kCi]);
   const GummelPoonCharges q = gummel_poon_charges(p, i, at.vbe, at.vbc, vbx, vsc);
-  if (p.cje > 0 || p.tf > 0) {
+  if (p.be_capacitance > 0 || p.forward_transit > 0) {
     add_charge(s, pol, kBi, kEi, q.qbe + q.cbe_vbe * dbe + q.cbe_vbc * dbc,
                {{kBi, kEi, q.cbe_vbe}, {kBi, kCi, q.cbe_vbc}});
   }
-  if (p.xcjc * p.cjc > 0 || p.tr > 0) {
+  if (p.bc_internal_fraction * p.bc_capacitance > 0 || p.reverse_transit > 0) {
     add_charge(s, pol, kBi, kCi, q.qbc + q.cbc * dbc, {{kBi, kCi, q.cbc}});
   }
-  if ((1 - p.xcjc) * p.cjc > 0) add_charge(s, pol, kB, kCi, q.qbx, {{kB, kCi, q.cbx}});
-  if (p.cjs > 0) add_charge(s, pol, kS, kCi, q.qcs, {{kS, kCi, q.ccs}});
+  if ((1 - p.bc_internal_fraction) * p.bc_capacitance > 0)
+    add_charge(s, pol, kB, kCi, q.qbx, {{kB, kCi, q.cbx}});
+  if (p.cs_capacitance > 0) add_charge(s, pol, kS, kCi, q.qcs, {{kS, kCi, q.ccs}});
   return s;
 }
 
@@ -106,8 +111,10 @@ class BipolarDevice final : public mna::Device {
     JunctionVoltages v = junction_voltages(pol_, x);
     if (request.limit) {
       const JunctionVoltages wanted = v;
-      v.vbe = limit_junction_voltage(v.vbe, last_.vbe, params_.nf_vt, params_.vcrit_be);
-      v.vbc = limit_junction_voltage(v.vbc, last_.vbc, params_.nr_vt, params_.vcrit_bc);
+      v.vbe =
+          limit_junction_voltage(v.vbe, last_.vbe, params_.forward_ideality_vt, params_.vcrit_be);
+      v.vbc =
+          limit_junction_voltage(v.vbc, last_.vbc, params_.reverse_ideality_vt, params_.vcrit_bc);
       if (v.vbe != wanted.vbe || v.vbc != wanted.vbc) out.limited = true;
     }
     last_ = v;
@@ -136,9 +143,9 @@ class BipolarDevice final : public mna::Device {
                                            kB,
                                            kE,
                                            kS,
-                                           p.rc > 0 ? int{kCi} : int{kC},
-                                           p.rb > 0 ? int{kBi} : int{kB},
-                                           p.re > 0 ? int{kEi} : int{kE}};
+                                           p.collector_resistance > 0 ? int{kCi} : int{kC},
+                                           p.base_resistance > 0 ? int{kBi} : int{kB},
+                                           p.emitter_resistance > 0 ? int{kEi} : int{kE}};
     const TerminalView view = reduce_to_terminals(s, 4, alias);
     const auto& y = view.conductance;
     const GummelPoonCurrents i = gummel_poon_currents(p, v.vbe, v.vbc);

@@ -16,30 +16,31 @@ namespace {
 
 // Model at one temperature and area.
 struct DiodeParameters {
-  double is = 0, nvt = 0, vcrit = 0;
-  double bv = kInfinity, ibv = 0, vcrit_breakdown = 0;
+  double saturation_current = 0, nvt = 0, vcrit = 0;
+  double breakdown_voltage = kInfinity, breakdown_current = 0, vcrit_breakdown = 0;
   double series_conductance = 0;  // 0: no series resistance
-  double c0 = 0, phi = 0, grading = 0, fill = 0, tt = 0;
+  double c0 = 0, phi = 0, grading = 0, fill = 0, transit_time = 0;
 };
 
 DiodeParameters scale(const DiodeModel& m, double area, double kelvin) {
   DiodeParameters p;
-  const double tr = m.reference_temperature;
+  const double reference = m.reference_temperature;
   p.nvt = m.emission_coefficient * thermal_voltage(kelvin);
-  p.is = area * saturation_current_at(m.saturation_current, kelvin, tr, m.bandgap_energy,
-                                      m.saturation_current_temperature_exponent,
-                                      m.emission_coefficient);
-  p.vcrit = critical_voltage(p.is, p.nvt);
-  p.bv = m.breakdown_voltage;
-  p.ibv = area * m.breakdown_current;
-  p.vcrit_breakdown = critical_voltage(p.ibv, p.nvt);
+  p.saturation_current =
+      area * saturation_current_at(m.saturation_current, kelvin, reference, m.bandgap_energy,
+                                   m.saturation_current_temperature_exponent,
+                                   m.emission_coefficient);
+  p.vcrit = critical_voltage(p.saturation_current, p.nvt);
+  p.breakdown_voltage = m.breakdown_voltage;
+  p.breakdown_current = area * m.breakdown_current;
+  p.vcrit_breakdown = critical_voltage(p.breakdown_current, p.nvt);
   if (m.series_resistance > 0) p.series_conductance = area / m.series_resistance;
-  p.phi = junction_potential_at(m.junction_potential, kelvin, tr, m.bandgap_energy);
+  p.phi = junction_potential_at(m.junction_potential, kelvin, reference, m.bandgap_energy);
   p.grading = m.grading;
   p.c0 = area *
          depletion_capacitance_at(m.junction_capacitance, m.junction_potential, p.phi, m.grading);
   p.fill = m.depletion_fill_coefficient;
-  p.tt = m.transit_time;
+  p.transit_time = m.transit_time;
   return p;
 }
 
@@ -53,21 +54,22 @@ using System = LocalSystem<kNodes>;
 System local_system(const DiodeParameters& p, const std::array<double, kNodes>& x, double v_eval) {
   System s;
   const double v = x[kJunction] - x[kCathode];
-  const ValueSlope forward = junction_current(p.is, v_eval, p.nvt);
+  const ValueSlope forward = junction_current(p.saturation_current, v_eval, p.nvt);
   double current = forward.value, conductance = forward.slope;
-  if (!std::isinf(p.bv)) {
+  if (!std::isinf(p.breakdown_voltage)) {
     // Breakdown: -ibv (exp(-(v + bv)/nvt) - exp(-bv/nvt)), which carries ibv
     // at v = -bv and vanishes at v = 0. Same emission as forward conduction.
-    const ValueSlope reverse = junction_current(p.ibv, -(v_eval + p.bv), p.nvt);
-    const ValueSlope at_zero = junction_current(p.ibv, -p.bv, p.nvt);
+    const ValueSlope reverse =
+        junction_current(p.breakdown_current, -(v_eval + p.breakdown_voltage), p.nvt);
+    const ValueSlope at_zero = junction_current(p.breakdown_current, -p.breakdown_voltage, p.nvt);
     current -= reverse.value - at_zero.value;
     conductance += reverse.slope;
   }
   // Diffusion charge follows the forward (Shockley) current only: breakdown
   // stores no minority carriers.
   const ValueSlope depletion = depletion_charge(v_eval, p.c0, p.phi, p.grading, p.fill);
-  const double charge = depletion.value + p.tt * forward.value;
-  const double capacitance = depletion.slope + p.tt * forward.slope;
+  const double charge = depletion.value + p.transit_time * forward.value;
+  const double capacitance = depletion.slope + p.transit_time * forward.slope;
   const double dv = v - v_eval;
   add_current(s, 1, kJunction, kCathode, current + conductance * dv,
               {{kJunction, kCathode, conductance}});
@@ -103,15 +105,15 @@ class DiodeDevice final : public mna::Device {
     double v = x[kJunction] - x[kCathode];
     if (request.limit) {
       v = limit_junction_voltage(v, last_v_, params_.nvt, params_.vcrit);
-      if (!std::isinf(params_.bv)) {
+      if (!std::isinf(params_.breakdown_voltage)) {
         // The breakdown exponential is limited the same way, mirrored.
-        const double w_wanted = -(v + params_.bv);
-        const double w = limit_junction_voltage(w_wanted, -(last_v_ + params_.bv), params_.nvt,
-                                                params_.vcrit_breakdown);
+        const double w_wanted = -(v + params_.breakdown_voltage);
+        const double w = limit_junction_voltage(w_wanted, -(last_v_ + params_.breakdown_voltage),
+                                                params_.nvt, params_.vcrit_breakdown);
         // Only a real limit moves v: the round trip through -(v + bv) is not
         // exact in floating point, and a spurious change would keep Newton
         // from ever accepting convergence.
-        if (w != w_wanted) v = -w - params_.bv;
+        if (w != w_wanted) v = -w - params_.breakdown_voltage;
       }
       if (v != x[kJunction] - x[kCathode]) out.limited = true;
     }

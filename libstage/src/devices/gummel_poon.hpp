@@ -20,25 +20,31 @@ namespace stage::devices {
 // inverses so the equations need no branches.
 struct BipolarParameters {
   bool ebers_moll = false;
-  double vt = 0;                        // kT/q
-  double is = 0, nf_vt = 0, nr_vt = 0;  // transport current, emission * vt
-  double bf = 0, br = 0;
-  double inv_vaf = 0, inv_var = 0, inv_ikf = 0, inv_ikr = 0;
-  double ise = 0, ne_vt = 0, isc = 0, nc_vt = 0;
-  double rb = 0, rbm = 0, irb = kInfinity, re = 0, rc = 0;
-  double cje = 0, vje = 0, mje = 0;
-  double cjc = 0, vjc = 0, mjc = 0, xcjc = 1;
-  double cjs = 0, vjs = 0, mjs = 0;
-  double fc = 0;
-  double tf = 0, tr = 0, xtf = 0, inv_vtf = 0, itf = 0;
+  double vt = 0;  // kT/q
+  double transport_saturation = 0;
+  double forward_ideality_vt = 0, reverse_ideality_vt = 0;  // emission coefficient * vt
+  double beta_forward = 0, beta_reverse = 0;
+  double inverse_early_forward = 0, inverse_early_reverse = 0;
+  double inverse_knee_forward = 0, inverse_knee_reverse = 0;
+  double be_leakage = 0, be_leakage_ideality_vt = 0, bc_leakage = 0, bc_leakage_ideality_vt = 0;
+  double base_resistance = 0, base_resistance_min = 0, base_resistance_half_current = kInfinity;
+  double emitter_resistance = 0, collector_resistance = 0;
+  double be_capacitance = 0, be_potential = 0, be_grading = 0;
+  double bc_capacitance = 0, bc_potential = 0, bc_grading = 0, bc_internal_fraction = 1;
+  double cs_capacitance = 0, cs_potential = 0, cs_grading = 0;
+  double fill_coefficient = 0;
+  double forward_transit = 0, reverse_transit = 0, transit_bias = 0;
+  double inverse_transit_bc_voltage = 0, transit_high_current = 0;
   double vcrit_be = 0, vcrit_bc = 0;  // where Newton limiting starts
 };
 
-// Temperature relations (textbook forms; see junction.hpp for is and phi):
-//   is(T)  = is (T/Tr)^xti exp((T/Tr - 1) Eg / vt(T))
-//   beta(T) = beta (T/Tr)^xtb
-//   leakage current with its own emission n: scaled like is with n, divided
-//   by (T/Tr)^xtb, so that the leakage-limited beta follows the same law
+// Temperature relations (textbook forms; see junction.hpp for the
+// saturation current and potentials), with Tr the reference temperature,
+// a the saturation-current temperature exponent and b the beta one:
+//   I_S(T)  = I_S (T/Tr)^a exp((T/Tr - 1) Eg / vt(T))
+//   beta(T) = beta (T/Tr)^b
+//   leakage current with its own emission n: scaled like I_S with n, divided
+//   by (T/Tr)^b, so that the leakage-limited beta follows the same law
 //   (Massobrio and Antognetti, "Semiconductor Device Modeling", 2nd ed.,
 //   ch. 2, temperature dependence of the bipolar model; from memory);
 //   potentials and zero-bias capacitances as in junction.hpp.
@@ -47,12 +53,12 @@ BipolarParameters scale_bipolar(const BipolarModel& model, double area, double k
 // DC currents at internal junction voltages vbe = v(b') - v(e'),
 // vbc = v(b') - v(c').
 struct GummelPoonCurrents {
-  double ibe1 = 0, gbe1 = 0;  // forward diffusion current IS (e^(vbe/nf vt) - 1) and slope
+  double ibe1 = 0, gbe1 = 0;  // forward diffusion current I_S (e^(vbe/n vt) - 1) and slope
   double ibc1 = 0, gbc1 = 0;
   double qb = 1, dqb_dvbe = 0, dqb_dvbc = 0;     // normalised base charge
   double ict = 0, dict_dvbe = 0, dict_dvbc = 0;  // transport current c' -> e'
-  double ibe = 0, dibe_dvbe = 0;                 // base current b' -> e': ibe1/bf + leakage
-  double ibc = 0, dibc_dvbc = 0;                 // base current b' -> c': ibc1/br + leakage
+  double ibe = 0, dibe_dvbe = 0;  // base current b' -> e': ibe1/beta_forward + leakage
+  double ibc = 0, dibc_dvbc = 0;  // base current b' -> c': ibc1/beta_reverse + leakage
 };
 GummelPoonCurrents gummel_poon_currents(const BipolarParameters& p, double vbe, double vbc);
 

@@ -47,10 +47,10 @@ double limit_junction_voltage(double v_new, double v_old, double nvt, double v_c
 }
 
 double saturation_current_at(double is, double kelvin, double reference, double bandgap_ev,
-                             double xti, double emission) {
+                             double exponent, double emission) {
   const double ratio = kelvin / reference;
   const double nvt = emission * thermal_voltage(kelvin);
-  return is * std::pow(ratio, xti / emission) * std::exp((ratio - 1) * bandgap_ev / nvt);
+  return is * std::pow(ratio, exponent / emission) * std::exp((ratio - 1) * bandgap_ev / nvt);
 }
 
 double junction_potential_at(double phi, double kelvin, double reference, double bandgap_ev) {

@@ -38,11 +38,11 @@ double limit_junction_voltage(double v_new, double v_old, double nvt, double v_c
 
 // Saturation current at `kelvin` from its value at `reference`: the
 // intrinsic carrier density squared goes as T^3 exp(-Eg/kT), giving
-// is(T) = is * (T/Tr)^(xti/n) * exp((T/Tr - 1) * Eg / (n kT/q)).
+// is(T) = is * (T/Tr)^(exponent/n) * exp((T/Tr - 1) * Eg / (n kT/q)).
 // (Sze and Ng, "Physics of Semiconductor Devices", 3rd ed., sec. 2.3 for the
 // diode current; the exponent form is the usual compact-model statement.)
 double saturation_current_at(double is, double kelvin, double reference, double bandgap_ev,
-                             double xti, double emission);
+                             double exponent, double emission);
 
 // Built-in potential at `kelvin`. phi = (kT/q) ln(Na Nd / ni^2) with
 // ni^2 ~ T^3 exp(-Eg/kT) (Sze and Ng, sec. 2.2) gives, for a bandgap taken
