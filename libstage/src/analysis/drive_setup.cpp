@@ -1,7 +1,10 @@
 // Small-signal drive and supply rails of a stage.
 #include "analysis/drive_setup.hpp"
 
+#include <cmath>
 #include <stdexcept>
+
+#include "stage/frequency.hpp"
 
 namespace stage::analysis {
 namespace {
@@ -35,6 +38,19 @@ Circuit with_only_ac_input(const Circuit& circuit, const std::string& input) {
     throw std::invalid_argument("'" + input + "' is not an independent voltage or current source");
   }
   return c;
+}
+
+double small_signal_gain(const Circuit& circuit, const std::string& input, const SignalRef& output,
+                         double frequency) {
+  FrequencyOptions f;
+  f.from = frequency;
+  f.to = frequency * 1.001;  // a grid of its own; the figure is solved at `at`
+  f.per_decade = 1;
+  f.input = input;
+  f.output = output;
+  f.at = frequency;
+  const FrequencyResult r = run_frequency(with_only_ac_input(circuit, input), f);
+  return std::pow(10.0, *r.figures.gain_at_dB / 20.0);
 }
 
 std::vector<Rail> supply_rails(const Circuit& circuit, const std::string& input) {

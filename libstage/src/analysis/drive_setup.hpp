@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "stage/circuit.hpp"
+#include "stage/signal.hpp"
 
 namespace stage::analysis {
 
@@ -14,6 +15,11 @@ namespace stage::analysis {
 // source none. Throws std::invalid_argument when `input` is not an
 // independent voltage or current source.
 Circuit with_only_ac_input(const Circuit& circuit, const std::string& input);
+
+// |output / input| at one frequency, the input alone driving (small signal,
+// around the bias point).
+double small_signal_gain(const Circuit& circuit, const std::string& input, const SignalRef& output,
+                         double frequency);
 
 // A DC voltage source tied to ground: the rail it holds a node at.
 struct Rail {

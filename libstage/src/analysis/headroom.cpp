@@ -42,19 +42,6 @@ std::optional<std::string> options_error(const Circuit& circuit, const HeadroomO
   return std::nullopt;
 }
 
-double small_signal_gain(const Circuit& circuit, const HeadroomOptions& o) {
-  FrequencyOptions f;
-  f.from = o.frequency;
-  f.to = o.frequency * 1.001;
-  f.per_decade = 1;
-  f.input = o.input;
-  f.output = o.output;
-  f.at = o.frequency;
-  return std::pow(
-      10.0,
-      *run_frequency(analysis::with_only_ac_input(circuit, o.input), f).figures.gain_at_dB / 20.0);
-}
-
 // The search state: every measurement so far, sorted by amplitude.
 class Search {
  public:
@@ -240,7 +227,8 @@ HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& optio
   result.bias_output =
       node(options.output.a) -
       (options.output.kind == SignalRef::Kind::node_pair ? node(options.output.b) : 0.0);
-  result.small_signal_gain = small_signal_gain(circuit, options);
+  result.small_signal_gain =
+      analysis::small_signal_gain(circuit, options.input, options.output, options.frequency);
 
   const analysis::SineDrive drive(circuit, options.input, options.output, options.frequency);
   Search search(drive, options.distortion_limit, result.small_signal_gain, progress);

@@ -7,8 +7,8 @@
 #include <cmath>
 #include <complex>
 
+#include "analysis/drive_setup.hpp"
 #include "stage/errors.hpp"
-#include "stage/frequency.hpp"
 #include "stage/headroom.hpp"
 
 namespace stage {
@@ -26,8 +26,8 @@ const Element* only_transistor(const Circuit& circuit) {
   return found;
 }
 
-// The circuit without `transistor`, every source at zero AC and with no wave,
-// and the probe current source from emitter to collector.
+// The circuit without `transistor`, with the probe current source from
+// emitter to collector (small_signal_gain zeroes every other AC source).
 Circuit probe_circuit(const Circuit& circuit, const Element& transistor) {
   const auto& q = std::get<Bipolar>(transistor.data);
   Circuit probe;
@@ -37,17 +37,7 @@ Circuit probe_circuit(const Circuit& circuit, const Element& transistor) {
   for (const auto& [name, model] : circuit.diode_models()) probe.add_model(name, model);
   for (const Element& e : circuit.elements()) {
     if (&e == &transistor) continue;
-    ElementData data = e.data;
-    std::visit(
-        [](auto& d) {
-          using T = std::decay_t<decltype(d)>;
-          if constexpr (std::is_same_v<T, VoltageSource> || std::is_same_v<T, CurrentSource>) {
-            d.ac_magnitude = 0;
-            d.wave.reset();
-          }
-        },
-        data);
-    probe.add(e.name, std::move(data));
+    probe.add(e.name, e.data);
   }
   probe.add(kProbe, CurrentSource{q.emitter, q.collector, 0.0, 1.0});
   return probe;
@@ -62,17 +52,10 @@ std::optional<LoadLineEstimate> estimate_load_line(const Circuit& circuit, const
   const auto& q = std::get<Bipolar>(transistor->data);
   const BipolarOperatingPoint& op = bias.bipolar(transistor->name);
 
-  FrequencyOptions options;
-  options.from = frequency;
-  options.to = frequency * 1.001;
-  options.per_decade = 1;
-  options.input = kProbe;
-  options.output = SignalRef::pair(q.collector, q.emitter);
-  options.at = frequency;
   double ac_load = 0;
   try {
-    const FrequencyResult r = run_frequency(probe_circuit(circuit, *transistor), options);
-    ac_load = std::pow(10.0, *r.figures.gain_at_dB / 20.0);
+    ac_load = analysis::small_signal_gain(probe_circuit(circuit, *transistor), kProbe,
+                                          SignalRef::pair(q.collector, q.emitter), frequency);
   } catch (const NumericalError&) {
     return std::nullopt;  // without the transistor a node floats: no load line to draw
   }
