@@ -11,6 +11,7 @@
 
 #include "stage/analyses.hpp"
 #include "stage/circuit.hpp"
+#include "stage/progress.hpp"
 
 namespace stage {
 
@@ -84,7 +85,8 @@ struct SweepResult {
 
 // Source and temperature sweeps. Parameter sweeps need the text's `let`
 // parameters: see run_parameter_sweep in stage/run.hpp.
-SweepResult run_sweep(const Circuit& circuit, const SweepOptions& options);
+SweepResult run_sweep(const Circuit& circuit, const SweepOptions& options,
+                      const ProgressCallback& progress = {});
 
 std::string_view to_string(BiasMethod method);
 

@@ -20,7 +20,6 @@
 // regula falsi to 1 %, every transient run informing all three searches.
 #pragma once
 
-#include <functional>
 #include <optional>
 #include <string>
 #include <vector>
@@ -28,6 +27,7 @@
 #include "stage/analyses.hpp"
 #include "stage/bias.hpp"
 #include "stage/circuit.hpp"
+#include "stage/progress.hpp"
 
 namespace stage {
 
@@ -88,9 +88,6 @@ struct HeadroomResult {
   BiasResult bias;
   std::vector<std::string> notes;
 };
-
-// Progress of a long search: a short description and the runs done so far.
-using ProgressCallback = std::function<void(const std::string& what)>;
 
 // Throws std::invalid_argument for bad options (input not an independent
 // source, unknown output, frequency not positive, limit not in (0, 1)),

@@ -3,7 +3,6 @@
 // reads the transient before it).
 #pragma once
 
-#include <functional>
 #include <string>
 #include <variant>
 #include <vector>

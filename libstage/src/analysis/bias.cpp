@@ -55,7 +55,8 @@ BiasResult run_bias(const Circuit& circuit) {
   return analysis::describe_operating_point(system, x, how);
 }
 
-SweepResult run_sweep(const Circuit& circuit, const SweepOptions& options) {
+SweepResult run_sweep(const Circuit& circuit, const SweepOptions& options,
+                      const ProgressCallback& progress) {
   if (options.target == SweepOptions::Target::parameter) {
     throw std::invalid_argument("a parameter sweep needs the circuit's text: use run_deck");
   }
@@ -71,6 +72,10 @@ SweepResult run_sweep(const Circuit& circuit, const SweepOptions& options) {
   std::vector<double> x(static_cast<std::size_t>(system.size()) + 1, 0.0);
   SweepResult result{options, {}};
   for (double value : options.values) {
+    if (progress) {
+      progress("sweep: point " + std::to_string(result.points.size() + 1) + " of " +
+               std::to_string(options.values.size()));
+    }
     if (source != nullptr) {
       source->value().set_dc(value);
     } else {

@@ -85,7 +85,7 @@ RunResult run_deck(const Deck& deck, const RunOptions& run_options) {
       AnalysisResult operator()(const SweepOptions& o) const {
         return o.target == SweepOptions::Target::parameter
                    ? run_parameter_sweep(deck, o, run_options.progress)
-                   : run_sweep(circuit, o);
+                   : run_sweep(circuit, o, run_options.progress);
       }
       AnalysisResult operator()(const FrequencyOptions& o) const {
         return run_frequency(circuit, o);
