@@ -54,7 +54,7 @@ class Search {
     if (it != runs_.end()) return it->second;
     if (progress_) {
       progress_("headroom: run " + std::to_string(runs_.size() + 1) + ", input amplitude " +
-                std::to_string(amplitude));
+                report::si(amplitude, "V"));
     }
     if (static_cast<int>(runs_.size()) >= kMaxRuns) {
       throw NumericalError(
