@@ -68,6 +68,21 @@ TEST(Command, NumericalFailureNamesTheNodeAndExitsThree) {
   EXPECT_NE(o.out.find("island"), std::string::npos) << o.out;
 }
 
+// An analysis that cannot run as written stops the file before anything
+// runs: the bias statement above it prints nothing.
+TEST(Command, BadAnalysisStopsEverythingBeforeItRuns) {
+  const auto file = write_temp(
+      "bad_output.stage",
+      "vin = voltage(in, gnd, dc = 0 V, ac = 1 V)\nr1 = resistor(in, out, 1 kΩ)\n"
+      "rl = resistor(out, gnd, 1 kΩ)\nanalyze bias()\n"
+      "analyze headroom(input = vin, output = rl.current, frequency = 1 kHz)\n");
+  const auto o = run("run " + file.string());
+  EXPECT_EQ(o.status, 2);
+  EXPECT_NE(o.out.find(file.string() + ":5:1:"), std::string::npos) << o.out;
+  EXPECT_NE(o.out.find("analyze headroom(input = vin"), std::string::npos) << o.out;
+  EXPECT_EQ(o.out.find("Bias point"), std::string::npos) << o.out;
+}
+
 TEST(Command, CheckRunsNothing) {
   const auto o = run("check " + example("follower_32ohm.stage"));
   EXPECT_EQ(o.status, 0);

@@ -22,8 +22,18 @@ std::optional<std::string> statement_error(const Deck& deck, const AnalysisOptio
         "`analyze transient(...)` statement first");
   }
   const std::string* input = nullptr;
-  if (const auto* h = std::get_if<HeadroomOptions>(&options)) input = &h->input;
-  if (const auto* s = std::get_if<CharacterizeOptions>(&options)) input = &s->input;
+  const SignalRef* output = nullptr;
+  if (const auto* h = std::get_if<HeadroomOptions>(&options)) {
+    input = &h->input;
+    output = &h->output;
+  }
+  if (const auto* s = std::get_if<CharacterizeOptions>(&options)) {
+    input = &s->input;
+    output = &s->output;
+  }
+  if (output != nullptr && output->kind == SignalRef::Kind::element_current) {
+    return "a large-signal output must be a node or a node pair, not " + output->label();
+  }
   if (input != nullptr) {
     const Element* e = c.find(*input);
     if (e == nullptr || !(std::holds_alternative<VoltageSource>(e->data) ||

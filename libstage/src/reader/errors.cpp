@@ -3,6 +3,7 @@
 // `file:line:column: message`, the source line, and a caret under the column.
 #include "stage/errors.hpp"
 
+#include <fstream>
 #include <utility>
 
 namespace stage {
@@ -23,8 +24,19 @@ std::string caret_line(const std::string& line_text, int column) {
   return caret + '^';
 }
 
+// The line itself, read from the file, for errors raised after reading (an
+// analysis statement checked against the circuit); empty when unreadable.
+std::string line_from_file(const SourceLocation& where) {
+  std::ifstream file(where.file);
+  std::string line;
+  for (int n = 0; n < where.line && std::getline(file, line); ++n) {
+  }
+  return file ? line : std::string();
+}
+
 std::string format(const SourceLocation& where, const std::string& message,
-                   const std::string& line_text) {
+                   std::string line_text) {
+  if (line_text.empty() && where.line > 0) line_text = line_from_file(where);
   std::string text = where.file;
   if (where.line > 0) {
     text += ':' + std::to_string(where.line) + ':' + std::to_string(where.column);
