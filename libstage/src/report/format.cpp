@@ -26,9 +26,18 @@ std::string si(double value, std::string_view unit, int digits) {
     exponent = static_cast<int>(std::floor(std::log10(std::abs(value)) / 3.0)) * 3;
     exponent = std::clamp(exponent, -15, 12);
   }
-  const double scaled = value / std::pow(10.0, exponent);
-  const int integer_digits = std::abs(scaled) >= 100 ? 3 : std::abs(scaled) >= 10 ? 2 : 1;
-  const int decimals = std::max(0, digits - integer_digits);
+  double scaled = value / std::pow(10.0, exponent);
+  const auto decimals_for = [digits](double v) {
+    const int integer_digits = std::abs(v) >= 100 ? 3 : std::abs(v) >= 10 ? 2 : 1;
+    return std::max(0, digits - integer_digits);
+  };
+  // 999.96 m rounds to "1000.0 m": show it as 1.000 of the next prefix.
+  const double step = std::pow(10.0, -decimals_for(scaled));
+  if (std::abs(std::round(scaled / step) * step) >= 1000 && exponent < 12) {
+    exponent += 3;
+    scaled /= 1000;
+  }
+  const int decimals = decimals_for(scaled);
   char buffer[64];
   std::snprintf(buffer, sizeof buffer, "%.*f", decimals, scaled);
   const char* prefix = kPrefixes[(exponent + 15) / 3];
