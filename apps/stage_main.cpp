@@ -36,7 +36,7 @@ Examples:
 
 Exit status: 0 done, 2 error in the input (file, line and column are shown, nothing ran),
 3 the circuit could not be solved (the nodes or elements involved are named).
-Models: `include "general.stage"` finds files next to the circuit, then in $STAGE_MODEL_PATH
+Models: `include "transistors.stage"` finds files next to the circuit, then in $STAGE_MODEL_PATH
 (colon-separated), then in the installed model library.)";
 
 struct Settings {
