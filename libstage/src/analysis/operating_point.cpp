@@ -187,6 +187,9 @@ BiasResult describe_operating_point(const mna::System& system, const std::vector
   mna::OperatingPointReport report;
   for (const auto& device : system.devices()) {
     device->report(at, report);
+    if (const auto current = device->reported_current(at)) {
+      result.element_currents.emplace_back(device->name() + ".current", *current);
+    }
     if (const auto* v = dynamic_cast<const devices::VoltageSourceDevice*>(device.get())) {
       const double i = x[v->branch()];
       result.supplies.push_back({v->name(), i, i * (x[v->p()] - x[v->n()])});
@@ -195,7 +198,6 @@ BiasResult describe_operating_point(const mna::System& system, const std::vector
       result.supplies.push_back({c->name(), i, i * (x[c->b()] - x[c->a()])});
     }
   }
-  result.element_currents = std::move(report.currents);
   result.bipolars = std::move(report.bipolars);
   result.diodes = std::move(report.diodes);
 

@@ -24,7 +24,7 @@ SignalRecorder::SignalRecorder(const mna::System& system, const std::vector<Sign
     const auto& topology = system.topology();
     for (mna::Index i = 1; i <= system.size(); ++i) {
       if (topology.kind(i) != mna::Topology::Kind::node) continue;
-      probes_.push_back({i, mna::kGroundIndex, nullptr, 0});
+      probes_.push_back({i, mna::kGroundIndex, nullptr});
       result_.signals.push_back({topology.name(i), {}});
     }
     for (const auto& d : system.devices()) add_every_current(*d);
@@ -37,7 +37,7 @@ SignalRecorder::SignalRecorder(const mna::System& system, const std::vector<Sign
         probes_.push_back(
             {node_index(system, ref.a),
              ref.kind == SignalRef::Kind::node_pair ? node_index(system, ref.b) : mna::kGroundIndex,
-             nullptr, 0});
+             nullptr});
         result_.signals.push_back({ref.label(), {}});
         break;
       case SignalRef::Kind::element_current: {
@@ -51,24 +51,17 @@ SignalRecorder::SignalRecorder(const mna::System& system, const std::vector<Sign
 }
 
 void SignalRecorder::add_every_current(const mna::Device& device) {
-  scratch_ = {};
-  device.report(system_.request(zero_.data()), scratch_);
-  for (std::size_t k = 0; k < scratch_.currents.size(); ++k) {
-    probes_.push_back({mna::kGroundIndex, mna::kGroundIndex, &device, k});
-    result_.signals.push_back({scratch_.currents[k].first, {}});
-  }
+  if (!device.reported_current(system_.request(zero_.data()))) return;
+  probes_.push_back({mna::kGroundIndex, mna::kGroundIndex, &device});
+  result_.signals.push_back({device.name() + ".current", {}});
 }
 
 void SignalRecorder::add_current(const mna::Device& device, const std::string& name) {
-  scratch_ = {};
-  device.report(system_.request(zero_.data()), scratch_);
-  for (std::size_t k = 0; k < scratch_.currents.size(); ++k) {
-    if (scratch_.currents[k].first != name) continue;
-    probes_.push_back({mna::kGroundIndex, mna::kGroundIndex, &device, k});
-    result_.signals.push_back({name, {}});
-    return;
+  if (!device.reported_current(system_.request(zero_.data()))) {
+    throw std::invalid_argument("element '" + device.name() + "' reports no current");
   }
-  throw std::invalid_argument("element '" + device.name() + "' reports no current");
+  probes_.push_back({mna::kGroundIndex, mna::kGroundIndex, &device});
+  result_.signals.push_back({name, {}});
 }
 
 void SignalRecorder::record(double t, const std::vector<double>& x) {
@@ -78,14 +71,8 @@ void SignalRecorder::record(double t, const std::vector<double>& x) {
   at.time = t;
   for (std::size_t s = 0; s < probes_.size(); ++s) {
     const Probe& probe = probes_[s];
-    double value = x[probe.p] - x[probe.n];
-    if (probe.device != nullptr) {
-      scratch_.currents.clear();
-      scratch_.bipolars.clear();
-      scratch_.diodes.clear();
-      probe.device->report(at, scratch_);
-      value = scratch_.currents[probe.position].second;
-    }
+    const double value =
+        probe.device != nullptr ? *probe.device->reported_current(at) : x[probe.p] - x[probe.n];
     result_.signals[s].values.push_back(value);
   }
 }

@@ -21,11 +21,10 @@ class SignalRecorder {
   void record(double t, const std::vector<double>& x);
 
  private:
-  // A voltage x[p] - x[n], or entry `position` of a device's reported currents.
+  // A voltage x[p] - x[n], or a device's reported current.
   struct Probe {
     mna::Index p = mna::kGroundIndex, n = mna::kGroundIndex;
     const mna::Device* device = nullptr;
-    std::size_t position = 0;
   };
   void add_current(const mna::Device& device, const std::string& name);
   void add_every_current(const mna::Device& device);
@@ -33,7 +32,6 @@ class SignalRecorder {
   const mna::System& system_;
   TransientResult& result_;
   std::vector<Probe> probes_;
-  mna::OperatingPointReport scratch_;  // reused: currents read per sample
   std::vector<double> zero_;
 };
 

@@ -41,8 +41,8 @@ void VcvsDevice::describe_topology(mna::TopologyCheck& check) const {
   check.fixes_voltage(p_, n_, name());
 }
 
-void VcvsDevice::report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const {
-  out.currents.emplace_back(name() + ".current", at.x[k_]);
+std::optional<double> VcvsDevice::reported_current(const mna::EvalRequest& at) const {
+  return at.x[k_];
 }
 
 VccsDevice::VccsDevice(std::string name, mna::Index a, mna::Index b, mna::Index cp, mna::Index cn,
@@ -64,8 +64,8 @@ void VccsDevice::describe_topology(mna::TopologyCheck& check) const {
   check.forces_current(a_, b_, name());
 }
 
-void VccsDevice::report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const {
-  out.currents.emplace_back(name() + ".current", gain_ * (at.x[cp_] - at.x[cn_]));
+std::optional<double> VccsDevice::reported_current(const mna::EvalRequest& at) const {
+  return gain_ * (at.x[cp_] - at.x[cn_]);
 }
 
 CccsDevice::CccsDevice(std::string name, mna::Index a, mna::Index b, std::string sense, double gain)
@@ -89,8 +89,8 @@ void CccsDevice::describe_topology(mna::TopologyCheck& check) const {
   check.forces_current(a_, b_, name());
 }
 
-void CccsDevice::report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const {
-  out.currents.emplace_back(name() + ".current", gain_ * at.x[s_]);
+std::optional<double> CccsDevice::reported_current(const mna::EvalRequest& at) const {
+  return gain_ * at.x[s_];
 }
 
 CcvsDevice::CcvsDevice(std::string name, mna::Index p, mna::Index n, mna::Index branch,
@@ -116,8 +116,8 @@ void CcvsDevice::describe_topology(mna::TopologyCheck& check) const {
   check.fixes_voltage(p_, n_, name());
 }
 
-void CcvsDevice::report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const {
-  out.currents.emplace_back(name() + ".current", at.x[k_]);
+std::optional<double> CcvsDevice::reported_current(const mna::EvalRequest& at) const {
+  return at.x[k_];
 }
 
 }  // namespace stage::devices

@@ -16,7 +16,7 @@ class VcvsDevice final : public mna::Device {
   void declare(mna::PatternBuilder& pattern) override;
   void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
   void describe_topology(mna::TopologyCheck& check) const override;
-  void report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const override;
+  std::optional<double> reported_current(const mna::EvalRequest& at) const override;
   mna::Index branch() const override { return k_; }
 
  private:
@@ -34,7 +34,7 @@ class VccsDevice final : public mna::Device {
   void declare(mna::PatternBuilder& pattern) override;
   void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
   void describe_topology(mna::TopologyCheck& check) const override;
-  void report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const override;
+  std::optional<double> reported_current(const mna::EvalRequest& at) const override;
 
  private:
   mna::Index a_, b_, cp_, cn_;
@@ -49,7 +49,7 @@ class CccsDevice final : public mna::Device {
   void declare(mna::PatternBuilder& pattern) override;
   void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
   void describe_topology(mna::TopologyCheck& check) const override;
-  void report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const override;
+  std::optional<double> reported_current(const mna::EvalRequest& at) const override;
 
  private:
   mna::Index a_, b_, s_ = 0;
@@ -66,7 +66,7 @@ class CcvsDevice final : public mna::Device {
   void declare(mna::PatternBuilder& pattern) override;
   void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
   void describe_topology(mna::TopologyCheck& check) const override;
-  void report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const override;
+  std::optional<double> reported_current(const mna::EvalRequest& at) const override;
   mna::Index branch() const override { return k_; }
 
  private:

@@ -23,8 +23,8 @@ void ResistorDevice::describe_topology(mna::TopologyCheck& check) const {
   check.conducts(a_, b_, name());
 }
 
-void ResistorDevice::report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const {
-  out.currents.emplace_back(name() + ".current", conductance_ * (at.x[a_] - at.x[b_]));
+std::optional<double> ResistorDevice::reported_current(const mna::EvalRequest& at) const {
+  return conductance_ * (at.x[a_] - at.x[b_]);
 }
 
 CapacitorDevice::CapacitorDevice(std::string name, mna::Index a, mna::Index b, double capacitance,
@@ -78,8 +78,8 @@ void InductorDevice::describe_topology(mna::TopologyCheck& check) const {
   check.fixes_voltage(a_, b_, name());
 }
 
-void InductorDevice::report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const {
-  out.currents.emplace_back(name() + ".current", at.x[k_]);
+std::optional<double> InductorDevice::reported_current(const mna::EvalRequest& at) const {
+  return at.x[k_];
 }
 
 }  // namespace stage::devices

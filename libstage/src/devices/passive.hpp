@@ -11,7 +11,7 @@ class ResistorDevice final : public mna::Device {
   void declare(mna::PatternBuilder& pattern) override;
   void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
   void describe_topology(mna::TopologyCheck& check) const override;
-  void report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const override;
+  std::optional<double> reported_current(const mna::EvalRequest& at) const override;
 
  private:
   mna::Index a_, b_;
@@ -47,7 +47,7 @@ class InductorDevice final : public mna::Device {
   void declare(mna::PatternBuilder& pattern) override;
   void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
   void describe_topology(mna::TopologyCheck& check) const override;
-  void report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const override;
+  std::optional<double> reported_current(const mna::EvalRequest& at) const override;
   mna::Index branch() const override { return k_; }
   std::optional<double> initial_current() const { return initial_current_; }
 

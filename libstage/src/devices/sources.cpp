@@ -44,8 +44,8 @@ void VoltageSourceDevice::describe_topology(mna::TopologyCheck& check) const {
   check.fixes_voltage(p_, n_, name());
 }
 
-void VoltageSourceDevice::report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const {
-  out.currents.emplace_back(name() + ".current", at.x[k_]);
+std::optional<double> VoltageSourceDevice::reported_current(const mna::EvalRequest& at) const {
+  return at.x[k_];
 }
 
 CurrentSourceDevice::CurrentSourceDevice(std::string name, mna::Index a, mna::Index b,
@@ -67,8 +67,8 @@ void CurrentSourceDevice::describe_topology(mna::TopologyCheck& check) const {
   check.forces_current(a_, b_, name());
 }
 
-void CurrentSourceDevice::report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const {
-  out.currents.emplace_back(name() + ".current", value_.at(at));
+std::optional<double> CurrentSourceDevice::reported_current(const mna::EvalRequest& at) const {
+  return value_.at(at);
 }
 
 }  // namespace stage::devices

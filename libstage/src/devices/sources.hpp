@@ -50,7 +50,7 @@ class VoltageSourceDevice final : public IndependentSource {
   void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
   void ac_excitation(std::complex<double>* b) const override;
   void describe_topology(mna::TopologyCheck& check) const override;
-  void report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const override;
+  std::optional<double> reported_current(const mna::EvalRequest& at) const override;
   mna::Index branch() const override { return k_; }
   mna::Index p() const { return p_; }
   mna::Index n() const { return n_; }
@@ -68,7 +68,7 @@ class CurrentSourceDevice final : public IndependentSource {
   void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
   void ac_excitation(std::complex<double>* b) const override;
   void describe_topology(mna::TopologyCheck& check) const override;
-  void report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const override;
+  std::optional<double> reported_current(const mna::EvalRequest& at) const override;
   mna::Index a() const { return a_; }
   mna::Index b() const { return b_; }
 

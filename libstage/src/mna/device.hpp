@@ -27,6 +27,7 @@
 #pragma once
 
 #include <complex>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -70,8 +71,6 @@ struct EvalOutput {
 struct OperatingPointReport {
   std::vector<BipolarOperatingPoint> bipolars;
   std::vector<DiodeOperatingPoint> diodes;
-  // "<name>.current" -> value, in the sign convention of spec section 3.
-  std::vector<std::pair<std::string, double>> currents;
 };
 
 class Device {
@@ -109,11 +108,15 @@ class Device {
   // singular system (floating nodes, loops of voltage sources, cut-sets).
   virtual void describe_topology(TopologyCheck& check) const = 0;
 
-  // Report currents and operating point at solution x.
-  virtual void report(const EvalRequest& at, OperatingPointReport& out) const {
-    (void)at;
-    (void)out;
+  // The current this element reports as "<name>.current" at solution x, in
+  // the sign convention of spec section 3; nothing for elements that report
+  // none. Cheap and allocation-free: transients read it at every step.
+  virtual std::optional<double> reported_current(const EvalRequest& /*at*/) const {
+    return std::nullopt;
   }
+
+  // A semiconductor's operating point at solution x, for bias reports.
+  virtual void report(const EvalRequest& /*at*/, OperatingPointReport& /*out*/) const {}
 
   // Row of the branch current this device owns, if it has one (voltage
   // sources and inductors; current-controlled sources sense it).
