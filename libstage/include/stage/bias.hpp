@@ -63,6 +63,10 @@ struct BiasResult {
   std::vector<BipolarOperatingPoint> bipolars;
   std::vector<DiodeOperatingPoint> diodes;
   std::vector<SupplyPower> supplies;
+  // Figures that stand but should not be trusted blindly: a device far
+  // outside the range its model describes, a nearly singular system. Each
+  // names the device or node.
+  std::vector<std::string> warnings;
 
   double voltage(const std::string& node) const;     // throws std::out_of_range
   double current(const std::string& element) const;  // element name, without ".current"

@@ -66,6 +66,13 @@ bool NewtonSolver::update_small(const std::vector<double>& x) const {
   return true;
 }
 
+mna::Index NewtonSolver::first_non_finite(const std::vector<double>& x) const {
+  for (std::size_t i = 1; i < x.size(); ++i) {
+    if (!std::isfinite(x[i]) || !std::isfinite(residual_[i])) return static_cast<mna::Index>(i);
+  }
+  return mna::kGroundIndex;
+}
+
 NewtonOutcome NewtonSolver::solve(std::vector<double>& x, const NewtonProblem& problem) {
   NewtonOutcome outcome;
   mna::EvalRequest request = problem.request;
@@ -75,6 +82,11 @@ NewtonOutcome NewtonSolver::solve(std::vector<double>& x, const NewtonProblem& p
     request.limit = iteration > 0;
     system_.evaluate(request, work_);
     assemble(problem, x);
+    if (const mna::Index bad = first_non_finite(x); bad != mna::kGroundIndex) {
+      outcome.status = NewtonStatus::diverged;
+      outcome.culprit = bad;
+      return outcome;
+    }
     if (last_update_small && !work_.limited && residual_small()) {
       outcome.status = NewtonStatus::converged;
       return outcome;
@@ -84,7 +96,7 @@ NewtonOutcome NewtonSolver::solve(std::vector<double>& x, const NewtonProblem& p
       factored_valid_ = lu_.factor(jacobian_.data());
       if (!factored_valid_) {
         outcome.status = NewtonStatus::singular;
-        outcome.singular_unknown = lu_.singular_column() + 1;
+        outcome.culprit = lu_.singular_column() + 1;
         return outcome;
       }
       factored_ = jacobian_;

@@ -27,12 +27,16 @@ struct NewtonProblem {
   int max_iterations = 150;
 };
 
-enum class NewtonStatus { converged, not_converged, singular };
+// not_converged and diverged are recoverable (a homotopy step or a shorter
+// time step may still succeed); diverged means an unknown or a residual left
+// the finite numbers, so the iteration stopped there.
+enum class NewtonStatus { converged, not_converged, singular, diverged };
 
 struct NewtonOutcome {
   NewtonStatus status = NewtonStatus::not_converged;
   int iterations = 0;  // linear solves done
-  mna::Index singular_unknown = mna::kGroundIndex;
+  // The unknown behind a singular pivot or the first non-finite value.
+  mna::Index culprit = mna::kGroundIndex;
 };
 
 class NewtonSolver {
@@ -59,6 +63,7 @@ class NewtonSolver {
   void assemble(const NewtonProblem& problem, const std::vector<double>& x);
   bool residual_small() const;
   bool update_small(const std::vector<double>& x) const;
+  mna::Index first_non_finite(const std::vector<double>& x) const;
 
   const mna::System& system_;
   SolverOptions options_;

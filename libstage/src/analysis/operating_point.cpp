@@ -72,8 +72,10 @@ bool conductance_stepping(NewtonSolver& newton, std::vector<double>& x, int& ite
   return false;
 }
 
-// Raises every independent source from zero to its full value.
-bool source_stepping(NewtonSolver& newton, std::vector<double>& x, int& iterations) {
+// Raises every independent source from zero to its full value; `reached`
+// is the largest fraction solved.
+bool source_stepping(NewtonSolver& newton, std::vector<double>& x, int& iterations,
+                     double& reached) {
   std::fill(x.begin(), x.end(), 0.0);
   reset_limiting(newton.system());
   std::vector<double> good = x;
@@ -86,7 +88,7 @@ bool source_stepping(NewtonSolver& newton, std::vector<double>& x, int& iteratio
                   outcome.status == NewtonStatus::converged ? "converged" : "failed");
     if (outcome.status == NewtonStatus::converged) {
       good = x;
-      scale = target;
+      scale = reached = target;
       if (scale >= 1.0) return true;
       step = std::min(0.25, step * 1.5);
     } else {
@@ -99,31 +101,113 @@ bool source_stepping(NewtonSolver& newton, std::vector<double>& x, int& iteratio
   return false;
 }
 
-[[noreturn]] void fail(const NewtonSolver& newton, const NewtonOutcome& last) {
-  const mna::System& system = newton.system();
-  if (last.status == NewtonStatus::singular) {
-    const std::string name = system.topology().name(last.singular_unknown);
+// What the plain Newton attempt saw when it failed. Its last iterate tells
+// where the circuit runs away; the homotopies end on tiny steps that say
+// little.
+struct FailedAttempt {
+  NewtonOutcome outcome;
+  std::vector<double> x, update;
+};
+
+// The unknown the attempt blames: the first non-finite one, else the one
+// that moved most in the last iteration.
+mna::Index runaway_unknown(const FailedAttempt& attempt) {
+  if (attempt.outcome.status == NewtonStatus::diverged) return attempt.outcome.culprit;
+  mna::Index worst = 1;
+  for (std::size_t i = 1; i < attempt.update.size(); ++i) {
+    if (std::abs(attempt.update[i]) > std::abs(attempt.update[worst])) {
+      worst = static_cast<mna::Index>(i);
+    }
+  }
+  return worst;
+}
+
+std::string joined(const std::vector<std::string>& names) {
+  std::string list;
+  for (const auto& n : names) list += (list.empty() ? "" : ", ") + n;
+  return list;
+}
+
+[[noreturn]] void fail(const mna::System& system, const FailedAttempt& attempt,
+                       double source_fraction) {
+  const auto& topology = system.topology();
+  if (attempt.outcome.status == NewtonStatus::singular) {
+    const std::string name = topology.name(attempt.outcome.culprit);
     throw NumericalError("the DC system is singular at '" + name +
                              "': no unique operating point (check for a node held by nothing "
                              "but junctions in cutoff or by controlled sources alone)",
                          {name});
   }
-  const auto worst = system.worst_unknowns(newton.last_update(), 3);
-  std::string message =
-      "no DC operating point found (Newton, conductance stepping and source "
-      "stepping all failed); in the last attempt these did not settle:";
-  for (const auto& name : worst) {
-    const auto index = system.topology().find_unknown(name);
-    message += " " + name;
-    if (index) {
-      message += fmt::format(" (last change {:.3g}, residual {:.3g})", newton.last_update()[*index],
-                             newton.residual()[*index]);
-    }
+  const mna::Index i = runaway_unknown(attempt);
+  const std::string name = topology.name(i);
+  const std::string quantity =
+      topology.is_voltage(i) ? "the voltage at node '" + name + "'" : "the current " + name;
+  const std::string how = std::isfinite(attempt.x[i]) && std::isfinite(attempt.update[i])
+                              ? fmt::format("{} ran to {:.4g} (last change {:.3g})", quantity,
+                                            attempt.x[i], attempt.update[i])
+                              : quantity + " left the finite numbers";
+  const auto elements = system.elements_at(i);
+  std::string message = "no DC operating point: in plain Newton " + how +
+                        "; conductance stepping and source stepping failed too";
+  if (source_fraction > 0) {
+    message +=
+        fmt::format(" (the circuit solves with its sources at up to {:.3g} % of their values)",
+                    100 * source_fraction);
   }
-  throw NumericalError(message, worst);
+  message += ". Elements at '" + name + "': " + joined(elements) +
+             " (does a source force a current or voltage that nothing in the circuit can carry?)";
+  std::vector<std::string> involved{name};
+  involved.insert(involved.end(), elements.begin(), elements.end());
+  throw NumericalError(message, involved);
 }
 
 }  // namespace
+
+std::vector<std::string> verify_operating_point(const mna::System& system,
+                                                const SolverOptions& options,
+                                                const std::vector<double>& x) {
+  const auto& topology = system.topology();
+  mna::Workspace w = system.make_workspace();
+  system.evaluate(system.request(x.data()), w);
+  // KCL at every node (the branch equation elsewhere) against the tolerance
+  // Newton converged to: the absolute tolerance plus the relative tolerance
+  // times the size of the terms meeting in that row.
+  std::vector<double> scale(x.size(), 0.0);
+  const auto& pattern = system.pattern();
+  for (int col = 0; col < pattern.n; ++col) {
+    for (int s = pattern.column_start[col]; s < pattern.column_start[col + 1]; ++s) {
+      scale[pattern.row[s] + 1] += std::abs(w.g[s] * x[col + 1]);
+    }
+  }
+  for (mna::Index i = 1; i <= system.size(); ++i) {
+    const bool kcl = topology.is_voltage(i);
+    const double allowed = (kcl ? options.current_tolerance : options.voltage_tolerance) +
+                           options.relative_tolerance * scale[i];
+    if (!std::isfinite(x[i]) || !(std::abs(w.f[i]) <= allowed)) {
+      const std::string name = topology.name(i);
+      throw NumericalError(
+          fmt::format("the DC solution fails its check at '{}': value {:.4g}, {} residual {:.3g} "
+                      "against an allowed {:.3g}",
+                      name, x[i], kcl ? "KCL" : "branch", w.f[i], allowed),
+          {name});
+    }
+  }
+  mna::ModelRangeFindings range;
+  const mna::EvalRequest at = system.request(x.data());
+  for (const auto& d : system.devices()) d->check_model_range(at, range);
+  if (!range.invalid.empty()) {
+    std::vector<std::string> involved;
+    std::string message = "no DC operating point within the device models: ";
+    for (const auto& finding : range.invalid) {
+      message += (involved.empty() ? "" : "; ") + finding.message;
+      involved.push_back(finding.device);
+    }
+    throw NumericalError(message, involved);
+  }
+  std::vector<std::string> warnings;
+  for (auto& finding : range.extrapolated) warnings.push_back(std::move(finding.message));
+  return warnings;
+}
 
 OperatingPoint solve_operating_point(NewtonSolver& newton, std::vector<double>& x) {
   OperatingPoint how;
@@ -141,15 +225,17 @@ OperatingPoint solve_operating_point(NewtonSolver& newton, std::vector<double>& 
     how.reciprocal_condition = newton.lu().rcond();
     spdlog::debug("bias point found by {}; reciprocal condition estimate {:.3g}", to_string(method),
                   how.reciprocal_condition);
+    how.warnings = verify_operating_point(newton.system(), newton.options(), x);
     if (how.reciprocal_condition < kNearlySingular) {
-      spdlog::warn(
-          "the bias point is nearly singular (reciprocal condition {:.2g}): a node may "
-          "hang on nothing but junctions in cutoff",
-          how.reciprocal_condition);
+      how.warnings.push_back(
+          fmt::format("the bias point is nearly singular (reciprocal condition {:.2g}): a node may "
+                      "hang on nothing but junctions in cutoff",
+                      how.reciprocal_condition));
     }
     return how;
   };
   if (outcome.status == NewtonStatus::converged) return finish(BiasMethod::newton);
+  const FailedAttempt plain{outcome, x, newton.last_update()};
   // A Jacobian can be singular only at the cold start, where every junction
   // is off and a node driven by current sources alone hangs on picoamp
   // conductances; conductance stepping gives every node a path to ground.
@@ -161,10 +247,11 @@ OperatingPoint solve_operating_point(NewtonSolver& newton, std::vector<double>& 
   if (conductance_stepping(newton, x, how.newton_iterations)) {
     return finish(BiasMethod::conductance_stepping);
   }
-  if (source_stepping(newton, x, how.newton_iterations)) {
+  double source_fraction = 0;
+  if (source_stepping(newton, x, how.newton_iterations, source_fraction)) {
     return finish(BiasMethod::source_stepping);
   }
-  fail(newton, outcome);
+  fail(newton.system(), plain, source_fraction);
 }
 
 BiasResult describe_operating_point(const mna::System& system, const std::vector<double>& x,
@@ -174,6 +261,7 @@ BiasResult describe_operating_point(const mna::System& system, const std::vector
   result.newton_iterations = how.newton_iterations;
   result.method = how.method;
   result.reciprocal_condition = how.reciprocal_condition;
+  result.warnings = how.warnings;
   result.temperature = system.temperature();
 
   const auto& topology = system.topology();

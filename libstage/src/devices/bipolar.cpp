@@ -3,6 +3,8 @@
 // nonzero base, emitter and collector resistances, Newton limiting of both
 // junctions, and the operating-point report. A pnp is the npn with every
 // voltage and current mirrored.
+#include <spdlog/fmt/fmt.h>
+
 #include <cmath>
 
 #include "devices/gummel_poon.hpp"
@@ -19,6 +21,11 @@ namespace {
 // emitter (each the terminal itself when its resistance is zero).
 enum : int { kC, kB, kE, kS, kCi, kBi, kEi, kNodes };
 using System = LocalSystem<kNodes>;
+
+// A collector current this many times the forward knee current is far into
+// high injection, beyond where a Gummel–Poon model is characterised (our own
+// threshold, written into the spec).
+constexpr double kFarBeyondKnee = 10;
 
 // Internal junction voltage above which a junction counts as conducting when
 // the region is named: the conduction edge of a silicon junction (common
@@ -132,6 +139,30 @@ class BipolarDevice final : public mna::Device {
     check.conducts(n[kBi], n[kEi], name());
     check.conducts(n[kBi], n[kCi], name());
     check.capacitive(n[kS], n[kCi], name());
+  }
+
+  void check_model_range(const mna::EvalRequest& at, mna::ModelRangeFindings& out) const override {
+    const BipolarParameters p = scale_bipolar(model_, area_, at.temperature);
+    const JunctionVoltages v = junction_voltages(pol_, scatter_.gather(at.x));
+    const std::size_t invalid_before = out.invalid.size();
+    check_exponent_range(name(), "base–emitter", v.vbe, p.forward_ideality_vt, out.invalid);
+    check_exponent_range(name(), "base–collector", v.vbc, p.reverse_ideality_vt, out.invalid);
+    if (p.be_leakage > 0)
+      check_exponent_range(name(), "base–emitter", v.vbe, p.be_leakage_ideality_vt, out.invalid);
+    if (p.bc_leakage > 0)
+      check_exponent_range(name(), "base–collector", v.vbc, p.bc_leakage_ideality_vt, out.invalid);
+    if (out.invalid.size() > invalid_before || p.inverse_knee_forward == 0) return;
+    const double collector = gummel_poon_currents(p, v.vbe, v.vbc).ict;
+    const double knee = 1 / p.inverse_knee_forward;
+    if (collector > kFarBeyondKnee * knee) {
+      out.extrapolated.push_back(
+          {name(),
+           fmt::format(
+               "{}: collector current {:.3g} A is {:.0f} times its model's high-injection knee "
+               "({:.3g} A), far outside the range such a model describes; the device's own ratings "
+               "govern",
+               name(), collector, collector / knee, knee)});
+    }
   }
 
   void report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const override {

@@ -130,6 +130,16 @@ class DiodeDevice final : public mna::Device {
     check.conducts(n[kJunction], n[kCathode], name());
   }
 
+  void check_model_range(const mna::EvalRequest& at, mna::ModelRangeFindings& out) const override {
+    const DiodeParameters p = scale(model_, area_, at.temperature);
+    const auto x = scatter_.gather(at.x);
+    const double v = x[kJunction] - x[kCathode];
+    check_exponent_range(name(), "anode–cathode", v, p.nvt, out.invalid);
+    if (!std::isinf(p.breakdown_voltage)) {
+      check_exponent_range(name(), "breakdown", -(v + p.breakdown_voltage), p.nvt, out.invalid);
+    }
+  }
+
   void report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const override {
     const DiodeParameters p = scale(model_, area_, at.temperature);
     const auto x = scatter_.gather(at.x);

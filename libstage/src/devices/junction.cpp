@@ -1,6 +1,8 @@
 // Shared pn-junction helpers; see junction.hpp for the relations used.
 #include "devices/junction.hpp"
 
+#include <spdlog/fmt/fmt.h>
+
 #include <cmath>
 #include <numbers>
 
@@ -16,6 +18,20 @@ ValueSlope junction_current(double saturation_current, double v, double nvt) {
   }
   const double e = std::exp(kMaxExponent);
   return {saturation_current * (e * (1 + arg - kMaxExponent) - 1), saturation_current * e / nvt};
+}
+
+void check_exponent_range(const std::string& device, std::string_view junction, double v,
+                          double nvt, std::vector<mna::ModelRangeFinding>& invalid) {
+  const double edge = kMaxExponent * nvt;
+  if (!(v > edge)) return;
+  invalid.push_back(
+      {device,
+       fmt::format(
+           "{}: its {} junction is driven to {:.4g} V, beyond {:.4g} V where the model's "
+           "exponential "
+           "holds; nothing in the circuit limits the junction's current (a source or a very low "
+           "resistance across it?)",
+           device, junction, v, edge)});
 }
 
 ValueSlope depletion_charge(double v, double c0, double phi, double m, double fill) {

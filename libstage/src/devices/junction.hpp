@@ -3,6 +3,12 @@
 // limiting and the temperature scaling of junction parameters.
 #pragma once
 
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include "mna/device.hpp"
+
 namespace stage::devices {
 
 // A quantity and its derivative with respect to the junction voltage.
@@ -16,6 +22,12 @@ struct ValueSlope {
 // unlimited evaluation (a report, a derivative check far out) stays finite.
 inline constexpr double kMaxExponent = 80;
 ValueSlope junction_current(double saturation_current, double v, double nvt);
+
+// Adds to `invalid` a message naming the device and its junction when v lies
+// beyond nvt * kMaxExponent, where junction_current leaves the model for its
+// tangent: a solution there is not a solution of the model.
+void check_exponent_range(const std::string& device, std::string_view junction, double v,
+                          double nvt, std::vector<mna::ModelRangeFinding>& invalid);
 
 // Depletion charge of a junction with zero-bias capacitance c0, built-in
 // potential phi and grading m: C(v) = c0 / (1 - v/phi)^m below fill*phi, and

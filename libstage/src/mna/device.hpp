@@ -73,6 +73,22 @@ struct OperatingPointReport {
   std::vector<DiodeOperatingPoint> diodes;
 };
 
+// Where a solution lies against the range a device's model describes.
+// `invalid`: the model's own equations were not evaluated there (a junction
+// exponent beyond kMaxExponent, continued by its tangent only so that Newton
+// stays finite), so the solution is not one of the model and must not be
+// reported as a result. `extrapolated`: the equations hold, but far outside
+// where such a model is characterised (a collector current many times the
+// high-injection knee); the result stands with a warning naming the device.
+struct ModelRangeFinding {
+  std::string device;
+  std::string message;  // names the device, its junction or current, and the bound
+};
+struct ModelRangeFindings {
+  std::vector<ModelRangeFinding> invalid;
+  std::vector<ModelRangeFinding> extrapolated;
+};
+
 class Device {
  public:
   explicit Device(std::string name) : name_(std::move(name)) {}
@@ -117,6 +133,12 @@ class Device {
 
   // A semiconductor's operating point at solution x, for bias reports.
   virtual void report(const EvalRequest& /*at*/, OperatingPointReport& /*out*/) const {}
+
+  // Adds a message naming this device to `out` when solution x lies outside
+  // its model's range (see ModelRangeFindings); adds nothing inside it.
+  // Called once per accepted solution, so it may allocate when it finds
+  // something, never otherwise.
+  virtual void check_model_range(const EvalRequest& /*at*/, ModelRangeFindings& /*out*/) const {}
 
   // Row of the branch current this device owns, if it has one (voltage
   // sources and inductors; current-controlled sources sense it).

@@ -88,4 +88,13 @@ std::vector<std::string> System::worst_unknowns(std::span<const double> values, 
   return names;
 }
 
+std::vector<std::string> System::elements_at(Index i) const {
+  TopologyCheck check(topology_);
+  for (const auto& d : devices_) {
+    if (d->branch() == i) return {d->name()};
+    d->describe_topology(check);
+  }
+  return check.elements_at(i);
+}
+
 }  // namespace stage::mna

@@ -57,23 +57,27 @@ Json to_json(const BiasResult& r) {
   Json supplies = Json::object();
   for (const auto& s : r.supplies)
     supplies[s.name] = Json{{"current", s.current}, {"power", s.power}};
-  return Json{{"kind", "bias"},
-              {"converged", r.converged},
-              {"newton_iterations", r.newton_iterations},
-              {"method", std::string(to_string(r.method))},
-              {"temperature_K", r.temperature},
-              {"max_kcl_residual_A", r.max_kcl_residual},
-              {"reciprocal_condition", r.reciprocal_condition},
-              {"node_voltages", pairs_json(r.node_voltages)},
-              {"element_currents", pairs_json(r.element_currents)},
-              {"devices", devices},
-              {"supplies", supplies}};
+  Json json{{"kind", "bias"},
+            {"converged", r.converged},
+            {"newton_iterations", r.newton_iterations},
+            {"method", std::string(to_string(r.method))},
+            {"temperature_K", r.temperature},
+            {"max_kcl_residual_A", r.max_kcl_residual},
+            {"reciprocal_condition", r.reciprocal_condition},
+            {"node_voltages", pairs_json(r.node_voltages)},
+            {"element_currents", pairs_json(r.element_currents)},
+            {"devices", devices},
+            {"supplies", supplies}};
+  if (!r.warnings.empty()) json["warnings"] = r.warnings;
+  return json;
 }
 
 void print_table(std::ostream& out, const BiasResult& r) {
   out << "Bias point: " << r.newton_iterations << " Newton iterations (" << to_string(r.method)
       << "), " << temperature_text(r.temperature) << ", largest KCL residual "
-      << si(r.max_kcl_residual, "A", 2) << "\n\n";
+      << si(r.max_kcl_residual, "A", 2) << "\n";
+  for (const auto& warning : r.warnings) out << "warning: " << warning << '\n';
+  out << '\n';
 
   TextTable nodes({"node", "voltage"});
   for (const auto& [name, v] : r.node_voltages) nodes.add_row({name, si(v, "V")});
@@ -161,6 +165,12 @@ void print_table(std::ostream& out, const SweepResult& r) {
     t.add_row(row);
   }
   t.print(out);
+  for (const auto& p : r.points) {
+    for (const auto& warning : p.bias.warnings) {
+      out << "warning at " << (temperature ? temperature_text(p.value) : si(p.value, "")) << ": "
+          << warning << '\n';
+    }
+  }
 }
 
 void write_csv(std::ostream& out, const SweepResult& r) {
