@@ -35,7 +35,8 @@ Examples:
                                            compare a model with its reference curves
 
 Exit status: 0 done, 2 error in the input (file, line and column are shown, nothing ran),
-3 the circuit could not be solved (the nodes or elements involved are named).
+3 the circuit could not be solved (the nodes or elements involved are named); every analysis
+that finished is still printed, and a failed one shows its error in its place.
 Models: `include "transistors.stage"` finds files next to the circuit, then in $STAGE_MODEL_PATH
 (colon-separated), then in the installed model library.)";
 
@@ -69,14 +70,25 @@ stage::ReadOptions read_options(const Settings& s) {
   return options;
 }
 
-int run(const Settings& s, bool check_only) {
+// `stage check`: everything `run` checks before it solves anything. A file
+// of models alone (a model library) has nothing to run and is fine.
+int check(const Settings& s) {
   const stage::Deck deck = stage::read_file(s.file, read_options(s));
-  stage::check_deck(deck);
-  if (check_only) {
-    std::cout << s.file << ": " << deck.circuit.elements().size() << " elements, "
-              << deck.analyses.size() << " analyses; no errors\n";
+  const stage::Circuit& c = deck.circuit;
+  const std::size_t models = c.bipolar_models().size() + c.diode_models().size();
+  if (c.elements().empty() && deck.analyses.empty()) {
+    if (models == 0) throw stage::InputError({s.file, 0, 0}, "the file defines nothing");
+    std::cout << s.file << ": " << models << " models, no elements (a model library); no errors\n";
     return 0;
   }
+  stage::check_deck(deck);
+  std::cout << s.file << ": " << c.elements().size() << " elements, " << deck.analyses.size()
+            << " analyses; no errors\n";
+  return 0;
+}
+
+int run(const Settings& s) {
+  const stage::Deck deck = stage::read_file(s.file, read_options(s));
   // Long work (headroom searches, sweeps) reports progress on one rewritten
   // line of stderr, only when stderr is a terminal.
   stage::RunOptions run_options;
@@ -99,7 +111,15 @@ int run(const Settings& s, bool check_only) {
       spdlog::info("wrote {}", path.string());
     }
   }
-  return 0;
+  // The results that were found are printed above; each failure is also
+  // told on stderr, and the status says the run did not complete.
+  for (const auto& analysis : result.analyses) {
+    if (const auto* failure = std::get_if<stage::AnalysisFailure>(&analysis)) {
+      std::cerr << "error: " << s.file << ':' << failure->where.line << ": analyze "
+                << failure->kind << ": " << failure->message << '\n';
+    }
+  }
+  return result.failed() ? stage::kExitNumericalError : 0;
 }
 
 }  // namespace
@@ -141,5 +161,5 @@ int main(int argc, char** argv) {
   if (s.verbose) spdlog::set_level(spdlog::level::debug);
   if (curves_cmd->parsed()) return curves_status;
 
-  return run_guarded([&] { return run(s, check_cmd->parsed()); });
+  return run_guarded([&] { return check_cmd->parsed() ? check(s) : run(s); });
 }

@@ -5,7 +5,9 @@
 #include <gtest/gtest.h>
 #include <sys/wait.h>
 
+#include <algorithm>
 #include <array>
+#include <cmath>
 #include <cstdio>
 #include <filesystem>
 #include <fstream>
@@ -18,11 +20,14 @@ namespace fs = std::filesystem;
 
 struct Outcome {
   int status = -1;
-  std::string out;  // stdout and stderr together
+  std::string out;  // stdout and stderr together, or stdout alone
 };
 
-Outcome run(const std::string& arguments) {
-  const std::string command = std::string(STAGE_BINARY_DIR) + "/apps/stage " + arguments + " 2>&1";
+enum class Stderr { merged, dropped };
+
+Outcome run(const std::string& arguments, Stderr err = Stderr::merged) {
+  const std::string command = std::string(STAGE_BINARY_DIR) + "/apps/stage " + arguments +
+                              (err == Stderr::merged ? " 2>&1" : " 2>/dev/null");
   Outcome o;
   FILE* pipe = popen(command.c_str(), "r");
   std::array<char, 4096> buffer{};
@@ -71,11 +76,11 @@ TEST(Command, NumericalFailureNamesTheNodeAndExitsThree) {
 // An analysis that cannot run as written stops the file before anything
 // runs: the bias statement above it prints nothing.
 TEST(Command, BadAnalysisStopsEverythingBeforeItRuns) {
-  const auto file = write_temp(
-      "bad_output.stage",
-      "vin = voltage(in, gnd, dc = 0 V, ac = 1 V)\nr1 = resistor(in, out, 1 kΩ)\n"
-      "rl = resistor(out, gnd, 1 kΩ)\nanalyze bias()\n"
-      "analyze headroom(input = vin, output = rl.current, frequency = 1 kHz)\n");
+  const auto file =
+      write_temp("bad_output.stage",
+                 "vin = voltage(in, gnd, dc = 0 V, ac = 1 V)\nr1 = resistor(in, out, 1 kΩ)\n"
+                 "rl = resistor(out, gnd, 1 kΩ)\nanalyze bias()\n"
+                 "analyze headroom(input = vin, output = rl.current, frequency = 1 kHz)\n");
   const auto o = run("run " + file.string());
   EXPECT_EQ(o.status, 2);
   EXPECT_NE(o.out.find(file.string() + ":5:1:"), std::string::npos) << o.out;
@@ -87,6 +92,87 @@ TEST(Command, CheckRunsNothing) {
   const auto o = run("check " + example("follower_32ohm.stage"));
   EXPECT_EQ(o.status, 0);
   EXPECT_NE(o.out.find("no errors"), std::string::npos);
+}
+
+// `check` finds without solving what would stop every analysis: the graph's
+// faults (exit 3, naming the elements), and a file with nothing to run
+// (exit 2). A file of models alone is a library and checks clean.
+TEST(Command, CheckFindsTopologyFaultsAndEmptyFiles) {
+  const auto check = [](const std::string& name, const std::string& text) {
+    return run("check " + write_temp(name, text).string());
+  };
+  const auto floating = check("floating.stage",
+                              "v1 = voltage(c, gnd, 1 V)\nr1 = resistor(a, b, 1 kΩ)\n"
+                              "analyze bias()\n");
+  EXPECT_EQ(floating.status, 3) << floating.out;
+  EXPECT_NE(floating.out.find("no DC path to ground"), std::string::npos) << floating.out;
+  EXPECT_NE(floating.out.find(" a"), std::string::npos) << floating.out;
+  const auto loop =
+      check("loop.stage", "v1 = voltage(a, gnd, 1 V)\nv2 = voltage(a, gnd, 2 V)\nanalyze bias()\n");
+  EXPECT_EQ(loop.status, 3) << loop.out;
+  EXPECT_NE(loop.out.find("v2"), std::string::npos) << loop.out;
+  const auto cut_set = check("cut_set.stage",
+                             "i1 = current(gnd, a, 1 mA)\nc1 = capacitor(a, gnd, 1 uF)\n"
+                             "analyze bias()\n");
+  EXPECT_EQ(cut_set.status, 3) << cut_set.out;
+  EXPECT_NE(cut_set.out.find("i1"), std::string::npos) << cut_set.out;
+  const auto shorted = check("shorted.stage",
+                             "v1 = voltage(a, a, 1 V)\nr1 = resistor(a, gnd, 1 kΩ)\n"
+                             "analyze bias()\n");
+  EXPECT_EQ(shorted.status, 3) << shorted.out;
+  EXPECT_NE(shorted.out.find("'v1' has both terminals on node 'a'"), std::string::npos)
+      << shorted.out;
+  const auto empty = check("empty.stage", "");
+  EXPECT_EQ(empty.status, 2) << empty.out;
+  EXPECT_NE(empty.out.find("defines nothing"), std::string::npos) << empty.out;
+  const auto nothing_to_run =
+      check("no_analysis.stage", "v1 = voltage(a, gnd, 1 V)\nr1 = resistor(a, gnd, 1 kΩ)\n");
+  EXPECT_EQ(nothing_to_run.status, 2) << nothing_to_run.out;
+  EXPECT_NE(nothing_to_run.out.find("no `analyze` statement"), std::string::npos)
+      << nothing_to_run.out;
+  const auto library = run("check " + std::string(STAGE_SOURCE_DIR) + "/models/transistors.stage");
+  EXPECT_EQ(library.status, 0) << library.out;
+  EXPECT_NE(library.out.find("model library"), std::string::npos) << library.out;
+}
+
+// A sweep whose second point has no solution (1 mA forced backwards through
+// a diode) fails; the bias point solved before it is still printed, in the
+// tables, the JSON and the CSV files, and the status is 3. The bias point
+// itself is checked against the Shockley equation V = n VT ln(I/IS + 1)
+// (Sedra and Smith, "Microelectronic Circuits", ch. 4).
+TEST(Command, FailedAnalysisKeepsTheResultsBeforeIt) {
+  const auto file =
+      write_temp("sweep_fails.stage",
+                 "model d = diode { saturation_current = 10 fA }\n"
+                 "i1 = current(gnd, a, 1 mA)\nd1 = diode(a, gnd, model = d)\n"
+                 "analyze bias()\n"
+                 "analyze sweep(source = i1, from = 1 mA, to = -1 mA, step = 2 mA)\n");
+  const auto tables = run("run " + file.string());
+  EXPECT_EQ(tables.status, 3) << tables.out;
+  EXPECT_NE(tables.out.find("Bias point"), std::string::npos) << tables.out;
+  EXPECT_NE(tables.out.find("Failed: analyze sweep"), std::string::npos) << tables.out;
+
+  const auto json = run("run " + file.string() + " --json", Stderr::dropped);
+  EXPECT_EQ(json.status, 3);
+  const auto document = nlohmann::json::parse(json.out);
+  const auto& bias = document["analyses"][0];
+  ASSERT_EQ(bias["kind"], "bias");
+  const double vt = 1.380649e-23 * 300.15 / 1.602176634e-19;  // kT/q at 27 °C (SI 2019 constants)
+  const double shockley = vt * std::log(1e-3 / 1e-14 + 1);
+  EXPECT_NEAR(bias["node_voltages"]["a"].get<double>(), shockley, 1e-6);
+  const auto& sweep = document["analyses"][1];
+  EXPECT_EQ(sweep["kind"], "sweep");
+  ASSERT_TRUE(sweep.contains("error"));
+  const auto involved = sweep["involved"].get<std::vector<std::string>>();
+  for (const char* name : {"a", "i1", "d1"}) {
+    EXPECT_NE(std::find(involved.begin(), involved.end(), name), involved.end()) << name;
+  }
+
+  const fs::path dir = fs::temp_directory_path() / "stage_command_test_partial_csv";
+  fs::remove_all(dir);
+  EXPECT_EQ(run("run " + file.string() + " --csv " + dir.string()).status, 3);
+  EXPECT_TRUE(fs::exists(dir / "1_bias.csv"));
+  EXPECT_TRUE(fs::exists(dir / "2_sweep_failed.csv"));
 }
 
 TEST(Command, CsvWritesOneFilePerAnalysis) {

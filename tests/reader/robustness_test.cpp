@@ -1,6 +1,9 @@
 // No input crashes or hangs the reader: thousands of random mutations of the
 // example circuits (bytes deleted, inserted, replaced; the text cut short)
-// either read cleanly or fail with an InputError, never with anything else.
+// either read cleanly or fail with an InputError, or with a NumericalError
+// naming what is at fault when a mutation leaves a circuit whose graph has no
+// DC solution (a floating node), found before anything runs; never with
+// anything else.
 #include <gtest/gtest.h>
 
 #include <fstream>
@@ -29,10 +32,18 @@ std::string mutate(std::string text, std::mt19937& rng) {
     std::uniform_int_distribution<std::size_t> at(0, text.size() - 1);
     const std::size_t i = at(rng);
     switch (kind(rng)) {
-      case 0: text.erase(i, 1); break;
-      case 1: text.insert(i, 1, kAlphabet[letter(rng)]); break;
-      case 2: text[i] = kAlphabet[letter(rng)]; break;
-      default: text.resize(i); break;
+      case 0:
+        text.erase(i, 1);
+        break;
+      case 1:
+        text.insert(i, 1, kAlphabet[letter(rng)]);
+        break;
+      case 2:
+        text[i] = kAlphabet[letter(rng)];
+        break;
+      default:
+        text.resize(i);
+        break;
     }
   }
   return text;
@@ -52,6 +63,9 @@ TEST(Robustness, MutatedExamplesFailOnlyWithInputErrors) {
         stage::check_deck(deck);
         ++read_cleanly;
       } catch (const stage::InputError&) {
+        ++rejected;
+      } catch (const stage::NumericalError& e) {
+        EXPECT_FALSE(e.involved().empty()) << e.what();
         ++rejected;
       } catch (const std::exception& e) {
         ADD_FAILURE() << name << " mutation " << k << " threw " << e.what() << "\n" << text;

@@ -17,13 +17,25 @@
 
 namespace stage {
 
-using AnalysisResult = std::variant<BiasResult, SweepResult, FrequencyResult, TransientResult,
-                                    SpectrumResult, HeadroomResult, CharacterizeResult>;
+// An analysis that could not finish: the NumericalError it ended with, kept
+// in the run beside the results of the analyses that did finish.
+struct AnalysisFailure {
+  std::string kind;  // the statement's analysis kind: "bias", "transient", ...
+  SourceLocation where;
+  std::string message;
+  std::vector<std::string> involved;  // nodes or elements at fault
+};
+
+using AnalysisResult =
+    std::variant<BiasResult, SweepResult, FrequencyResult, TransientResult, SpectrumResult,
+                 HeadroomResult, CharacterizeResult, AnalysisFailure>;
 
 struct RunResult {
   std::string title;
   double temperature = kRoomTemperature;
-  std::vector<AnalysisResult> analyses;
+  std::vector<AnalysisResult> analyses;  // one per statement, in order
+
+  bool failed() const;  // some analysis is an AnalysisFailure
 };
 
 struct RunOptions {
@@ -31,12 +43,16 @@ struct RunOptions {
   ProgressCallback progress;
 };
 
-// Throws InputError at the first statement that cannot run as written (bad
-// options for the circuit, a spectrum with no transient before it), so that
-// nothing runs when something would fail or be skipped.
+// Throws InputError when the deck has no analysis or at the first statement
+// that cannot run as written (bad options for the circuit, a spectrum with no
+// transient before it), and NumericalError when the circuit's graph has no
+// unique DC solution (a floating node, a loop of voltage sources, a cut-set
+// of current sources), so that nothing runs when something would fail.
 void check_deck(const Deck& deck);
 
-// Runs check_deck, then every analysis. Throws NumericalError on failure.
+// Runs check_deck, then every analysis. An analysis that fails numerically
+// becomes an AnalysisFailure and the rest still run (a spectrum whose
+// transient failed fails with it), so every figure that was found is kept.
 RunResult run_deck(const Deck& deck, const RunOptions& options = {});
 
 // Operating point at each value of a `let` parameter; the previous point is

@@ -4,7 +4,11 @@
 
 #include <spdlog/spdlog.h>
 
+#include <algorithm>
+
 #include "analysis/operating_point.hpp"
+#include "mna/system.hpp"
+#include "stage/errors.hpp"
 
 namespace stage {
 namespace {
@@ -47,6 +51,14 @@ std::optional<std::string> statement_error(const Deck& deck, const AnalysisOptio
 }  // namespace
 
 void check_deck(const Deck& deck) {
+  if (deck.analyses.empty()) {
+    throw InputError({deck.file.string(), 0, 0},
+                     "no `analyze` statement: nothing to run (add one, for example "
+                     "`analyze bias()`)");
+  }
+  // The circuit's graph: floating nodes, loops of voltage sources, cut-sets
+  // of current sources, found before anything runs (NumericalError).
+  const mna::System topology_checked(deck.circuit);
   bool transient_before = false;
   for (const auto& statement : deck.analyses) {
     if (auto why = statement_error(deck, statement.options, transient_before)) {
@@ -79,13 +91,20 @@ SweepResult run_parameter_sweep(const Deck& deck, const SweepOptions& options,
   return result;
 }
 
+bool RunResult::failed() const {
+  return std::any_of(analyses.begin(), analyses.end(), [](const AnalysisResult& r) {
+    return std::holds_alternative<AnalysisFailure>(r);
+  });
+}
+
 RunResult run_deck(const Deck& deck, const RunOptions& run_options) {
   check_deck(deck);
   RunResult run{deck.circuit.title, deck.circuit.temperature, {}};
   const Circuit& circuit = deck.circuit;
   std::optional<std::size_t> last_transient;  // index into run.analyses
   for (const auto& statement : deck.analyses) {
-    spdlog::debug("running analyze {}", analysis_kind(statement.options));
+    const std::string kind(analysis_kind(statement.options));
+    spdlog::debug("running analyze {}", kind);
     struct Visitor {
       const Deck& deck;
       const Circuit& circuit;
@@ -114,10 +133,20 @@ RunResult run_deck(const Deck& deck, const RunOptions& run_options) {
       }
     };
     const TransientResult* transient =
-        last_transient ? &std::get<TransientResult>(run.analyses[*last_transient]) : nullptr;
-    run.analyses.push_back(
-        std::visit(Visitor{deck, circuit, run_options, transient}, statement.options));
-    if (std::holds_alternative<TransientResult>(run.analyses.back())) {
+        last_transient ? std::get_if<TransientResult>(&run.analyses[*last_transient]) : nullptr;
+    if (std::holds_alternative<SpectrumOptions>(statement.options) && transient == nullptr) {
+      run.analyses.push_back(
+          AnalysisFailure{kind, statement.where, "not run: the transient before it failed", {}});
+      continue;
+    }
+    try {
+      run.analyses.push_back(
+          std::visit(Visitor{deck, circuit, run_options, transient}, statement.options));
+    } catch (const NumericalError& e) {
+      spdlog::debug("analyze {} failed: {}", kind, e.what());
+      run.analyses.push_back(AnalysisFailure{kind, statement.where, e.what(), e.involved()});
+    }
+    if (std::holds_alternative<TransientOptions>(statement.options)) {
       last_transient = run.analyses.size() - 1;
     }
   }

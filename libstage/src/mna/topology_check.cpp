@@ -4,6 +4,7 @@
 // voltage-fixing branches makes the branch equations dependent.
 #include "mna/topology_check.hpp"
 
+#include <algorithm>
 #include <map>
 #include <numeric>
 #include <set>
@@ -50,6 +51,17 @@ void TopologyCheck::capacitive(Index a, Index b, const std::string& element) {
   edges_.push_back({a, b, element, Edge::Kind::capacitive});
 }
 
+std::vector<std::string> TopologyCheck::elements_at(Index node) const {
+  std::vector<std::string> names;
+  for (const Edge& e : edges_) {
+    const bool touches = e.a == node || e.b == node;
+    if (touches && std::find(names.begin(), names.end(), e.element) == names.end()) {
+      names.push_back(e.element);
+    }
+  }
+  return names;
+}
+
 std::vector<TopologyCheck::Finding> TopologyCheck::findings() const {
   const int count = topology_.size() + 1;
   std::vector<Finding> found;
@@ -57,7 +69,11 @@ std::vector<TopologyCheck::Finding> TopologyCheck::findings() const {
   DisjointSets voltage_loops(count);
   for (const Edge& e : edges_) {
     if (e.kind != Edge::Kind::fixes_voltage) continue;
-    if (e.a == e.b || !voltage_loops.join(e.a, e.b)) {
+    if (e.a == e.b) {
+      found.push_back({"'" + e.element + "' has both terminals on node '" + topology_.name(e.a) +
+                           "': a source shorted on itself",
+                       {e.element}});
+    } else if (!voltage_loops.join(e.a, e.b)) {
       found.push_back({"a loop of voltage sources or inductors closes through '" + e.element +
                            "': their voltages are not independent",
                        {e.element}});

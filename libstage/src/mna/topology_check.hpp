@@ -33,6 +33,9 @@ class TopologyCheck {
   // Problems that make the DC system singular; empty if the graph is sound.
   std::vector<Finding> findings() const;
 
+  // The elements with a terminal at `node`, each once, in the order declared.
+  std::vector<std::string> elements_at(Index node) const;
+
  private:
   struct Edge {
     Index a, b;

@@ -3,6 +3,7 @@
 
 #include "report/bias_report.hpp"
 #include "report/characterize_report.hpp"
+#include "report/failure_report.hpp"
 #include "report/frequency_report.hpp"
 #include "report/headroom_report.hpp"
 #include "report/spectrum_report.hpp"
@@ -12,11 +13,12 @@
 namespace stage {
 namespace {
 
-std::string_view kind_of(const AnalysisResult& result) {
-  static constexpr std::string_view kKinds[] = {"bias",     "sweep",    "frequency",   "transient",
-                                                "spectrum", "headroom", "characterize"};
+std::string kind_of(const AnalysisResult& result) {
+  static constexpr std::string_view kKinds[] = {"bias",     "sweep",    "frequency",    "transient",
+                                                "spectrum", "headroom", "characterize", ""};
   static_assert(std::size(kKinds) == std::variant_size_v<AnalysisResult>);
-  return kKinds[result.index()];
+  if (const auto* failure = std::get_if<AnalysisFailure>(&result)) return failure->kind + "_failed";
+  return std::string(kKinds[result.index()]);
 }
 
 using report::Json;
@@ -48,8 +50,7 @@ std::vector<std::filesystem::path> write_csv_files(const std::filesystem::path& 
   std::filesystem::create_directories(dir);
   std::vector<std::filesystem::path> written;
   for (std::size_t i = 0; i < run.analyses.size(); ++i) {
-    const auto path =
-        dir / (std::to_string(i + 1) + "_" + std::string(kind_of(run.analyses[i])) + ".csv");
+    const auto path = dir / (std::to_string(i + 1) + "_" + kind_of(run.analyses[i]) + ".csv");
     std::ofstream file(path);
     std::visit([&](const auto& r) { report::write_csv(file, r); }, run.analyses[i]);
     if (!file) throw std::runtime_error("cannot write " + path.string());

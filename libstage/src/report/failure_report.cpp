@@ -1,0 +1,36 @@
+// Failed-analysis reports.
+#include "report/failure_report.hpp"
+
+namespace stage::report {
+namespace {
+
+std::string joined(const std::vector<std::string>& names, std::string_view separator) {
+  std::string list;
+  for (const auto& n : names) list += (list.empty() ? "" : std::string(separator)) + n;
+  return list;
+}
+
+// A CSV cell holding text: quoted, inner quotes doubled (RFC 4180).
+std::string csv_text(const std::string& text) {
+  std::string cell = "\"";
+  for (char c : text) cell += c == '"' ? std::string("\"\"") : std::string(1, c);
+  return cell + '"';
+}
+
+}  // namespace
+
+Json to_json(const AnalysisFailure& f) {
+  return Json{
+      {"kind", f.kind}, {"error", f.message}, {"involved", f.involved}, {"line", f.where.line}};
+}
+
+void print_table(std::ostream& out, const AnalysisFailure& f) {
+  out << "Failed: analyze " << f.kind << " (line " << f.where.line << ")\n  " << f.message << '\n';
+}
+
+void write_csv(std::ostream& out, const AnalysisFailure& f) {
+  out << "error,involved\n"
+      << csv_text(f.message) << ',' << csv_text(joined(f.involved, " ")) << '\n';
+}
+
+}  // namespace stage::report
