@@ -105,7 +105,8 @@ TEST_P(ChargeConservation, CubicCapacitorReturnsToItsStartCharge) {
 }
 
 INSTANTIATE_TEST_SUITE_P(Formulas, ChargeConservation,
-                         ::testing::Values(stage::Integration::trapezoidal,
+                         ::testing::Values(stage::Integration::tr_bdf2,
+                                           stage::Integration::trapezoidal,
                                            stage::Integration::bdf2),
                          stage::testing::integration_name);
 

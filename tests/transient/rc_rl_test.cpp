@@ -104,7 +104,8 @@ TEST_P(FirstOrder, PulseCornersAreLandedOn) {
 }
 
 INSTANTIATE_TEST_SUITE_P(Formulas, FirstOrder,
-                         ::testing::Values(stage::Integration::trapezoidal,
+                         ::testing::Values(stage::Integration::tr_bdf2,
+                                           stage::Integration::trapezoidal,
                                            stage::Integration::bdf2),
                          stage::testing::integration_name);
 

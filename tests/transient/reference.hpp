@@ -24,10 +24,18 @@ inline double max_error(const TransientResult& r, const std::string& signal,
   return worst;
 }
 
-// Test names for the two integration methods ("trapezoidal", "bdf2")
-// instead of the enum's raw bytes.
+// Test names for the integration methods ("tr_bdf2", "trapezoidal",
+// "bdf2") instead of the enum's raw bytes.
 inline std::string integration_name(const ::testing::TestParamInfo<Integration>& info) {
-  return info.param == Integration::trapezoidal ? "trapezoidal" : "bdf2";
+  switch (info.param) {
+    case Integration::tr_bdf2:
+      return "tr_bdf2";
+    case Integration::trapezoidal:
+      return "trapezoidal";
+    case Integration::bdf2:
+      return "bdf2";
+  }
+  return "unknown";
 }
 
 }  // namespace stage::testing

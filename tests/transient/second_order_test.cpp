@@ -66,7 +66,8 @@ TEST_P(SeriesRlc, OverdampedStep) {
 }
 
 INSTANTIATE_TEST_SUITE_P(Formulas, SeriesRlc,
-                         ::testing::Values(stage::Integration::trapezoidal,
+                         ::testing::Values(stage::Integration::tr_bdf2,
+                                           stage::Integration::trapezoidal,
                                            stage::Integration::bdf2),
                          stage::testing::integration_name);
 

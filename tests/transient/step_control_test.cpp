@@ -70,7 +70,8 @@ TEST_P(StepControl, LinearConstantStepNeverRefactors) {
 }
 
 INSTANTIATE_TEST_SUITE_P(Formulas, StepControl,
-                         ::testing::Values(stage::Integration::trapezoidal,
+                         ::testing::Values(stage::Integration::tr_bdf2,
+                                           stage::Integration::trapezoidal,
                                            stage::Integration::bdf2),
                          stage::testing::integration_name);
 

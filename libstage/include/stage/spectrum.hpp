@@ -6,7 +6,8 @@
 //   if (!s.settled) std::cerr << s.message;
 //
 // Harmonic n is reported as amplitude A_n and phase phi_n of
-// A_n sin(2 pi n f t + phi_n), t being the transient's own time.
+// A_n sin(2 pi n f t + phi_n), t being the transient's own time. The Fourier
+// integrals are taken of the transient's interpolant, step by step.
 #pragma once
 
 #include <optional>
@@ -35,7 +36,9 @@ struct SpectrumResult {
   // False when the transient is shorter than the periods asked for plus one
   // to compare with, or its last two periods still differ; `message` says why.
   bool settled = true;
-  double period_change = 0;  // largest |x(t) - x(t - T)| over the last period, over A_1
+  // RMS of x(t) - x(t - T) over the last period, over the fundamental's RMS
+  // A_1 / sqrt 2.
+  double period_change = 0;
   std::string message;
 };
 

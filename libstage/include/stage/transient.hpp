@@ -6,9 +6,11 @@
 //   const auto result = stage::run_transient(circuit, options);
 //   const auto& out = result.signal("out");  // one value per result.time
 //
-// Charges are integrated by the trapezoidal rule or BDF2
-// (circuit.solver.integration), with backward Euler on the first step and
-// after every waveform corner; the step follows the local truncation error.
+// Charges are integrated by TR-BDF2 (the default), the trapezoidal rule or
+// BDF2 (circuit.solver.integration), with backward Euler on the first step
+// and after every waveform corner; the step follows the local truncation
+// error. A trapezoidal step that rings (see damped_steps) is redone as a
+// TR-BDF2 step.
 #pragma once
 
 #include <string>
@@ -22,14 +24,23 @@ namespace stage {
 struct TransientSignal {
   std::string name;            // "out", "(p, n)" or "r1.current", as in the language
   std::vector<double> values;  // one per entry of TransientResult::time
+  // Time derivatives at each sample from the polynomial of the step that
+  // arrives there (slope_in) and of the step that leaves it (slope_out):
+  // they differ at a waveform's corners. Empty in a result built by hand,
+  // which is then interpolated linearly.
+  std::vector<double> slope_in, slope_out;
 };
 
 struct TransientResult {
   std::vector<double> time;  // s, ascending, from options.from to options.stop
   std::vector<TransientSignal> signals;
-  Integration integration = Integration::trapezoidal;
+  Integration integration = Integration::tr_bdf2;
   int accepted_steps = 0;
   int rejected_steps = 0;  // redone smaller: error too large or Newton failed
+  // Trapezoidal steps found ringing (successive charge changes alternating
+  // in sign without decaying, above the error tolerance) and redone as
+  // TR-BDF2 steps of the same length.
+  int damped_steps = 0;
   int newton_iterations = 0;
   int factorizations = 0;  // numeric LU factorisations, the operating point included
 
@@ -43,12 +54,15 @@ struct TransientResult {
 TransientResult run_transient(const Circuit& circuit, const TransientOptions& options);
 
 // The same signals on a uniform grid from result.time.front() in steps of
-// `step` (the last point at or before result.time.back()), interpolated by
-// the quadratic through the three nearest samples: second order, like the
-// integration formulas.
+// `step` (the last point at or before result.time.back()), by interpolate().
 TransientResult resample(const TransientResult& result, double step);
 
-// One value of a sampled signal at time t, by the same interpolation.
-double interpolate(const std::vector<double>& time, const std::vector<double>& values, double t);
+// The value of a signal of `result` at time t: the cubic Hermite on the step
+// that holds t, through the values and slopes at its two ends. Each step's
+// slopes come from that step's own polynomial (the quadratic through TR-BDF2's
+// inner stage, or through the point before for the multistep formulas, the
+// line after a corner), so the interpolant never reaches across a corner and
+// is as accurate as the integration. Outside the samples, the end value.
+double interpolate(const TransientResult& result, const TransientSignal& signal, double t);
 
 }  // namespace stage

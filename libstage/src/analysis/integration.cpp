@@ -64,4 +64,21 @@ void extrapolation_weights(std::span<const double> times, double t, std::span<do
   }
 }
 
+void derivative_weights(std::span<const double> times, double t, std::span<double> weights) {
+  // d/dt of the Lagrange basis polynomial l_i = prod_{j != i} (t - t_j) / (t_i - t_j).
+  for (std::size_t i = 0; i < times.size(); ++i) {
+    double denominator = 1.0, sum = 0.0;
+    for (std::size_t j = 0; j < times.size(); ++j) {
+      if (j == i) continue;
+      denominator *= times[i] - times[j];
+      double product = 1.0;
+      for (std::size_t k = 0; k < times.size(); ++k) {
+        if (k != i && k != j) product *= t - times[k];
+      }
+      sum += product;
+    }
+    weights[i] = sum / denominator;
+  }
+}
+
 }  // namespace stage::analysis

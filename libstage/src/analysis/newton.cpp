@@ -3,6 +3,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 
 namespace stage::analysis {
 
@@ -55,6 +56,21 @@ bool NewtonSolver::residual_small() const {
   return true;
 }
 
+// The residual is as small as rounding in its own terms allows: every row
+// within a few units in the last place of the size of the terms that meet
+// there. The update is then rounding noise of the solve and need not be
+// small: with a large a C (a short time step across a large capacitor) that
+// noise in a branch current can exceed its absolute tolerance however long
+// Newton runs.
+bool NewtonSolver::residual_at_rounding() const {
+  constexpr double kUlps = 64;  // units in the last place, from memory: a sum of a few terms
+  const double rounding = kUlps * std::numeric_limits<double>::epsilon();
+  for (std::size_t i = 1; i < residual_.size(); ++i) {
+    if (std::abs(residual_[i]) > rounding * scale_[i]) return false;
+  }
+  return true;
+}
+
 bool NewtonSolver::update_small(const std::vector<double>& x) const {
   const auto& topology = system_.topology();
   for (std::size_t i = 1; i < update_.size(); ++i) {
@@ -87,7 +103,8 @@ NewtonOutcome NewtonSolver::solve(std::vector<double>& x, const NewtonProblem& p
       outcome.culprit = bad;
       return outcome;
     }
-    if (last_update_small && !work_.limited && residual_small()) {
+    if (iteration > 0 && !work_.limited && residual_small() &&
+        (last_update_small || residual_at_rounding())) {
       outcome.status = NewtonStatus::converged;
       return outcome;
     }

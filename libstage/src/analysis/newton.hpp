@@ -6,7 +6,8 @@
 // at DC) and shunt is a homotopy conductance from each voltage unknown to
 // ground. Convergence needs both a small update (relative plus absolute
 // tolerance per unknown kind) and a small residual (KCL at nodes, the branch
-// equation elsewhere, relative to the size of the terms that meet there).
+// equation elsewhere, relative to the size of the terms that meet there);
+// a residual down at rounding level in its own terms stands for the update.
 // Failure is recoverable (status), never an exception: the caller decides
 // whether to step a homotopy, shrink a time step, or give up.
 #pragma once
@@ -62,6 +63,7 @@ class NewtonSolver {
  private:
   void assemble(const NewtonProblem& problem, const std::vector<double>& x);
   bool residual_small() const;
+  bool residual_at_rounding() const;
   bool update_small(const std::vector<double>& x) const;
   mna::Index first_non_finite(const std::vector<double>& x) const;
 

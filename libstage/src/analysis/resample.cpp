@@ -1,8 +1,9 @@
-// Quadratic interpolation of sampled signals and uniform resampling.
-#include <algorithm>
+// The interpolant of sampled signals (cubic Hermite per step, see
+// step_interpolant.hpp) and uniform resampling.
 #include <cmath>
 #include <stdexcept>
 
+#include "analysis/step_interpolant.hpp"
 #include "stage/transient.hpp"
 
 namespace stage {
@@ -14,33 +15,12 @@ const std::vector<double>& TransientResult::signal(const std::string& name) cons
   throw std::out_of_range("the transient has no signal '" + name + "'");
 }
 
-// The quadratic through the two samples around t and the nearer third one;
-// at the ends, the nearest three.
-double interpolate(const std::vector<double>& time, const std::vector<double>& values, double t) {
-  const std::size_t n = time.size();
+double interpolate(const TransientResult& result, const TransientSignal& signal, double t) {
+  const std::size_t n = result.time.size();
   if (n == 0) throw std::invalid_argument("interpolating an empty signal");
-  if (n == 1) return values.front();
-  std::size_t hi =
-      static_cast<std::size_t>(std::upper_bound(time.begin(), time.end(), t) - time.begin());
-  hi = std::clamp<std::size_t>(hi, 1, n - 1);
-  std::size_t lo = hi - 1;
-  if (n == 2)
-    return values[lo] + (values[hi] - values[lo]) * (t - time[lo]) / (time[hi] - time[lo]);
-  std::size_t first = lo;
-  if (lo == 0) {
-    first = 0;
-  } else if (hi == n - 1 || t - time[lo - 1] < time[hi + 1] - t) {
-    first = lo - 1;
-  }
-  double value = 0;
-  for (std::size_t i = first; i < first + 3; ++i) {
-    double w = 1.0;
-    for (std::size_t j = first; j < first + 3; ++j) {
-      if (j != i) w *= (t - time[j]) / (time[i] - time[j]);
-    }
-    value += w * values[i];
-  }
-  return value;
+  if (n == 1 || t <= result.time.front()) return signal.values.front();
+  if (t >= result.time.back()) return signal.values.back();
+  return analysis::step_piece(result, signal, analysis::step_holding(result.time, t)).value(t);
 }
 
 TransientResult resample(const TransientResult& result, double step) {
@@ -53,10 +33,23 @@ TransientResult resample(const TransientResult& result, double step) {
   const auto count = static_cast<std::size_t>(std::floor(span / step * (1.0 + 1e-12))) + 1;
   for (std::size_t k = 0; k < count; ++k) out.time.push_back(t0 + static_cast<double>(k) * step);
   for (std::size_t s = 0; s < result.signals.size(); ++s) {
-    auto& values = out.signals[s].values;
-    values.clear();
-    for (double t : out.time)
-      values.push_back(interpolate(result.time, result.signals[s].values, t));
+    const TransientSignal& from = result.signals[s];
+    TransientSignal& to = out.signals[s];
+    to.values.clear();
+    to.slope_in.clear();
+    to.slope_out.clear();
+    for (double t : out.time) {
+      to.values.push_back(interpolate(result, from, t));
+      // The slope of the piece holding t, so that the resampled signal is
+      // interpolated by the same rule (a corner between grid points is
+      // rounded, which resampling cannot avoid).
+      const double slope =
+          result.time.size() > 1
+              ? analysis::step_piece(result, from, analysis::step_holding(result.time, t)).slope(t)
+              : 0.0;
+      to.slope_in.push_back(slope);
+      to.slope_out.push_back(slope);
+    }
   }
   return out;
 }

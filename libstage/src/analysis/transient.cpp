@@ -1,6 +1,18 @@
 // The transient step loop: predictor, Newton corrector, error estimate from
 // the charges, step control and breakpoints (see integration.hpp for the
 // formulas and transient_start.cpp for the first point).
+//
+// Ringing. The trapezoidal rule's amplification factor tends to -1 for
+// h lambda -> -infinity, so on a charge that is nearly algebraic (a junction
+// capacitance behind a small resistance) any error flips sign every step
+// without decaying, and the error estimate, comparing with a smooth
+// predictor, may accept it or shrink the step without end. A trapezoidal
+// step whose charge change is opposite to the last one, not smaller than
+// kRingingDecay of it, and larger than the row's error tolerance is redone
+// as one TR-BDF2 step of the same length: L-stable, it removes the
+// oscillating part in one step while staying second order, where backward
+// Euler would drop to first order and rejecting would only shrink the step
+// (the ringing grows no weaker with h as long as h lambda is large).
 #include "analysis/transient.hpp"
 
 #include <spdlog/spdlog.h>
@@ -31,6 +43,11 @@ constexpr double kDefaultStepsPerRun = 50;   // max_step = stop / 50 when not gi
 constexpr double kFirstStepFraction = 1e-2;  // of max_step, and of the gap after a corner
 constexpr double kMinStepFraction = 1e-12;   // of stop: below this the run fails
 constexpr double kSameStep = 1e-9;           // relative: a step this close counts as equal
+// A charge change at least this fraction of the previous one, and opposite
+// to it, does not decay the way a resolved oscillation's differences
+// would: ringing (see above). The trapezoidal rule's factor is
+// (1 + h lambda/2) / (1 - h lambda/2), below -1/2 in size once h lambda < -6.
+constexpr double kRingingDecay = 0.5;
 
 struct Point {
   double t = 0;
@@ -48,7 +65,7 @@ class Stepper {
         solver_(solver),
         options_(options),
         result_(result),
-        recorder_(system, options.signals, result),
+        recorder_(system, options.signals, options.from, result),
         newton_(system, solver) {}
 
   void run();
@@ -56,13 +73,17 @@ class Stepper {
  private:
   enum class Outcome { accepted, error_too_large, newton_failed };
   Outcome attempt(double t_new, double h, double& error_ratio);
+  // One solve of f(x) + a q(x) + history_ = 0 at time t from the predictor
+  // through the points since the last corner (and `extra`, an inner stage).
+  bool solve(double t, double a, const double* extra_time = nullptr,
+             const std::vector<double>* extra_x = nullptr);
+  Outcome attempt_single(Formula formula, double t_new, double h, double& ratio);
+  Outcome attempt_tr_bdf2(double t_new, double h, double& ratio);
+  bool rings() const;
   void accept(double t_new, double h, bool at_breakpoint);
+  double row_tolerance(mna::Index i) const;
   double error_ratio(const StepFormula& formula, double h, double h_prev) const;
   [[noreturn]] void fail(double t, double h) const;
-  void record(double t, const std::vector<double>& x) {
-    recorder_.record(t, x);
-    if (observer_) observer_(t, x);
-  }
 
   const mna::System& system_;
   const StepObserver& observer_;
@@ -75,6 +96,12 @@ class Stepper {
   int since_breakpoint_ = 1;   // accepted points since the last corner, that one included
   std::vector<double> x_, history_, peak_, weights_;
   StepFormula formula_;
+  // The accepted formula's shape (for the recorder) and TR-BDF2's inner
+  // stage: its time, solution, charges and charge derivatives.
+  StepShape shape_ = StepShape::line;
+  bool damping_ = false;  // the step being tried replaces a ringing trapezoidal one
+  double t_stage_ = 0;
+  std::vector<double> x_stage_, q_stage_, qdot_stage_;
 };
 
 void Stepper::run() {
@@ -101,7 +128,9 @@ void Stepper::run() {
   peak_.resize(x_.size());
   for (std::size_t i = 0; i < x_.size(); ++i) peak_[i] = std::abs(start.q[i]);
   weights_.assign(3, 0.0);
-  if (options_.from <= 0.0) record(0.0, start.x);
+  x_stage_ = q_stage_ = qdot_stage_ = x_;
+  recorder_.start(0.0, start.x);
+  if (observer_ && options_.from <= 0.0) observer_(0.0, start.x);
 
   std::size_t next = 0;  // next breakpoint
   double h = std::min(max_step, breakpoints.front()) * kFirstStepFraction;
@@ -154,23 +183,36 @@ void Stepper::run() {
 }
 
 Stepper::Outcome Stepper::attempt(double t_new, double h, double& ratio) {
-  const Point& now = past_[0];
-  const double h_prev = now.step;
-  const Formula formula = since_breakpoint_ == 1                     ? Formula::backward_euler
-                          : solver_.integration == Integration::bdf2 ? Formula::bdf2
-                                                                     : Formula::trapezoidal;
-  formula_ = step_formula(formula, h, h_prev);
-  for (std::size_t i = 0; i < x_.size(); ++i) {
-    history_[i] =
-        formula_.c_n * now.q[i] + formula_.c_prev * past_[1].q[i] + formula_.c_dot * now.qdot[i];
+  damping_ = false;
+  if (since_breakpoint_ == 1) return attempt_single(Formula::backward_euler, t_new, h, ratio);
+  switch (solver_.integration) {
+    case Integration::tr_bdf2:
+      return attempt_tr_bdf2(t_new, h, ratio);
+    case Integration::bdf2:
+      return attempt_single(Formula::bdf2, t_new, h, ratio);
+    case Integration::trapezoidal: {
+      const Outcome outcome = attempt_single(Formula::trapezoidal, t_new, h, ratio);
+      if (outcome == Outcome::newton_failed || !rings()) return outcome;
+      damping_ = true;
+      return attempt_tr_bdf2(t_new, h, ratio);
+    }
   }
-  // Predictor: the polynomial through the points since the last corner.
-  const std::size_t used = static_cast<std::size_t>(since_breakpoint_);
+  return Outcome::newton_failed;  // not reached: every method is handled above
+}
+
+bool Stepper::solve(double t, double a, const double* extra_time,
+                    const std::vector<double>* extra_x) {
+  // Predictor: the polynomial through the points since the last corner, and
+  // the inner stage when there is one (then at most three points in all).
+  const std::size_t extra = extra_time != nullptr ? 1 : 0;
+  const std::size_t used = std::min<std::size_t>(since_breakpoint_, 3 - extra);
   std::array<double, 3> times{};
   for (std::size_t k = 0; k < used; ++k) times[k] = past_[k].t;
-  extrapolation_weights(std::span(times.data(), used), t_new, std::span(weights_.data(), used));
+  if (extra) times[used] = *extra_time;
+  const std::size_t points = used + extra;
+  extrapolation_weights(std::span(times.data(), points), t, std::span(weights_.data(), points));
   for (std::size_t i = 0; i < x_.size(); ++i) {
-    double v = 0;
+    double v = extra ? weights_[used] * (*extra_x)[i] : 0.0;
     for (std::size_t k = 0; k < used; ++k) v += weights_[k] * past_[k].x[i];
     x_[i] = v;
   }
@@ -178,32 +220,101 @@ Stepper::Outcome Stepper::attempt(double t_new, double h, double& ratio) {
   NewtonProblem problem;
   problem.request = system_.request(nullptr);
   problem.request.dc = false;
-  problem.request.time = t_new;
-  problem.reactive_scale = formula_.a;
+  problem.request.time = t;
+  problem.reactive_scale = a;
   problem.reactive_history = history_.data();
   problem.max_iterations = std::min(kStepIterations, solver_.max_newton_iterations);
   const auto outcome = newton_.solve(x_, problem);
   result_.newton_iterations += outcome.iterations;
-  if (outcome.status != NewtonStatus::converged) return Outcome::newton_failed;
+  return outcome.status == NewtonStatus::converged;
+}
+
+Stepper::Outcome Stepper::attempt_single(Formula formula, double t_new, double h, double& ratio) {
+  const Point& now = past_[0];
+  const double h_prev = now.step;
+  formula_ = step_formula(formula, h, h_prev);
+  shape_ = formula == Formula::backward_euler ? StepShape::line : StepShape::through_previous_point;
+  for (std::size_t i = 0; i < x_.size(); ++i) {
+    history_[i] =
+        formula_.c_n * now.q[i] + formula_.c_prev * past_[1].q[i] + formula_.c_dot * now.qdot[i];
+  }
+  if (!solve(t_new, formula_.a)) return Outcome::newton_failed;
   ratio = error_ratio(formula_, h, h_prev);
   return ratio <= 1.0 ? Outcome::accepted : Outcome::error_too_large;
 }
 
-// Largest local truncation error over the rows that hold charge, each over
-// its tolerance: relative to the largest the charge has been (so a charge
-// passing through zero is not held to an absolute floor) plus the solver's
-// absolute voltage (current) tolerance times the row's capacitance
+// TR-BDF2's two stages (integration.hpp), both with a = 1 / (d h): the
+// trapezoidal rule to t_n + gamma h, then BDF2 to t_n + h.
+Stepper::Outcome Stepper::attempt_tr_bdf2(double t_new, double h, double& ratio) {
+  const Point& now = past_[0];
+  const double a = 1.0 / (TrBdf2::d * h);
+  formula_ = {};
+  formula_.a = a;
+  formula_.order = 2;
+  shape_ = StepShape::through_inner_stage;
+
+  t_stage_ = now.t + TrBdf2::gamma * h;
+  for (std::size_t i = 0; i < x_.size(); ++i) history_[i] = -a * now.q[i] - now.qdot[i];
+  if (!solve(t_stage_, a)) return Outcome::newton_failed;
+  x_stage_ = x_;
+  q_stage_ = newton_.workspace().q;
+  for (std::size_t i = 0; i < x_.size(); ++i) qdot_stage_[i] = a * q_stage_[i] + history_[i];
+
+  for (std::size_t i = 0; i < x_.size(); ++i) {
+    history_[i] = -a * (now.q[i] + h * TrBdf2::w * (now.qdot[i] + qdot_stage_[i]));
+  }
+  if (!solve(t_new, a, &t_stage_, &x_stage_)) return Outcome::newton_failed;
+
+  const auto& q = newton_.workspace().q;
+  double worst = 0;
+  for (mna::Index i = 1; i <= system_.size(); ++i) {
+    const double tolerance = row_tolerance(i);
+    if (tolerance <= 0) continue;
+    const double qdot_new = a * q[i] + history_[i];
+    const double estimate =
+        h * (TrBdf2::error_n * now.qdot[i] + TrBdf2::error_stage * qdot_stage_[i] +
+             TrBdf2::error_new * qdot_new);
+    worst = std::max(worst, std::abs(estimate) / tolerance);
+  }
+  ratio = worst;
+  return ratio <= 1.0 ? Outcome::accepted : Outcome::error_too_large;
+}
+
+// The trapezoidal candidate in the workspace against the last accepted step
+// (see the file comment).
+bool Stepper::rings() const {
+  const auto& q = newton_.workspace().q;
+  const Point &now = past_[0], &before = past_[1];
+  for (mna::Index i = 1; i <= system_.size(); ++i) {
+    const double change = q[i] - now.q[i], last_change = now.q[i] - before.q[i];
+    if (change * last_change < 0 && std::abs(change) >= kRingingDecay * std::abs(last_change) &&
+        std::abs(change) > row_tolerance(i)) {
+      return true;
+    }
+  }
+  return false;
+}
+
+// A row's error tolerance: relative to the largest the charge has been (so
+// a charge passing through zero is not held to an absolute floor) plus the
+// solver's absolute voltage (current) tolerance times the row's capacitance
 // (inductance).
+double Stepper::row_tolerance(mna::Index i) const {
+  const auto& w = newton_.workspace();
+  const double absolute =
+      system_.topology().is_voltage(i) ? solver_.voltage_tolerance : solver_.current_tolerance;
+  return solver_.relative_tolerance * std::max(std::abs(w.q[i]), peak_[i]) +
+         absolute * std::abs(w.c[system_.diagonal(i)]);
+}
+
+// Largest local truncation error over the rows that hold charge, each over
+// its tolerance.
 double Stepper::error_ratio(const StepFormula& formula, double h, double h_prev) const {
   const Point& now = past_[0];
   const auto& w = newton_.workspace();
-  const auto& topology = system_.topology();
   double worst = 0;
   for (mna::Index i = 1; i <= system_.size(); ++i) {
-    const double absolute =
-        topology.is_voltage(i) ? solver_.voltage_tolerance : solver_.current_tolerance;
-    const double tolerance = solver_.relative_tolerance * std::max(std::abs(w.q[i]), peak_[i]) +
-                             absolute * std::abs(w.c[system_.diagonal(i)]);
+    const double tolerance = row_tolerance(i);
     if (tolerance <= 0) continue;
     const double predicted =
         predict_charge(formula.order, h, h_prev, now.q[i], now.qdot[i], past_[1].q[i]);
@@ -226,7 +337,9 @@ void Stepper::accept(double t_new, double h, bool at_breakpoint) {
   }
   since_breakpoint_ = at_breakpoint ? 1 : std::min(since_breakpoint_ + 1, 3);
   ++result_.accepted_steps;
-  if (t_new >= options_.from) record(t_new, x_);
+  if (damping_) ++result_.damped_steps;
+  recorder_.advance(t_new, x_, shape_, t_stage_, &x_stage_);
+  if (observer_ && t_new >= options_.from) observer_(t_new, x_);
 }
 
 void Stepper::fail(double t, double h) const {

@@ -166,9 +166,11 @@ void Elaborator::solver(const ast::Solver& solver, const Frame& frame) {
     options.max_newton_iterations = static_cast<int>(n);
   }
   if (const ast::Expr* e = args.get("integration")) {
-    options.integration = require_choice(*e, {"trapezoidal", "bdf2"}, frame.file->source) == "bdf2"
-                              ? Integration::bdf2
-                              : Integration::trapezoidal;
+    const std::string method =
+        require_choice(*e, {"tr_bdf2", "trapezoidal", "bdf2"}, frame.file->source);
+    options.integration = method == "bdf2"          ? Integration::bdf2
+                          : method == "trapezoidal" ? Integration::trapezoidal
+                                                    : Integration::tr_bdf2;
   }
 }
 

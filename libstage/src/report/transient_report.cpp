@@ -16,7 +16,15 @@ std::string_view unit_of(const std::string& signal) {
 constexpr std::size_t kFullTableRows = 30;
 
 const char* method_name(Integration integration) {
-  return integration == Integration::bdf2 ? "BDF2" : "trapezoidal rule";
+  switch (integration) {
+    case Integration::tr_bdf2:
+      return "TR-BDF2";
+    case Integration::trapezoidal:
+      return "trapezoidal rule";
+    case Integration::bdf2:
+      return "BDF2";
+  }
+  return "";  // not reached: every method is named above
 }
 
 }  // namespace
@@ -32,8 +40,9 @@ void print_table(std::ostream& out, const TransientResult& r) {
   if (!r.time.empty())
     out << " from " << si(r.time.front(), "s") << " to " << si(r.time.back(), "s");
   out << "; " << method_name(r.integration) << ", " << r.accepted_steps << " steps accepted, "
-      << r.rejected_steps << " rejected, " << r.newton_iterations << " Newton iterations, "
-      << r.factorizations << " factorisations\n\n";
+      << r.rejected_steps << " rejected, ";
+  if (r.damped_steps > 0) out << r.damped_steps << " damped (ringing), ";
+  out << r.newton_iterations << " Newton iterations, " << r.factorizations << " factorisations\n\n";
   if (r.time.size() <= kFullTableRows) {
     std::vector<std::string> header{"time"};
     for (const auto& s : r.signals) header.push_back(s.name);
