@@ -32,6 +32,11 @@ struct SwingPower {
   double stored_power = 0;     // W into capacitors and inductors (0 once the drive has settled)
   double energy_residual = 0;  // imbalance of the equation above over supply + drive power
   double efficiency = 0;       // load power over supply power
+  // False when the last two periods still differed after the longest run
+  // allowed (a slow coupling capacitor): the figures are approximate and
+  // stored_power shows the charge still moving; `unsettled` says by how much.
+  bool settled = true;
+  std::string unsettled;
 };
 
 struct CharacterizeResult {
@@ -47,7 +52,7 @@ struct CharacterizeResult {
   std::optional<SwingPower> half_swing, full_swing;
   // At the largest symmetric swing within the 1 % limit (the THD's and each
   // side's shortfall): how clean the stage is before it compresses. Only
-  // when both sides reach their limit.
+  // when a side reaches its limit.
   std::optional<SwingPower> limit_swing;
 };
 

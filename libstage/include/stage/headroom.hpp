@@ -100,7 +100,9 @@ struct HeadroomResult {
   // fundamental amplitude there.
   std::optional<double> thd_limit_input_amplitude;
   std::optional<double> thd_limit_output_amplitude;
-  // What makes the THD reach the limit (crossover for a class-B pair).
+  // What makes the THD pass the limit, read at the first run past it (or the
+  // smallest drive, when the THD is past the limit from the start):
+  // crossover for a class-B pair.
   std::optional<LimitCause> thd_limit_cause;
   // Twice the smallest of the two peaks and the THD-limited amplitude: the
   // largest symmetric swing that stays within every limit.

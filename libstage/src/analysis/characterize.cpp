@@ -74,6 +74,8 @@ SwingPower swing_power(const Circuit& circuit, const analysis::SineDrive& drive,
   s.input_amplitude = amplitude;
   s.output_amplitude = m.fundamental;
   s.thd = m.thd;
+  s.settled = m.settled;
+  s.unsettled = m.unsettled;
   for (const auto& [name, absorbed] : m.element_power) {
     const Element* element = circuit.find(name);
     const ElementData& data = element != nullptr ? element->data : ElementData{Resistor{}};
@@ -166,9 +168,9 @@ CharacterizeResult run_characterize(const Circuit& circuit, const CharacterizeOp
       std::min(r.headroom.positive.input_amplitude, r.headroom.negative.input_amplitude);
   if (r.headroom.thd_limit_input_amplitude)
     within = std::min(within, *r.headroom.thd_limit_input_amplitude);
-  // Only where both sides meet their limit: a class-B pair's sides never do,
-  // and its THD passes the limit at microvolts, where no one runs it.
-  if (within > 0 && r.headroom.positive.found && r.headroom.negative.found) {
+  // Only where a side meets its limit: a class-B pair's sides never do, and
+  // its THD passes the limit at microvolts, where no one runs it.
+  if (within > 0 && (r.headroom.positive.found || r.headroom.negative.found)) {
     r.limit_swing = power_at(within, "within-limit");
   }
   return r;

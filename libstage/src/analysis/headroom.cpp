@@ -441,6 +441,12 @@ HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& optio
                : ", where the prediction is 1.5 times the largest rail") +
           "); its clip level is its peak there");
     }
+    const analysis::DriveMeasurement& clipped = search.runs().at(s.clip.input_amplitude);
+    if (!clipped.settled) {
+      result.notes.push_back(std::string(name) + " side: its clip level is approximate: at " +
+                             report::si(clipped.amplitude, "V") + " of drive, after " +
+                             std::to_string(clipped.periods) + " periods, " + clipped.unsettled);
+    }
     if (const auto [ok, bad] = search.bracket(compression); ok != nullptr && bad != nullptr) {
       s.compression_1dB_peak = side_peak(positive, *ok);
       s.compression_1dB_input_amplitude = ok->amplitude;
@@ -470,30 +476,35 @@ HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& optio
   result.symmetric_clip_peak = clips_first.clip.peak;
   result.symmetric_clip_input_amplitude = clips_first.clip.input_amplitude;
   double symmetric = std::min(result.positive.peak, result.negative.peak);
-  if (const auto [ok, bad] = search.bracket(kThd); ok != nullptr) {
-    if (bad != nullptr) {
-      result.thd_limit_input_amplitude = ok->amplitude;
-      result.thd_limit_output_amplitude = ok->fundamental;
-      symmetric = std::min(symmetric, ok->fundamental);
-      // A complementary pair biased off hands the output from one half to
-      // the other through a dead zone each period: its distortion is
-      // crossover. Which halves carry is read at the largest drive, where
-      // the currents stand clear of the leakage. Otherwise the THD is
-      // blamed like the worse side.
-      const auto up = carrier(system, result.bias, largest.maximum);
-      const auto down = carrier(system, result.bias, largest.minimum);
-      if (search.judged_large_signal() && up && down && up->polarity != down->polarity) {
-        result.thd_limit_cause = {
-            "crossover", up->name + " and " + down->name,
-            up->name + " carries the positive half, " + down->name + " the negative"};
-      } else {
-        const bool positive = search.value(kPositive, *bad) >= search.value(kNegative, *bad);
-        result.thd_limit_cause = classify(system, result.bias, rails, emitter_impedance,
-                                          positive ? bad->maximum : bad->minimum, reference);
-      }
-    }
-  } else {
+  const auto [thd_ok, thd_bad] = search.bracket(kThd);
+  if (thd_ok != nullptr && thd_bad != nullptr) {
+    result.thd_limit_input_amplitude = thd_ok->amplitude;
+    result.thd_limit_output_amplitude = thd_ok->fundamental;
+    symmetric = std::min(symmetric, thd_ok->fundamental);
+  } else if (thd_ok == nullptr) {
     symmetric = 0;
+  }
+  // What makes the THD pass the limit, read at the first run past it (the
+  // smallest drive, when the THD is past it from the start).
+  const analysis::DriveMeasurement* past =
+      thd_ok == nullptr ? &search.runs().begin()->second : thd_bad;
+  if (past != nullptr) {
+    // A complementary pair biased off hands the output from one half to the
+    // other through a dead zone each period: its distortion is crossover.
+    // Which halves carry is read at the largest drive, where the currents
+    // stand clear of the leakage. Otherwise the THD is blamed like the side
+    // that falls shorter.
+    const auto up = carrier(system, result.bias, largest.maximum);
+    const auto down = carrier(system, result.bias, largest.minimum);
+    if (search.judged_large_signal() && up && down && up->polarity != down->polarity) {
+      result.thd_limit_cause = {
+          "crossover", up->name + " and " + down->name,
+          up->name + " carries the positive half, " + down->name + " the negative"};
+    } else {
+      const bool positive = search.value(kPositive, *past) >= search.value(kNegative, *past);
+      result.thd_limit_cause = classify(system, result.bias, rails, emitter_impedance,
+                                        positive ? past->maximum : past->minimum, reference);
+    }
   }
   result.symmetric_peak_to_peak = 2 * symmetric;
   result.transient_runs = drive.runs();

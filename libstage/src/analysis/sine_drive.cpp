@@ -111,7 +111,12 @@ DriveMeasurement SineDrive::measure(double amplitude) const {
     m.average = spectrum.dc;
     periods_ = periods;
     if (spectrum.settled || periods * 2 > kMaxPeriods) {
-      if (!spectrum.settled) spdlog::warn("sine drive at {:.4g}: {}", amplitude, spectrum.message);
+      if (!spectrum.settled) {
+        // The results that use this measurement say so; the log is for tracing.
+        spdlog::debug("sine drive at {:.4g}: {}", amplitude, spectrum.message);
+        m.settled = false;
+        m.unsettled = spectrum.message;
+      }
       break;
     }
   }

@@ -34,7 +34,12 @@ struct DriveMeasurement {
   double thd = 0;
   double fundamental = 0;  // output's fundamental amplitude
   Extreme maximum, minimum;
-  int periods = 0;            // periods simulated
+  int periods = 0;  // periods simulated
+  // False when the last two periods still differ after the longest run
+  // allowed (a slow coupling capacitor): the figures are then approximate,
+  // and `unsettled` says by how much.
+  bool settled = true;
+  std::string unsettled;
   TransientResult transient;  // the recorded signals
   // Mean power each element took over the last period (positive absorbed),
   // by element name; empty unless the drive keeps an energy ledger.

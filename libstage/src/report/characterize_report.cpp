@@ -22,7 +22,8 @@ Json swing_json(const SwingPower& s) {
               {"dissipation_W", s.dissipation},
               {"stored_power_W", s.stored_power},
               {"energy_residual", s.energy_residual},
-              {"efficiency", s.efficiency}};
+              {"efficiency", s.efficiency},
+              {"settled", s.settled}};
 }
 
 std::string impedance_text(std::complex<double> z) {
@@ -84,6 +85,13 @@ void print_table(std::ostream& out, const CharacterizeResult& r) {
     }
     t.print(out);
     out << "  balance: (supply + drive − load − dissipated − stored) / (supply + drive)\n";
+    for (const auto& [name, s] : {std::pair{"half", &r.half_swing},
+                                  {"full", &r.full_swing},
+                                  {"within-limit", &r.limit_swing}}) {
+      if (*s && !(*s)->settled) {
+        out << "  note: the " << name << " swing is approximate: " << (*s)->unsettled << '\n';
+      }
+    }
   }
 }
 
@@ -93,12 +101,16 @@ void write_csv(std::ostream& out, const CharacterizeResult& r) {
       << "input_impedance_ohm," << csv_number(std::abs(r.input_impedance)) << '\n'
       << "output_impedance_ohm," << csv_number(std::abs(r.output_impedance)) << '\n'
       << "positive_peak_V," << csv_number(r.headroom.positive.peak) << '\n'
-      << "negative_peak_V," << csv_number(r.headroom.negative.peak) << '\n';
+      << "negative_peak_V," << csv_number(r.headroom.negative.peak) << '\n'
+      << "positive_clip_peak_V," << csv_number(r.headroom.positive.clip.peak) << '\n'
+      << "negative_clip_peak_V," << csv_number(r.headroom.negative.clip.peak) << '\n'
+      << "symmetric_clip_peak_V," << csv_number(r.headroom.symmetric_clip_peak) << '\n';
   for (const auto& [name, s] :
        {std::pair{"half", r.half_swing}, {"full", r.full_swing}, {"limit", r.limit_swing}}) {
     if (!s) continue;
     const Json swing = swing_json(*s);
     for (const auto& [key, value] : swing.items()) {
+      if (!value.is_number()) continue;
       out << name << "_swing." << key << ',' << csv_number(value) << '\n';
     }
   }

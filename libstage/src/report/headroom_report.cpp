@@ -67,8 +67,8 @@ Json to_json(const HeadroomResult& r) {
   if (r.thd_limit_input_amplitude) {
     j["thd_limit_input_amplitude"] = *r.thd_limit_input_amplitude;
     j["thd_limit_output_amplitude"] = *r.thd_limit_output_amplitude;
-    if (r.thd_limit_cause) j["thd_limit_cause"] = cause_json(*r.thd_limit_cause);
   }
+  if (r.thd_limit_cause) j["thd_limit_cause"] = cause_json(*r.thd_limit_cause);
   if (r.load_line) j["load_line"] = to_json(*r.load_line);
   if (!r.notes.empty()) j["notes"] = r.notes;
   return j;
@@ -125,14 +125,15 @@ void print_table(std::ostream& out, const HeadroomResult& r) {
   if (r.thd_limit_output_amplitude) {
     out << "; THD reaches the limit at " << si(*r.thd_limit_output_amplitude, "V")
         << " output amplitude";
-    if (r.thd_limit_cause) out << " (" << cause_text(*r.thd_limit_cause) << ")";
   }
+  if (r.thd_limit_cause) out << "; THD past the limit: " << cause_text(*r.thd_limit_cause);
   out << '\n';
   if (r.load_line) {
     out << '\n';
     print_table(out, *r.load_line);
-    out << "    simulated: " << si(r.positive.peak + r.negative.peak, "V")
-        << " peak-to-peak between the two side limits\n";
+    out << "    simulated: " << si(r.positive.clip.peak + r.negative.clip.peak, "V")
+        << " peak-to-peak between the two clip levels, "
+        << si(r.positive.peak + r.negative.peak, "V") << " between the two side limits\n";
   }
   for (const auto& note : r.notes) out << "  note: " << note << '\n';
 }
