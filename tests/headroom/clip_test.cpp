@@ -188,6 +188,23 @@ TEST(LimitCause, ClassBDistortionIsCrossover) {
   EXPECT_EQ(h.thd_limit_cause->mechanism, "crossover");
 }
 
+// A class-AB pair with 10 ohm emitter resistors (about 7 mA each) held to
+// 0.1 %: each side falls short while one half hands the output to the other,
+// both still conducting (crossover distortion of class AB: the pair's gain
+// changes as one half takes over; Sedra and Smith, class AB output stage).
+// Named crossover, not cutoff of a device that still carries mA.
+TEST(LimitCause, ClassAbHandOverIsCrossover) {
+  auto o = headroom_options();
+  o.distortion_limit = 0.001;
+  const auto h = stage::run_headroom(stage::testing::class_ab_pair(0, 10.0), o);
+  ASSERT_TRUE(h.positive.found);
+  ASSERT_TRUE(h.negative.found);
+  EXPECT_EQ(h.positive.cause.mechanism, "crossover");
+  EXPECT_EQ(h.positive.cause.device, "qp");  // the half handing over on the positive peak
+  EXPECT_EQ(h.negative.cause.mechanism, "crossover");
+  EXPECT_EQ(h.negative.cause.device, "qn");
+}
+
 // In a common-emitter stage driving a follower, the common-emitter stage
 // makes the distortion: its gain is gm RC, which follows its current, while
 // the follower's is gm R / (1 + gm R) with gm R near 20, which hardly moves

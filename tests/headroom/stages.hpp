@@ -152,8 +152,8 @@ inline Circuit class_b_pair(double drive_amplitude = 0) {
 }
 
 // The same pair biased into class AB by two diodes between the bases, fed
-// by 2.2 k from each rail, with 1 ohm emitter resistors.
-inline Circuit class_ab_pair(double drive_amplitude = 0) {
+// by 2.2 k from each rail, with 1 ohm emitter resistors (or others).
+inline Circuit class_ab_pair(double drive_amplitude = 0, double emitter_resistance = 1.0) {
   Circuit c = push_pull_frame("Class-AB pair", drive_amplitude);
   c.add_model("diode", generic_diode());
   c.add("r_top", Resistor{"vpos", "bn", 2.2e3});
@@ -164,8 +164,8 @@ inline Circuit class_ab_pair(double drive_amplitude = 0) {
   c.add("rmid", Resistor{"mid", "gnd", 100e3});
   c.add("qn", Bipolar{Polarity::npn, "vpos", "bn", "en", {}, "npn"});
   c.add("qp", Bipolar{Polarity::pnp, "vneg", "bp", "ep", {}, "pnp"});
-  c.add("ren", Resistor{"en", "out", 1.0});
-  c.add("rep", Resistor{"ep", "out", 1.0});
+  c.add("ren", Resistor{"en", "out", emitter_resistance});
+  c.add("rep", Resistor{"ep", "out", emitter_resistance});
   return c;
 }
 

@@ -12,6 +12,7 @@
 #include <limits>
 #include <map>
 #include <optional>
+#include <set>
 #include <stdexcept>
 
 #include "analysis/drive_setup.hpp"
@@ -178,15 +179,15 @@ class Search {
 // this order: a transistor newly in saturation; the output at a supply rail;
 // a diode that conducted at the bias point carrying less than
 // kStarvedFraction of that current (the network that biases the drive has run
-// out of current: current_limit); a complementary pair handing over (one
-// half carrying more than its bias current while the other, still
-// conducting, falls below kCutoffFraction of its own: crossover); a
-// transistor newly in cutoff or carrying less than kCutoffFraction of its
-// bias current, unless another transistor has taken over (more than
-// kTakeOver times its bias current, as in a push-pull pair, where the idle
-// half turning off is normal); otherwise smooth distortion, blamed on the
-// transistor that carries the side after a take-over, else on the one whose
-// incremental gain departs most from its small-signal value.
+// out of current: current_limit); unless another transistor has taken over
+// (more than kTakeOver times its bias current, as in a push-pull pair at a
+// large swing, where the idle half turning off is normal): a push-pull pair
+// handing over (one half above its bias current while the other, still
+// conducting, is below its own: crossover), then a transistor newly in
+// cutoff or carrying less than kCutoffFraction of its bias current;
+// otherwise smooth distortion, blamed on the transistor that carries the
+// side after a take-over, else on the one whose incremental gain departs
+// most from its small-signal value.
 mna::OperatingPointReport devices_at(const mna::System& system, const analysis::Extreme& extreme) {
   mna::EvalRequest at = system.request(extreme.state.data());
   at.dc = false;
@@ -202,10 +203,23 @@ double current_ratio(const BiasResult& bias, const BipolarOperatingPoint& q) {
   return biased > 0 ? std::max(std::abs(q.collector_current), 1e-300) / biased : 1.0;
 }
 
-LimitCause classify(const mna::System& system, const BiasResult& bias,
-                    const std::vector<analysis::Rail>& rails,
-                    const std::map<std::string, double>& emitter_impedance,
+// What classify needs to know of the circuit, found once per search.
+struct StageFacts {
+  std::vector<analysis::Rail> rails;
+  std::map<std::string, double> emitter_impedance;  // per transistor, ohm
+  // Push-pull pairs: an npn and a pnp whose emitters share a node or reach
+  // one node through one resistor each (emitter resistors).
+  std::set<std::pair<std::string, std::string>> pairs;
+
+  bool paired(const std::string& a, const std::string& b) const {
+    return pairs.count({a, b}) > 0 || pairs.count({b, a}) > 0;
+  }
+};
+
+LimitCause classify(const mna::System& system, const BiasResult& bias, const StageFacts& facts,
                     const analysis::Extreme& extreme, double output_reference) {
+  const auto& rails = facts.rails;
+  const auto& emitter_impedance = facts.emitter_impedance;
   const mna::OperatingPointReport report = devices_at(system, extreme);
   const auto ratio = [&](const BipolarOperatingPoint& q) { return current_ratio(bias, q); };
   // A transistor's share of its stage's gain goes as gm / (1 + gm Ze), Ze
@@ -257,15 +271,15 @@ LimitCause classify(const mna::System& system, const BiasResult& bias,
                   report::si(biased, "A") + " at the bias point"};
     }
   }
-  for (const auto& fading : report.bipolars) {
-    if (fading.region == "cutoff" || ratio(fading) >= kCutoffFraction) continue;
-    for (const auto& rising : report.bipolars) {
-      if (rising.polarity != fading.polarity && ratio(rising) > 1) {
-        return {"crossover", fading.name, currents(fading) + "; " + currents(rising)};
+  if (!taken_over) {
+    for (const auto& fading : report.bipolars) {
+      if (fading.region == "cutoff" || ratio(fading) >= 1) continue;
+      for (const auto& rising : report.bipolars) {
+        if (ratio(rising) > 1 && facts.paired(fading.name, rising.name)) {
+          return {"crossover", fading.name, currents(fading) + "; " + currents(rising)};
+        }
       }
     }
-  }
-  if (!taken_over) {
     for (const auto& q : report.bipolars) {
       if (q.region == "cutoff" && bias.bipolar(q.name).region != "cutoff") {
         return {"cutoff", q.name, currents(q)};
@@ -294,21 +308,47 @@ std::optional<BipolarOperatingPoint> carrier(const mna::System& system, const Bi
   return best;
 }
 
-// The impedance each transistor's emitter sees with the transistor taken out
-// (zero where it is grounded or taking it out floats a node).
-std::map<std::string, double> emitter_impedances(const Circuit& circuit, double frequency) {
-  std::map<std::string, double> z;
+StageFacts stage_facts(const Circuit& circuit, const std::string& input, double frequency) {
+  StageFacts facts;
+  facts.rails = analysis::supply_rails(circuit, input);
+  // Nodes one resistor away from each node, for emitter resistors.
+  std::multimap<std::string, std::string> through_resistor;
+  for (const Element& e : circuit.elements()) {
+    if (const auto* r = std::get_if<Resistor>(&e.data)) {
+      through_resistor.emplace(r->a, r->b);
+      through_resistor.emplace(r->b, r->a);
+    }
+  }
+  const auto share_output = [&](const std::string& a, const std::string& b) {
+    if (a == b) return true;
+    for (auto [from_a, end_a] = through_resistor.equal_range(a); from_a != end_a; ++from_a) {
+      for (auto [from_b, end_b] = through_resistor.equal_range(b); from_b != end_b; ++from_b) {
+        if (from_a->second == from_b->second) return true;
+      }
+    }
+    return false;
+  };
   for (const Element& e : circuit.elements()) {
     const auto* q = std::get_if<Bipolar>(&e.data);
     if (q == nullptr) continue;
+    // The impedance its emitter sees with it taken out (zero where it is
+    // grounded or taking it out floats a node).
     try {
-      z[e.name] = analysis::impedance_without(circuit, e.name, q->emitter, kGround, frequency)
-                      .value_or(0.0);
+      facts.emitter_impedance[e.name] =
+          analysis::impedance_without(circuit, e.name, q->emitter, kGround, frequency)
+              .value_or(0.0);
     } catch (const NumericalError&) {
-      z[e.name] = 0;
+      facts.emitter_impedance[e.name] = 0;
+    }
+    for (const Element& other : circuit.elements()) {
+      const auto* p = std::get_if<Bipolar>(&other.data);
+      if (p != nullptr && q->polarity == Polarity::npn && p->polarity == Polarity::pnp &&
+          share_output(q->emitter, p->emitter)) {
+        facts.pairs.emplace(e.name, other.name);
+      }
     }
   }
-  return z;
+  return facts;
 }
 
 // The largest input amplitude a driver on the circuit's rails can deliver:
@@ -350,7 +390,8 @@ HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& optio
   const analysis::SineDrive drive(circuit, options.input, options.output, options.frequency);
   Search search(drive, options.distortion_limit, result.small_signal_gain, progress);
 
-  const auto rails = analysis::supply_rails(circuit, options.input);
+  const StageFacts facts = stage_facts(circuit, options.input, options.frequency);
+  const auto& rails = facts.rails;
   double largest_rail = 1.0;
   for (const analysis::Rail& r : rails) largest_rail = std::max(largest_rail, std::abs(r.voltage));
   const std::optional<double> rail_bound = rail_drive_bound(circuit, rails, options.input);
@@ -409,7 +450,6 @@ HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& optio
   }
 
   const mna::System system(circuit);
-  const auto emitter_impedance = emitter_impedances(circuit, options.frequency);
   const double reference =
       options.output.kind == SignalRef::Kind::node_pair ? node(options.output.b) : 0.0;
   const auto& largest = search.runs().rbegin()->second;
@@ -418,8 +458,7 @@ HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& optio
     const bool positive = positive_side(c);
     const char* name = positive ? "positive" : "negative";
     auto cause_in = [&](const analysis::DriveMeasurement& m) {
-      return classify(system, result.bias, rails, emitter_impedance,
-                      positive ? m.maximum : m.minimum, reference);
+      return classify(system, result.bias, facts, positive ? m.maximum : m.minimum, reference);
     };
     SideLimit s;
     if (const auto flat = search.plateau(positive)) {
@@ -496,14 +535,14 @@ HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& optio
     // that falls shorter.
     const auto up = carrier(system, result.bias, largest.maximum);
     const auto down = carrier(system, result.bias, largest.minimum);
-    if (search.judged_large_signal() && up && down && up->polarity != down->polarity) {
+    if (search.judged_large_signal() && up && down && facts.paired(up->name, down->name)) {
       result.thd_limit_cause = {
           "crossover", up->name + " and " + down->name,
           up->name + " carries the positive half, " + down->name + " the negative"};
     } else {
       const bool positive = search.value(kPositive, *past) >= search.value(kNegative, *past);
-      result.thd_limit_cause = classify(system, result.bias, rails, emitter_impedance,
-                                        positive ? past->maximum : past->minimum, reference);
+      result.thd_limit_cause =
+          classify(system, result.bias, facts, positive ? past->maximum : past->minimum, reference);
     }
   }
   result.symmetric_peak_to_peak = 2 * symmetric;
