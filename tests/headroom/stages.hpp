@@ -79,6 +79,50 @@ inline Circuit common_emitter() {
   return c;
 }
 
+// The common-emitter stage's transistor, emitter fully bypassed, driving an
+// emitter follower straight from its collector; the follower feeds 100 ohm
+// through 100 uF. ICQ about 1.9 mA in q1, 5 mA in q2. The follower's current
+// swings far more than q1's, but its gain hardly changes with it: the
+// distortion is q1's.
+inline Circuit common_emitter_into_follower() {
+  Circuit c;
+  c.title = "Common-emitter stage into a follower";
+  c.add_model("npn", generic_npn());
+  c.add("vcc", VoltageSource{"vcc", "gnd", 15.0});
+  c.add("vin", VoltageSource{"in", "gnd", 0.0, 1.0});
+  c.add("cin", Capacitor{"in", "base", 10e-6});
+  c.add("r1", Resistor{"vcc", "base", 39e3});
+  c.add("r2", Resistor{"base", "gnd", 8.2e3});
+  c.add("q1", Bipolar{Polarity::npn, "collector", "base", "emitter", {}, "npn"});
+  c.add("rc", Resistor{"vcc", "collector", 4.7e3});
+  c.add("re", Resistor{"emitter", "gnd", 1e3});
+  c.add("ce", Capacitor{"emitter", "gnd", 470e-6});
+  c.add("q2", Bipolar{Polarity::npn, "vcc", "collector", "follower", {}, "npn"});
+  c.add("re2", Resistor{"follower", "gnd", 1e3});
+  c.add("cout", Capacitor{"follower", "out", 100e-6});
+  c.add("rl", Resistor{"out", "gnd", 100.0});
+  return c;
+}
+
+// A bare complementary pair: both bases tied to an ideal source, emitters
+// to the output, on +/-15 V into 8 ohm. Driven beyond the rails, the ideal
+// source forces the base-collector junctions into them.
+inline Circuit bare_pair_8ohm() {
+  Circuit c;
+  c.title = "Bare complementary pair, 8 ohm";
+  c.add_model("npn", generic_power());
+  c.add_model("pnp", generic_power());
+  c.add("vpos", VoltageSource{"vpos", "gnd", 15.0});
+  c.add("vneg", VoltageSource{"vneg", "gnd", -15.0});
+  VoltageSource vin{"in", "gnd", 0.0, 1.0};
+  vin.wave = SineWave{12.0, 1e3};
+  c.add("vin", vin);
+  c.add("qn", Bipolar{Polarity::npn, "vpos", "in", "out", {}, "npn"});
+  c.add("qp", Bipolar{Polarity::pnp, "vneg", "in", "out", {}, "pnp"});
+  c.add("rl", Resistor{"out", "gnd", 8.0});
+  return c;
+}
+
 // What both push-pull stages share: +/-12 V rails, the pair's models, a
 // 32 ohm load from `out`, and the input source (a sine of the given peak
 // when drive_amplitude > 0, for transients).
@@ -108,8 +152,8 @@ inline Circuit class_b_pair(double drive_amplitude = 0) {
 }
 
 // The same pair biased into class AB by two diodes between the bases, fed
-// by 2.2 k from each rail, with 1 ohm emitter resistors.
-inline Circuit class_ab_pair(double drive_amplitude = 0) {
+// by 2.2 k from each rail, with 1 ohm emitter resistors (or others).
+inline Circuit class_ab_pair(double drive_amplitude = 0, double emitter_resistance = 1.0) {
   Circuit c = push_pull_frame("Class-AB pair", drive_amplitude);
   c.add_model("diode", generic_diode());
   c.add("r_top", Resistor{"vpos", "bn", 2.2e3});
@@ -120,8 +164,8 @@ inline Circuit class_ab_pair(double drive_amplitude = 0) {
   c.add("rmid", Resistor{"mid", "gnd", 100e3});
   c.add("qn", Bipolar{Polarity::npn, "vpos", "bn", "en", {}, "npn"});
   c.add("qp", Bipolar{Polarity::pnp, "vneg", "bp", "ep", {}, "pnp"});
-  c.add("ren", Resistor{"en", "out", 1.0});
-  c.add("rep", Resistor{"ep", "out", 1.0});
+  c.add("ren", Resistor{"en", "out", emitter_resistance});
+  c.add("rep", Resistor{"ep", "out", emitter_resistance});
   return c;
 }
 

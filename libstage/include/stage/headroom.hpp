@@ -11,13 +11,16 @@
 //
 // The input source is driven with a sine at `frequency` around its DC value.
 // For each amplitude a transient runs until the waveform repeats, and each
-// polarity is judged on its own: its peak excursion from the bias point is
-// compared with the small-signal prediction |gain| x amplitude. A side is
-// within the limit while its peak falls short of the prediction by at most
-// `distortion_limit` (relative); the THD of the whole waveform is held to the
-// same limit. The
-// largest amplitude within each limit is bracketed by doubling, then found by
-// regula falsi to 1 %, every transient run informing all three searches.
+// polarity is judged on its own. Its clip level is the peak it reaches and
+// cannot pass: where its incremental gain (peak against drive) falls below a
+// fifth of its largest, or the peak at the largest drive the rails allow.
+// Below that, its peak excursion from the bias point is compared with the
+// small-signal prediction |gain| x amplitude: a side is within the limit
+// while its peak falls short of the prediction by at most `distortion_limit`
+// (relative), and 1 dB compressed where it falls short by a factor
+// 10^(-1/20). The THD of the whole waveform is held to `distortion_limit`.
+// Each figure's drive is bracketed by doubling, then narrowed (to 1 %, the
+// clip level's to 5 %), every transient run informing every search.
 #pragma once
 
 #include <optional>
@@ -35,12 +38,25 @@ namespace stage {
 // reaching cutoff, the output reaching a supply rail, or smooth distortion
 // with no device changing region (spec section 7's mechanisms).
 struct LimitCause {
-  std::string mechanism;  // saturation, cutoff, rail, current_limit, distortion
-  std::string device;     // the transistor or supply involved
+  // saturation, cutoff, rail, current_limit, crossover, drive_limit, distortion
+  std::string mechanism;
+  std::string device;  // the transistor or supply involved
   // For smooth distortion: the transistor whose collector current moved
   // furthest from its bias value at the peak, and both currents, so the
   // designer sees which way the side is heading.
   std::string detail;
+};
+
+// The peak a side reaches and cannot pass however hard it is driven, within
+// the drive the rails allow.
+struct ClipLevel {
+  double peak = 0;             // V (or A) from the bias point
+  double input_amplitude = 0;  // the drive where the side stopped growing (or the largest allowed)
+  LimitCause cause;            // read at that drive
+  // True: the side's incremental gain fell below a fifth of its largest (it
+  // clipped). False: it was still growing at the largest drive allowed, and
+  // `cause` is drive_limit.
+  bool plateau = false;
 };
 
 struct SideLimit {
@@ -53,6 +69,10 @@ struct SideLimit {
   std::optional<LimitCause> at_largest_drive;
   double largest_drive = 0;  // that input amplitude
   bool found = false;        // false: the limit was not reached below the largest amplitude tried
+  ClipLevel clip;
+  // The largest peak within 1 dB of the prediction, and its drive; nothing
+  // when the side never compressed by 1 dB within the drive allowed.
+  std::optional<double> compression_1dB_peak, compression_1dB_input_amplitude;
 };
 
 // The textbook AC load line of a single-transistor stage (Malvino and Bates,
@@ -80,9 +100,21 @@ struct HeadroomResult {
   // fundamental amplitude there.
   std::optional<double> thd_limit_input_amplitude;
   std::optional<double> thd_limit_output_amplitude;
+  // What makes the THD pass the limit, read at the first run past it (or the
+  // smallest drive, when the THD is past the limit from the start):
+  // crossover for a class-B pair.
+  std::optional<LimitCause> thd_limit_cause;
   // Twice the smallest of the two peaks and the THD-limited amplitude: the
   // largest symmetric swing that stays within every limit.
   double symmetric_peak_to_peak = 0;
+  // The smaller of the two sides' clip levels (a peak), and the drive where
+  // that side reaches it: the designer's "full swing".
+  double symmetric_clip_peak = 0;
+  double symmetric_clip_input_amplitude = 0;
+  // The largest input amplitude the search may use: half the span between
+  // the lowest and highest rail for a voltage input (what a driver on those
+  // rails can deliver), and never a prediction beyond 1.5 x the largest rail.
+  double largest_drive_allowed = 0;
   int transient_runs = 0;
   std::optional<LoadLineEstimate> load_line;  // single-transistor stages only
   BiasResult bias;

@@ -1,12 +1,16 @@
-// The stage report: one wide frequency sweep, the headroom search, and two
-// sine drives (half and full symmetric headroom) for distortion and power.
+// The stage report: one wide frequency sweep, the headroom search, and three
+// sine drives (full swing at the symmetric clip level, half of it, and the
+// edge of the 1 % limit) for distortion and a power ledger that must balance.
 #include "stage/characterize.hpp"
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 
 #include "analysis/drive_setup.hpp"
 #include "analysis/sine_drive.hpp"
+#include "report/format.hpp"
+#include "stage/errors.hpp"
 
 namespace stage {
 namespace {
@@ -14,6 +18,11 @@ namespace {
 constexpr double kHeadroomLimit = 0.01;  // the stage report judges headroom at 1 %
 constexpr double kDecadesBelow = 3, kDecadesAbove = 4;
 constexpr int kPointsPerDecade = 20;
+// A swing's powers must balance to this fraction of the power delivered:
+// Tellegen's theorem makes the terminal powers sum to zero at every step up
+// to Newton's tolerance; what is left is the quadrature of the charges' share
+// over about 400 steps a period (common practice for a power audit).
+constexpr double kBalanceTolerance = 1e-3;
 
 // Mean of a sampled signal over [from, to] by the trapezoidal rule.
 double period_mean(const std::vector<double>& time, const std::vector<double>& values, double from,
@@ -31,58 +40,86 @@ double period_mean(const std::vector<double>& time, const std::vector<double>& v
   return area / (to - from);
 }
 
-// The signals a swing's power is computed from: each supply's current, and
-// the load's current and the voltage across it.
-struct PowerProbes {
-  std::vector<analysis::Rail> rails;
-  std::optional<SignalRef> load_current, load_voltage;
+// The load's current and the voltage across it, recorded for its DC part.
+struct LoadProbes {
+  std::string load;  // empty without a resistor load
+  std::optional<SignalRef> current, voltage;
 
   std::vector<SignalRef> signals() const {
-    std::vector<SignalRef> s;
-    for (const auto& r : rails) s.push_back(SignalRef::current(r.source));
-    if (load_current) s.insert(s.end(), {*load_current, *load_voltage});
-    return s;
+    if (!current) return {};
+    return {*current, *voltage};
   }
 };
 
-PowerProbes power_probes(const Circuit& circuit, const CharacterizeOptions& o) {
-  PowerProbes p{analysis::supply_rails(circuit, o.input), {}, {}};
+LoadProbes load_probes(const Circuit& circuit, const CharacterizeOptions& o) {
+  LoadProbes p;
   if (o.load) {
     const Element* e = circuit.find(*o.load);
     if (const auto* r = e ? std::get_if<Resistor>(&e->data) : nullptr) {
-      p.load_current = SignalRef::current(*o.load);
-      p.load_voltage = SignalRef::pair(r->a, r->b);
+      p.load = *o.load;
+      p.current = SignalRef::current(*o.load);
+      p.voltage = SignalRef::pair(r->a, r->b);
     }
   }
   return p;
 }
 
-SwingPower swing_power(const analysis::SineDrive& drive, const PowerProbes& probes,
-                       double amplitude, double frequency) {
+// Sorts each element's mean power into the ledger's accounts and checks that
+// they balance. `row` names the swing in a failure.
+SwingPower swing_power(const Circuit& circuit, const analysis::SineDrive& drive,
+                       const LoadProbes& load, const std::string& input, double amplitude,
+                       double frequency, const std::string& row) {
   const analysis::DriveMeasurement m = drive.measure(amplitude);
-  const auto& t = m.transient.time;
-  const double to = t.back(), from = to - 1.0 / frequency;
   SwingPower s;
   s.input_amplitude = amplitude;
   s.output_amplitude = m.fundamental;
   s.thd = m.thd;
-  for (const auto& r : probes.rails) {
-    // A DC rail: its power is its voltage times its mean delivered current.
-    s.supply_power +=
-        r.source_voltage * period_mean(t, m.transient.signal(r.source + ".current"), from, to);
+  s.settled = m.settled;
+  s.unsettled = m.unsettled;
+  for (const auto& [name, absorbed] : m.element_power) {
+    const Element* element = circuit.find(name);
+    const ElementData& data = element != nullptr ? element->data : ElementData{Resistor{}};
+    if (name == input) {
+      s.drive_power -= absorbed;
+    } else if (std::holds_alternative<VoltageSource>(data) ||
+               std::holds_alternative<CurrentSource>(data)) {
+      s.supply_power -= absorbed;
+    } else if (std::holds_alternative<Capacitor>(data) || std::holds_alternative<Inductor>(data)) {
+      s.stored_power += absorbed;
+    } else if (name == load.load) {
+      // Signal power only: a load that also carries the bias current (class A
+      // with the load as emitter resistor) takes DC power that is no output.
+      const auto& t = m.transient.time;
+      const double to = t.back(), from = to - 1.0 / frequency;
+      const double dc = period_mean(t, m.transient.signal(load.voltage->label()), from, to) *
+                        period_mean(t, m.transient.signal(load.current->label()), from, to);
+      s.load_power = absorbed - dc;
+      s.dissipation += dc;
+    } else {
+      s.dissipation += absorbed;
+    }
   }
-  if (probes.load_current) {
-    const auto& i = m.transient.signal(probes.load_current->label());
-    const auto& v = m.transient.signal(probes.load_voltage->label());
-    std::vector<double> p(i.size());
-    for (std::size_t k = 0; k < p.size(); ++k) p[k] = v[k] * i[k];
-    // Signal power only: a load that also carries the bias current (class A
-    // with the load as emitter resistor) takes DC power that is no output.
-    s.load_power =
-        period_mean(t, p, from, to) - period_mean(t, v, from, to) * period_mean(t, i, from, to);
+  const double delivered = s.supply_power + s.drive_power;
+  const double imbalance = delivered - s.load_power - s.dissipation - s.stored_power;
+  s.energy_residual = imbalance / std::max(std::abs(s.supply_power) + std::abs(s.drive_power),
+                                           std::numeric_limits<double>::min());
+  const auto figures = [&] {
+    return "supplies " + report::si(s.supply_power, "W") + ", drive " +
+           report::si(s.drive_power, "W") + ", load " + report::si(s.load_power, "W") +
+           ", dissipated " + report::si(s.dissipation, "W") + ", stored " +
+           report::si(s.stored_power, "W");
+  };
+  if (!(std::abs(s.energy_residual) <= kBalanceTolerance)) {
+    throw NumericalError("the " + row + " swing's powers do not balance (" + figures() +
+                             ", off by " + report::si(imbalance, "W") + ")",
+                         {});
   }
-  s.dissipation = s.supply_power - s.load_power;
-  s.efficiency = s.supply_power > 0 ? s.load_power / s.supply_power : 0;
+  if (!(s.supply_power > 0)) {
+    throw NumericalError("at the " + row + " swing the supplies absorb power (" + figures() +
+                             "): the drive feeds them",
+                         {input});
+  }
+  s.efficiency = s.load_power / s.supply_power;
   return s;
 }
 
@@ -116,16 +153,25 @@ CharacterizeResult run_characterize(const Circuit& circuit, const CharacterizeOp
   HeadroomOptions h{options.input, options.output, options.frequency, kHeadroomLimit, options.load};
   r.headroom = run_headroom(circuit, h, progress);
 
-  double full = std::min(r.headroom.positive.input_amplitude, r.headroom.negative.input_amplitude);
+  const LoadProbes load = load_probes(circuit, options);
+  const analysis::SineDrive drive(circuit, options.input, options.output, options.frequency,
+                                  load.signals(), true);
+  const auto power_at = [&](double amplitude, const std::string& row) {
+    return swing_power(circuit, drive, load, options.input, amplitude, options.frequency, row);
+  };
+  if (progress) progress("characterize: power at full and half swing");
+  if (const double full = r.headroom.symmetric_clip_input_amplitude; full > 0) {
+    r.full_swing = power_at(full, "full");
+    r.half_swing = power_at(full / 2, "half");
+  }
+  double within =
+      std::min(r.headroom.positive.input_amplitude, r.headroom.negative.input_amplitude);
   if (r.headroom.thd_limit_input_amplitude)
-    full = std::min(full, *r.headroom.thd_limit_input_amplitude);
-  if (full > 0) {
-    const PowerProbes probes = power_probes(circuit, options);
-    const analysis::SineDrive drive(circuit, options.input, options.output, options.frequency,
-                                    probes.signals());
-    if (progress) progress("characterize: power at full and half swing");
-    r.full_swing = swing_power(drive, probes, full, options.frequency);
-    r.half_swing = swing_power(drive, probes, full / 2, options.frequency);
+    within = std::min(within, *r.headroom.thd_limit_input_amplitude);
+  // Only where a side meets its limit: a class-B pair's sides never do, and
+  // its THD passes the limit at microvolts, where no one runs it.
+  if (within > 0 && (r.headroom.positive.found || r.headroom.negative.found)) {
+    r.limit_swing = power_at(within, "within-limit");
   }
   return r;
 }

@@ -1,8 +1,9 @@
 // Preparing a circuit for the stage analyses (headroom, characterize): the
-// input source alone carries the small-signal drive, and the DC supplies
-// whose power a swing draws.
+// input source alone carries the small-signal drive, the impedance an
+// element's terminals see, and the DC supplies whose power a swing draws.
 #pragma once
 
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -20,6 +21,14 @@ Circuit with_only_ac_input(const Circuit& circuit, const std::string& input);
 // around the bias point).
 double small_signal_gain(const Circuit& circuit, const std::string& input, const SignalRef& output,
                          double frequency);
+
+// The small-signal impedance |Z| between nodes a and b at `frequency` with
+// `removed` taken out of the circuit and every source zeroed: what that
+// element's terminals see of the rest. Nothing when a and b are the same
+// node; throws NumericalError when taking the element out floats a node.
+std::optional<double> impedance_without(const Circuit& circuit, const std::string& removed,
+                                        const std::string& a, const std::string& b,
+                                        double frequency);
 
 // A DC voltage source tied to ground: the rail it holds a node at.
 struct Rail {

@@ -14,8 +14,6 @@
 namespace stage {
 namespace {
 
-constexpr const char* kProbe = "load_line_probe";
-
 const Element* only_transistor(const Circuit& circuit) {
   const Element* found = nullptr;
   for (const Element& e : circuit.elements()) {
@@ -24,23 +22,6 @@ const Element* only_transistor(const Circuit& circuit) {
     found = &e;
   }
   return found;
-}
-
-// The circuit without `transistor`, with the probe current source from
-// emitter to collector (small_signal_gain zeroes every other AC source).
-Circuit probe_circuit(const Circuit& circuit, const Element& transistor) {
-  const auto& q = std::get<Bipolar>(transistor.data);
-  Circuit probe;
-  probe.temperature = circuit.temperature;
-  probe.solver = circuit.solver;
-  for (const auto& [name, model] : circuit.bipolar_models()) probe.add_model(name, model);
-  for (const auto& [name, model] : circuit.diode_models()) probe.add_model(name, model);
-  for (const Element& e : circuit.elements()) {
-    if (&e == &transistor) continue;
-    probe.add(e.name, e.data);
-  }
-  probe.add(kProbe, CurrentSource{q.emitter, q.collector, 0.0, 1.0});
-  return probe;
 }
 
 }  // namespace
@@ -54,8 +35,9 @@ std::optional<LoadLineEstimate> estimate_load_line(const Circuit& circuit, const
 
   double ac_load = 0;
   try {
-    ac_load = analysis::small_signal_gain(probe_circuit(circuit, *transistor), kProbe,
-                                          SignalRef::pair(q.collector, q.emitter), frequency);
+    ac_load =
+        analysis::impedance_without(circuit, transistor->name, q.collector, q.emitter, frequency)
+            .value_or(0.0);
   } catch (const NumericalError&) {
     return std::nullopt;  // without the transistor a node floats: no load line to draw
   }

@@ -4,8 +4,10 @@
 #include <spdlog/spdlog.h>
 
 #include <limits>
+#include <optional>
 #include <stdexcept>
 
+#include "analysis/energy_ledger.hpp"
 #include "analysis/transient.hpp"
 #include "mna/system.hpp"
 
@@ -25,12 +27,13 @@ void drive(Source& source, double amplitude, double frequency) {
 }  // namespace
 
 SineDrive::SineDrive(Circuit circuit, std::string input, SignalRef output, double frequency,
-                     std::vector<SignalRef> record)
+                     std::vector<SignalRef> record, bool energy_ledger)
     : circuit_(std::move(circuit)),
       input_(std::move(input)),
       output_(std::move(output)),
       frequency_(frequency),
       record_(std::move(record)),
+      energy_ledger_(energy_ledger),
       periods_(kFirstPeriods) {
   if (output_.kind == SignalRef::Kind::element_current) {
     throw std::invalid_argument("a large-signal output must be a node or a node pair, not " +
@@ -73,14 +76,25 @@ TransientResult SineDrive::run(double amplitude, int periods, DriveMeasurement& 
   const double window = options.stop - period * (1 + 1e-9);
   m.maximum = {0, -std::numeric_limits<double>::infinity(), {}};
   m.minimum = {0, std::numeric_limits<double>::infinity(), {}};
+  std::optional<EnergyLedger> ledger;
+  if (energy_ledger_) ledger.emplace(c, system).start(window);
   const StepObserver observer = [&](double t, const std::vector<double>& x) {
+    if (ledger) ledger->step(t, x);
     if (t < window) return;
     const double v = x[p] - x[n];
     if (v > m.maximum.value) m.maximum = {t, v, x};
     if (v < m.minimum.value) m.minimum = {t, v, x};
   };
   ++runs_;
-  return integrate(system, c.solver, options, observer);
+  TransientResult result = integrate(system, c.solver, options, observer);
+  m.element_power.clear();
+  if (ledger) {
+    const std::vector<double> power = ledger->mean_power();
+    for (std::size_t d = 0; d < power.size(); ++d) {
+      m.element_power.emplace_back(system.devices()[d]->name(), power[d]);
+    }
+  }
+  return result;
 }
 
 DriveMeasurement SineDrive::measure(double amplitude) const {
@@ -97,7 +111,12 @@ DriveMeasurement SineDrive::measure(double amplitude) const {
     m.average = spectrum.dc;
     periods_ = periods;
     if (spectrum.settled || periods * 2 > kMaxPeriods) {
-      if (!spectrum.settled) spdlog::warn("sine drive at {:.4g}: {}", amplitude, spectrum.message);
+      if (!spectrum.settled) {
+        // The results that use this measurement say so; the log is for tracing.
+        spdlog::debug("sine drive at {:.4g}: {}", amplitude, spectrum.message);
+        m.settled = false;
+        m.unsettled = spectrum.message;
+      }
       break;
     }
   }

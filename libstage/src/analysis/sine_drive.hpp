@@ -2,10 +2,12 @@
 // of a given amplitude around its DC value, a transient run until the
 // waveform repeats, and the output's last period read for its peaks each way,
 // its THD, and the circuit's full state at the two extremes (for telling what
-// limits each side). Shared by the headroom search and the stage report.
+// limits each side) and, when asked, the mean power each element took over
+// that period. Shared by the headroom search and the stage report.
 #pragma once
 
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "stage/circuit.hpp"
@@ -32,16 +34,25 @@ struct DriveMeasurement {
   double thd = 0;
   double fundamental = 0;  // output's fundamental amplitude
   Extreme maximum, minimum;
-  int periods = 0;            // periods simulated
+  int periods = 0;  // periods simulated
+  // False when the last two periods still differ after the longest run
+  // allowed (a slow coupling capacitor): the figures are then approximate,
+  // and `unsettled` says by how much.
+  bool settled = true;
+  std::string unsettled;
   TransientResult transient;  // the recorded signals
+  // Mean power each element took over the last period (positive absorbed),
+  // by element name; empty unless the drive keeps an energy ledger.
+  std::vector<std::pair<std::string, double>> element_power;
 };
 
 class SineDrive {
  public:
   // `output` must be a node or a node pair. `record` lists extra signals kept
-  // in each measurement's transient (supply and load currents, for power).
+  // in each measurement's transient (load current and voltage, for power);
+  // `energy_ledger` fills each measurement's element_power.
   SineDrive(Circuit circuit, std::string input, SignalRef output, double frequency,
-            std::vector<SignalRef> record = {});
+            std::vector<SignalRef> record = {}, bool energy_ledger = false);
 
   DriveMeasurement measure(double amplitude) const;
   int runs() const { return runs_; }
@@ -55,6 +66,7 @@ class SineDrive {
   double frequency_;
   double input_dc_ = 0;
   std::vector<SignalRef> record_;
+  bool energy_ledger_ = false;
   mutable int runs_ = 0;
   mutable int periods_;  // periods the last measurement needed to settle
 };

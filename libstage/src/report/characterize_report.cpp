@@ -17,9 +17,13 @@ Json swing_json(const SwingPower& s) {
               {"output_amplitude", s.output_amplitude},
               {"thd", s.thd},
               {"supply_power_W", s.supply_power},
+              {"drive_power_W", s.drive_power},
               {"load_power_W", s.load_power},
               {"dissipation_W", s.dissipation},
-              {"efficiency", s.efficiency}};
+              {"stored_power_W", s.stored_power},
+              {"energy_residual", s.energy_residual},
+              {"efficiency", s.efficiency},
+              {"settled", s.settled}};
 }
 
 std::string impedance_text(std::complex<double> z) {
@@ -50,6 +54,7 @@ Json to_json(const CharacterizeResult& r) {
          {"headroom", headroom}};
   if (r.half_swing) j["half_swing"] = swing_json(*r.half_swing);
   if (r.full_swing) j["full_swing"] = swing_json(*r.full_swing);
+  if (r.limit_swing) j["limit_swing"] = swing_json(*r.limit_swing);
   return j;
 }
 
@@ -65,15 +70,28 @@ void print_table(std::ostream& out, const CharacterizeResult& r) {
       << "  input impedance " << impedance_text(r.input_impedance) << ", output impedance "
       << impedance_text(r.output_impedance) << "\n\n";
   print_table(out, r.headroom);
-  if (r.full_swing) {
+  if (r.full_swing || r.limit_swing) {
     out << '\n';
-    TextTable t({"swing", "output amplitude", "THD", "supply power", "load power", "dissipated",
-                 "efficiency"});
-    for (const auto& [name, s] : {std::pair{"half", *r.half_swing}, {"full", *r.full_swing}}) {
-      t.add_row({name, si(s.output_amplitude, "V"), percent(s.thd), si(s.supply_power, "W"),
-                 si(s.load_power, "W"), si(s.dissipation, "W"), percent(s.efficiency)});
+    TextTable t({"swing", "output amplitude", "THD", "supply power", "drive power", "load power",
+                 "dissipated", "efficiency", "balance"});
+    for (const auto& [name, s] : {std::pair{"half", &r.half_swing},
+                                  {"full (clip level)", &r.full_swing},
+                                  {"within 1 % limit", &r.limit_swing}}) {
+      if (!*s) continue;
+      const SwingPower& p = **s;
+      t.add_row({name, si(p.output_amplitude, "V"), percent(p.thd), si(p.supply_power, "W"),
+                 si(p.drive_power, "W"), si(p.load_power, "W"), si(p.dissipation, "W"),
+                 percent(p.efficiency), si(p.energy_residual, "")});
     }
     t.print(out);
+    out << "  balance: (supply + drive − load − dissipated − stored) / (supply + drive)\n";
+    for (const auto& [name, s] : {std::pair{"half", &r.half_swing},
+                                  {"full", &r.full_swing},
+                                  {"within-limit", &r.limit_swing}}) {
+      if (*s && !(*s)->settled) {
+        out << "  note: the " << name << " swing is approximate: " << (*s)->unsettled << '\n';
+      }
+    }
   }
 }
 
@@ -83,11 +101,16 @@ void write_csv(std::ostream& out, const CharacterizeResult& r) {
       << "input_impedance_ohm," << csv_number(std::abs(r.input_impedance)) << '\n'
       << "output_impedance_ohm," << csv_number(std::abs(r.output_impedance)) << '\n'
       << "positive_peak_V," << csv_number(r.headroom.positive.peak) << '\n'
-      << "negative_peak_V," << csv_number(r.headroom.negative.peak) << '\n';
-  for (const auto& [name, s] : {std::pair{"half", r.half_swing}, {"full", r.full_swing}}) {
+      << "negative_peak_V," << csv_number(r.headroom.negative.peak) << '\n'
+      << "positive_clip_peak_V," << csv_number(r.headroom.positive.clip.peak) << '\n'
+      << "negative_clip_peak_V," << csv_number(r.headroom.negative.clip.peak) << '\n'
+      << "symmetric_clip_peak_V," << csv_number(r.headroom.symmetric_clip_peak) << '\n';
+  for (const auto& [name, s] :
+       {std::pair{"half", r.half_swing}, {"full", r.full_swing}, {"limit", r.limit_swing}}) {
     if (!s) continue;
     const Json swing = swing_json(*s);
     for (const auto& [key, value] : swing.items()) {
+      if (!value.is_number()) continue;
       out << name << "_swing." << key << ',' << csv_number(value) << '\n';
     }
   }

@@ -10,8 +10,16 @@ Json cause_json(const LimitCause& c) {
   return j;
 }
 
+Json optional_number(const std::optional<double>& v) { return v ? Json(*v) : Json(nullptr); }
+
 Json side_json(const SideLimit& s) {
   Json j = cause_json(s.cause);
+  j["clip_peak_V"] = s.clip.peak;
+  j["clip_input_amplitude"] = s.clip.input_amplitude;
+  j["clip_cause"] = cause_json(s.clip.cause);
+  j["clip_plateau"] = s.clip.plateau;
+  j["compression_1dB_peak_V"] = optional_number(s.compression_1dB_peak);
+  j["compression_1dB_input_amplitude"] = optional_number(s.compression_1dB_input_amplitude);
   j["input_amplitude"] = s.input_amplitude;
   j["shortfall"] = s.shortfall;
   j["limit_reached"] = s.found;
@@ -46,6 +54,11 @@ Json to_json(const HeadroomResult& r) {
          {"positive_peak_V", r.positive.peak},
          {"negative_peak_V", r.negative.peak},
          {"symmetric_peak_to_peak_V", r.symmetric_peak_to_peak},
+         {"positive_clip_peak_V", r.positive.clip.peak},
+         {"negative_clip_peak_V", r.negative.clip.peak},
+         {"symmetric_clip_peak_V", r.symmetric_clip_peak},
+         {"symmetric_clip_input_amplitude", r.symmetric_clip_input_amplitude},
+         {"largest_drive_allowed", r.largest_drive_allowed},
          {"positive_limit", side_json(r.positive)},
          {"negative_limit", side_json(r.negative)},
          {"transient_runs", r.transient_runs},
@@ -55,6 +68,7 @@ Json to_json(const HeadroomResult& r) {
     j["thd_limit_input_amplitude"] = *r.thd_limit_input_amplitude;
     j["thd_limit_output_amplitude"] = *r.thd_limit_output_amplitude;
   }
+  if (r.thd_limit_cause) j["thd_limit_cause"] = cause_json(*r.thd_limit_cause);
   if (r.load_line) j["load_line"] = to_json(*r.load_line);
   if (!r.notes.empty()) j["notes"] = r.notes;
   return j;
@@ -75,6 +89,21 @@ void print_table(std::ostream& out, const HeadroomResult& r) {
       << percent(r.options.distortion_limit) << " (" << r.transient_runs << " transient runs)\n"
       << "  small-signal gain " << si(r.small_signal_gain, "") << ", output at the bias point "
       << si(r.bias_output, "V") << "\n\n";
+  TextTable clip({"side", "clip level", "input amplitude", "clipped by", "1 dB compression",
+                  "input amplitude"});
+  auto clip_row = [&](const char* name, const SideLimit& s) {
+    clip.add_row(
+        {name, si(s.clip.peak, "V"), si(s.clip.input_amplitude, "V"), cause_text(s.clip.cause),
+         s.compression_1dB_peak ? si(*s.compression_1dB_peak, "V") : "not reached",
+         s.compression_1dB_input_amplitude ? si(*s.compression_1dB_input_amplitude, "V") : ""});
+  };
+  clip_row("positive", r.positive);
+  clip_row("negative", r.negative);
+  clip.print(out);
+  out << "  symmetric clip level " << si(r.symmetric_clip_peak, "V") << " peak at "
+      << si(r.symmetric_clip_input_amplitude, "V") << " input amplitude (drive allowed up to "
+      << si(r.largest_drive_allowed, "V") << ")\n\n"
+      << "  within the " << percent(r.options.distortion_limit) << " limit:\n";
   TextTable t({"side", "peak", "input amplitude", "limited by", "at the largest drive"});
   auto row = [&](const char* name, const SideLimit& s) {
     t.add_row({name, si(s.peak, "V"), si(s.input_amplitude, "V"),
@@ -97,12 +126,14 @@ void print_table(std::ostream& out, const HeadroomResult& r) {
     out << "; THD reaches the limit at " << si(*r.thd_limit_output_amplitude, "V")
         << " output amplitude";
   }
+  if (r.thd_limit_cause) out << "; THD past the limit: " << cause_text(*r.thd_limit_cause);
   out << '\n';
   if (r.load_line) {
     out << '\n';
     print_table(out, *r.load_line);
-    out << "    simulated: " << si(r.positive.peak + r.negative.peak, "V")
-        << " peak-to-peak between the two side limits\n";
+    out << "    simulated: " << si(r.positive.clip.peak + r.negative.clip.peak, "V")
+        << " peak-to-peak between the two clip levels, "
+        << si(r.positive.peak + r.negative.peak, "V") << " between the two side limits\n";
   }
   for (const auto& note : r.notes) out << "  note: " << note << '\n';
 }
@@ -114,8 +145,21 @@ void write_csv(std::ostream& out, const HeadroomResult& r) {
       << "positive_input_amplitude," << csv_number(r.positive.input_amplitude) << '\n'
       << "negative_input_amplitude," << csv_number(r.negative.input_amplitude) << '\n'
       << "symmetric_peak_to_peak_V," << csv_number(r.symmetric_peak_to_peak) << '\n'
+      << "positive_clip_peak_V," << csv_number(r.positive.clip.peak) << '\n'
+      << "negative_clip_peak_V," << csv_number(r.negative.clip.peak) << '\n'
+      << "positive_clip_input_amplitude," << csv_number(r.positive.clip.input_amplitude) << '\n'
+      << "negative_clip_input_amplitude," << csv_number(r.negative.clip.input_amplitude) << '\n'
+      << "symmetric_clip_peak_V," << csv_number(r.symmetric_clip_peak) << '\n'
+      << "largest_drive_allowed," << csv_number(r.largest_drive_allowed) << '\n'
       << "small_signal_gain," << csv_number(r.small_signal_gain) << '\n'
       << "transient_runs," << r.transient_runs << '\n';
+  for (const auto& [name, s] : {std::pair{"positive", &r.positive}, {"negative", &r.negative}}) {
+    if (s->compression_1dB_peak) {
+      out << name << "_compression_1dB_peak_V," << csv_number(*s->compression_1dB_peak) << '\n'
+          << name << "_compression_1dB_input_amplitude,"
+          << csv_number(*s->compression_1dB_input_amplitude) << '\n';
+    }
+  }
   if (r.load_line) {
     const Json line = to_json(*r.load_line);
     for (const auto& [key, value] : line.items()) {
