@@ -9,6 +9,7 @@
 #include <cmath>
 #include <optional>
 
+#include "analysis/model_range.hpp"
 #include "devices/sources.hpp"
 #include "stage/errors.hpp"
 
@@ -192,21 +193,8 @@ std::vector<std::string> verify_operating_point(const mna::System& system,
           {name});
     }
   }
-  mna::ModelRangeFindings range;
-  const mna::EvalRequest at = system.request(x.data());
-  for (const auto& d : system.devices()) d->check_model_range(at, range);
-  if (!range.invalid.empty()) {
-    std::vector<std::string> involved;
-    std::string message = "no DC operating point within the device models: ";
-    for (const auto& finding : range.invalid) {
-      message += (involved.empty() ? "" : "; ") + finding.message;
-      involved.push_back(finding.device);
-    }
-    throw NumericalError(message, involved);
-  }
-  std::vector<std::string> warnings;
-  for (auto& finding : range.extrapolated) warnings.push_back(std::move(finding.message));
-  return warnings;
+  return check_model_ranges(system, system.request(x.data()),
+                            "no DC operating point within the device models");
 }
 
 OperatingPoint solve_operating_point(NewtonSolver& newton, std::vector<double>& x) {

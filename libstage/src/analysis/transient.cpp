@@ -23,6 +23,7 @@
 #include <stdexcept>
 
 #include "analysis/integration.hpp"
+#include "analysis/model_range.hpp"
 #include "analysis/signal_recorder.hpp"
 #include "analysis/transient_start.hpp"
 #include "stage/errors.hpp"
@@ -334,6 +335,13 @@ void Stepper::accept(double t_new, double h, bool at_breakpoint) {
   for (std::size_t i = 0; i < q.size(); ++i) {
     p.qdot[i] = formula_.a * q[i] + history_[i];
     peak_[i] = std::max(peak_[i], std::abs(q[i]));
+  }
+  if (newton_.workspace().beyond_model_range) {
+    mna::EvalRequest at = system_.request(x_.data());
+    at.dc = false;
+    at.time = t_new;
+    check_model_ranges(
+        system_, at, fmt::format("the transient leaves the device models at t = {:.9g} s", t_new));
   }
   since_breakpoint_ = at_breakpoint ? 1 : std::min(since_breakpoint_ + 1, 3);
   ++result_.accepted_steps;

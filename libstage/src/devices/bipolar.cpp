@@ -125,6 +125,12 @@ class BipolarDevice final : public mna::Device {
       if (v.vbe != wanted.vbe || v.vbc != wanted.vbc) out.limited = true;
     }
     last_ = v;
+    if (beyond_exponent_range(v.vbe, params_.forward_ideality_vt) ||
+        beyond_exponent_range(v.vbc, params_.reverse_ideality_vt) ||
+        (params_.be_leakage > 0 && beyond_exponent_range(v.vbe, params_.be_leakage_ideality_vt)) ||
+        (params_.bc_leakage > 0 && beyond_exponent_range(v.vbc, params_.bc_leakage_ideality_vt))) {
+      out.beyond_model_range = true;
+    }
     scatter_.scatter(local_system(params_, pol_, x, v), out);
   }
 

@@ -118,6 +118,10 @@ class DiodeDevice final : public mna::Device {
       if (v != x[kJunction] - x[kCathode]) out.limited = true;
     }
     last_v_ = v;
+    if (beyond_exponent_range(v, params_.nvt) ||
+        beyond_exponent_range(-(v + params_.breakdown_voltage), params_.nvt)) {
+      out.beyond_model_range = true;
+    }
     scatter_.scatter(local_system(params_, x, v), out);
   }
 

@@ -22,8 +22,8 @@ ValueSlope junction_current(double saturation_current, double v, double nvt) {
 
 void check_exponent_range(const std::string& device, std::string_view junction, double v,
                           double nvt, std::vector<mna::ModelRangeFinding>& invalid) {
+  if (!beyond_exponent_range(v, nvt)) return;
   const double edge = kMaxExponent * nvt;
-  if (!(v > edge)) return;
   invalid.push_back(
       {device,
        fmt::format(

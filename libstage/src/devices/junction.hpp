@@ -23,6 +23,9 @@ struct ValueSlope {
 inline constexpr double kMaxExponent = 80;
 ValueSlope junction_current(double saturation_current, double v, double nvt);
 
+// True where junction_current leaves the model for its tangent.
+inline bool beyond_exponent_range(double v, double nvt) { return v > kMaxExponent * nvt; }
+
 // Adds to `invalid` a message naming the device and its junction when v lies
 // beyond nvt * kMaxExponent, where junction_current leaves the model for its
 // tangent: a solution there is not a solution of the model.

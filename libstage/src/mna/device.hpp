@@ -66,6 +66,10 @@ struct EvalOutput {
   // of the one in x: the stamped residual is then that of a linearisation,
   // and Newton must not take it as converged.
   bool limited = false;
+  // Set by a device that evaluated a junction beyond the range where its
+  // model's equations hold (see ModelRangeFindings): cheap to test at every
+  // accepted point, check_model_range then says which and why.
+  bool beyond_model_range = false;
 };
 
 struct OperatingPointReport {

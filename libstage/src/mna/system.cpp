@@ -56,7 +56,7 @@ Workspace System::make_workspace() const {
   const std::size_t n = static_cast<std::size_t>(size()) + 1;
   const std::size_t nnz = static_cast<std::size_t>(pattern_.nnz()) + 1;
   return {std::vector<double>(n), std::vector<double>(n), std::vector<double>(nnz),
-          std::vector<double>(nnz), false};
+          std::vector<double>(nnz)};
 }
 
 void System::evaluate(const EvalRequest& request, Workspace& w) const {
@@ -67,6 +67,7 @@ void System::evaluate(const EvalRequest& request, Workspace& w) const {
   EvalOutput out = w.output();
   for (const auto& d : devices_) d->evaluate(request, out);
   w.limited = out.limited;
+  w.beyond_model_range = out.beyond_model_range;
 }
 
 EvalRequest System::request(const double* x) const {

@@ -16,9 +16,10 @@ namespace stage::mna {
 
 // Values of one evaluation, laid out as described in device.hpp.
 struct Workspace {
-  std::vector<double> f, q;  // n + 1
-  std::vector<double> g, c;  // nnz + 1
-  bool limited = false;      // some device evaluated at a limited junction voltage
+  std::vector<double> f, q;         // n + 1
+  std::vector<double> g, c;         // nnz + 1
+  bool limited = false;             // some device evaluated at a limited junction voltage
+  bool beyond_model_range = false;  // some device evaluated outside its model's range
   EvalOutput output() { return {f.data(), q.data(), g.data(), c.data()}; }
 };
 
