@@ -26,18 +26,21 @@ inline constexpr const char* kGround = "gnd";
 struct Resistor {
   std::string a, b;
   double resistance = 0;
+  bool operator==(const Resistor&) const = default;
 };
 
 struct Capacitor {
   std::string a, b;
   double capacitance = 0;
   std::optional<double> initial_voltage;  // used by a transient with start = zero
+  bool operator==(const Capacitor&) const = default;
 };
 
 struct Inductor {
   std::string a, b;
   double inductance = 0;
   std::optional<double> initial_current;
+  bool operator==(const Inductor&) const = default;
 };
 
 // Holds v(p) - v(n). Its reported current is the current it delivers: out of
@@ -48,6 +51,7 @@ struct VoltageSource {
   double ac_magnitude = 0;
   double ac_phase_deg = 0;
   std::optional<Waveform> wave;
+  bool operator==(const VoltageSource&) const = default;
 };
 
 // Drives current from `a` through the source into `b`.
@@ -57,36 +61,42 @@ struct CurrentSource {
   double ac_magnitude = 0;
   double ac_phase_deg = 0;
   std::optional<Waveform> wave;
+  bool operator==(const CurrentSource&) const = default;
 };
 
 // v(p) - v(n) = gain * (v(cp) - v(cn))
 struct VoltageControlledVoltageSource {
   std::string p, n, control_p, control_n;
   double gain = 0;
+  bool operator==(const VoltageControlledVoltageSource&) const = default;
 };
 
 // current gain * (v(cp) - v(cn)) from `a` through it to `b`
 struct VoltageControlledCurrentSource {
   std::string a, b, control_p, control_n;
   double gain = 0;
+  bool operator==(const VoltageControlledCurrentSource&) const = default;
 };
 
 // current gain * i(sense) from `a` through it to `b`
 struct CurrentControlledCurrentSource {
   std::string a, b, sense;
   double gain = 0;
+  bool operator==(const CurrentControlledCurrentSource&) const = default;
 };
 
 // v(p) - v(n) = gain * i(sense)
 struct CurrentControlledVoltageSource {
   std::string p, n, sense;
   double gain = 0;
+  bool operator==(const CurrentControlledVoltageSource&) const = default;
 };
 
 struct Diode {
   std::string anode, cathode;
   std::string model;
   double area = 1;
+  bool operator==(const Diode&) const = default;
 };
 
 enum class Polarity { npn, pnp };
@@ -97,6 +107,7 @@ struct Bipolar {
   std::optional<std::string> substrate;  // default: ground
   std::string model;
   double area = 1;
+  bool operator==(const Bipolar&) const = default;
 };
 
 using ElementData =
@@ -107,6 +118,7 @@ using ElementData =
 struct Element {
   std::string name;
   ElementData data;
+  bool operator==(const Element&) const = default;
 };
 
 // Newton and integration settings (the `solver(...)` statement).

@@ -60,6 +60,7 @@ struct BipolarModel {
   double reference_temperature = kRoomTemperature;
   double flicker_coefficient = 0;
   double flicker_exponent = 1;
+  bool operator==(const BipolarModel&) const = default;
 };
 
 struct DiodeModel {
@@ -76,6 +77,7 @@ struct DiodeModel {
   double bandgap_energy = 1.11;
   double saturation_current_temperature_exponent = 3;
   double reference_temperature = kRoomTemperature;
+  bool operator==(const DiodeModel&) const = default;
 };
 
 // One row of a model's parameter table.

@@ -15,6 +15,7 @@ struct SineWave {
   double delay = 0.0;
   double phase_deg = 0.0;
   double damping = 0.0;  // 1/s
+  bool operator==(const SineWave&) const = default;
 };
 
 struct PulseWave {
@@ -25,11 +26,13 @@ struct PulseWave {
   double fall = 1e-9;
   double width = 1e-6;
   double period = 2e-6;
+  bool operator==(const PulseWave&) const = default;
 };
 
 struct PiecewiseWave {
   std::vector<std::pair<double, double>> points;  // (time, value), time ascending
   bool repeat = false;
+  bool operator==(const PiecewiseWave&) const = default;
 };
 
 using Waveform = std::variant<SineWave, PulseWave, PiecewiseWave>;

@@ -11,9 +11,10 @@
 
 #include "analysis/element_nodes.hpp"
 #include "analysis/frequency_figures.hpp"
-#include "analysis/operating_point.hpp"
+#include "analysis/frequency_response.hpp"
 #include "analysis/small_signal.hpp"
 #include "devices/sources.hpp"
+#include "stage/simulation.hpp"
 
 namespace stage {
 namespace {
@@ -179,17 +180,18 @@ Complex Sweep::output_impedance() const {
 }  // namespace
 
 FrequencyResult run_frequency(const Circuit& circuit, const FrequencyOptions& options) {
-  if (auto why = frequency_options_error(circuit, options)) throw std::invalid_argument(*why);
+  return Simulation(circuit).frequency(options);
+}
 
-  mna::System system(circuit);
-  analysis::NewtonSolver newton(system, circuit.solver);
-  std::vector<double> x(static_cast<std::size_t>(system.size()) + 1, 0.0);
-  const auto how = analysis::solve_operating_point(newton, x);
+namespace analysis {
 
+FrequencyResult frequency_response(const Circuit& circuit, const mna::System& system,
+                                   const std::vector<double>& x, BiasResult bias,
+                                   const FrequencyOptions& options) {
   FrequencyResult result;
   result.options = options;
   result.output = output_label(options.output);
-  result.bias = analysis::describe_operating_point(system, x, how);
+  result.bias = std::move(bias);
   result.frequencies = frequency_grid(options);
 
   SmallSignalSystem linear(system, x);
@@ -231,4 +233,5 @@ FrequencyResult run_frequency(const Circuit& circuit, const FrequencyOptions& op
   return result;
 }
 
+}  // namespace analysis
 }  // namespace stage

@@ -6,9 +6,9 @@
 
 #include <algorithm>
 
-#include "analysis/operating_point.hpp"
 #include "mna/system.hpp"
 #include "stage/errors.hpp"
+#include "stage/simulation.hpp"
 
 namespace stage {
 namespace {
@@ -72,21 +72,19 @@ void check_deck(const Deck& deck) {
 SweepResult run_parameter_sweep(const Deck& deck, const SweepOptions& options,
                                 const ProgressCallback& progress) {
   SweepResult result{options, {}};
-  std::vector<double> x;
+  // One prepared simulation while the parameter changes element values only
+  // (each point then starts from the one before); a new one when it changes
+  // more (a model parameter).
+  std::optional<Simulation> simulation;
   for (double value : options.values) {
     if (progress)
       progress("sweep of " + options.name + ": point " + std::to_string(result.points.size() + 1) +
                " of " + std::to_string(options.values.size()));
     const Circuit circuit = deck.with_parameter(options.name, value);
-    mna::System system(circuit);
-    analysis::NewtonSolver newton(system, circuit.solver);
-    if (x.size() != static_cast<std::size_t>(system.size()) + 1) {
-      x.assign(static_cast<std::size_t>(system.size()) + 1, 0.0);
-    }
-    const auto how = analysis::solve_operating_point(newton, x);
+    if (!simulation || !simulation->take_values_from(circuit)) simulation.emplace(circuit);
+    result.points.push_back({value, simulation->bias()});
     spdlog::debug("sweep {} = {:.6g}: {} Newton iterations", options.name, value,
-                  how.newton_iterations);
-    result.points.push_back({value, analysis::describe_operating_point(system, x, how)});
+                  result.points.back().bias.newton_iterations);
   }
   return result;
 }

@@ -27,6 +27,7 @@
 #include "analysis/signal_recorder.hpp"
 #include "analysis/transient_start.hpp"
 #include "stage/errors.hpp"
+#include "stage/simulation.hpp"
 
 namespace stage::analysis {
 namespace {
@@ -379,9 +380,7 @@ TransientResult integrate(const mna::System& system, const SolverOptions& solver
 namespace stage {
 
 TransientResult run_transient(const Circuit& circuit, const TransientOptions& options) {
-  mna::System system(circuit);
-  TransientResult result = analysis::integrate(system, circuit.solver, options);
-  return options.resample_step ? resample(result, *options.resample_step) : result;
+  return Simulation(circuit).transient(options);
 }
 
 }  // namespace stage

@@ -12,6 +12,11 @@ void ResistorDevice::declare(mna::PatternBuilder& pattern) {
   slots_.declare(pattern, a_, b_, a_, b_);
 }
 
+bool ResistorDevice::set_value(double resistance) {
+  conductance_ = 1.0 / resistance;
+  return true;
+}
+
 void ResistorDevice::evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) {
   const double i = conductance_ * (request.x[a_] - request.x[b_]);
   out.f[a_] += i;
@@ -39,6 +44,11 @@ void CapacitorDevice::declare(mna::PatternBuilder& pattern) {
   slots_.declare(pattern, a_, b_, a_, b_);
 }
 
+bool CapacitorDevice::set_value(double capacitance) {
+  capacitance_ = capacitance;
+  return true;
+}
+
 void CapacitorDevice::evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) {
   const double q = capacitance_ * (request.x[a_] - request.x[b_]);
   out.q[a_] += q;
@@ -62,6 +72,11 @@ InductorDevice::InductorDevice(std::string name, mna::Index a, mna::Index b, mna
 void InductorDevice::declare(mna::PatternBuilder& pattern) {
   slots_.declare(pattern, a_, b_, k_);
   kk_ = pattern.entry(k_, k_);
+}
+
+bool InductorDevice::set_value(double inductance) {
+  inductance_ = inductance;
+  return true;
 }
 
 void InductorDevice::evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) {

@@ -9,6 +9,7 @@ class ResistorDevice final : public mna::Device {
  public:
   ResistorDevice(std::string name, mna::Index a, mna::Index b, double resistance);
   void declare(mna::PatternBuilder& pattern) override;
+  bool set_value(double resistance) override;
   void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
   void describe_topology(mna::TopologyCheck& check) const override;
   std::optional<double> reported_current(const mna::EvalRequest& at) const override;
@@ -25,6 +26,7 @@ class CapacitorDevice final : public mna::Device {
   CapacitorDevice(std::string name, mna::Index a, mna::Index b, double capacitance,
                   std::optional<double> initial_voltage);
   void declare(mna::PatternBuilder& pattern) override;
+  bool set_value(double capacitance) override;
   void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
   void describe_topology(mna::TopologyCheck& check) const override;
   std::optional<double> initial_voltage() const { return initial_voltage_; }
@@ -45,6 +47,7 @@ class InductorDevice final : public mna::Device {
   InductorDevice(std::string name, mna::Index a, mna::Index b, mna::Index branch, double inductance,
                  std::optional<double> initial_current);
   void declare(mna::PatternBuilder& pattern) override;
+  bool set_value(double inductance) override;
   void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
   void describe_topology(mna::TopologyCheck& check) const override;
   std::optional<double> reported_current(const mna::EvalRequest& at) const override;

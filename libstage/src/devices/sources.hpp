@@ -34,6 +34,11 @@ class IndependentSource : public mna::Device {
       : Device(std::move(name)), value_(std::move(value)) {}
   SourceValue& value() { return value_; }
   const SourceValue& value() const { return value_; }
+  // A source's own value is its DC value.
+  bool set_value(double dc) override {
+    value_.set_dc(dc);
+    return true;
+  }
   void corners(double from, double to, std::vector<double>& out) const override;
 
  protected:

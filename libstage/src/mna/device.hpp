@@ -111,6 +111,12 @@ class Device {
   // f(v') + G (v - v'), so the Newton update stays consistent.
   virtual void evaluate(const EvalRequest& request, EvalOutput& out) = 0;
 
+  // Changes the element's own value (a resistance, capacitance or
+  // inductance, a source's DC value) in place: the matrix pattern stays, so
+  // a prepared simulation keeps its factorisation's structure. False for a
+  // kind that has no such value. The caller has checked the value.
+  virtual bool set_value(double /*value*/) { return false; }
+
   // True if f or q depend nonlinearly on x (Newton must iterate).
   virtual bool nonlinear() const { return false; }
 

@@ -1,0 +1,208 @@
+// The prepared simulation (stage/simulation.hpp): one MNA system and one
+// Newton solver, whose sparse LU keeps KLU's symbolic analysis, serve every
+// analysis run on it; the last bias point is kept as the next one's start.
+#include "stage/simulation.hpp"
+
+#include <spdlog/spdlog.h>
+
+#include <cmath>
+#include <optional>
+#include <stdexcept>
+
+#include "analysis/frequency_response.hpp"
+#include "analysis/newton.hpp"
+#include "analysis/operating_point.hpp"
+#include "analysis/transient.hpp"
+#include "devices/sources.hpp"
+#include "mna/system.hpp"
+
+namespace stage {
+namespace {
+
+// Why `value` cannot be the value of `data`, or nothing.
+std::optional<std::string> value_error(const ElementData& data, double value) {
+  if (!std::isfinite(value)) return "a value must be finite";
+  const bool positive_only = std::holds_alternative<Resistor>(data) ||
+                             std::holds_alternative<Capacitor>(data) ||
+                             std::holds_alternative<Inductor>(data);
+  if (positive_only && !(value > 0))
+    return "a resistance, capacitance or inductance must be positive";
+  return std::nullopt;
+}
+
+// The element's own value (resistance, capacitance, inductance, DC value).
+std::optional<double> value_of(const ElementData& data) {
+  return std::visit(
+      [](const auto& e) -> std::optional<double> {
+        using T = std::decay_t<decltype(e)>;
+        if constexpr (std::is_same_v<T, Resistor>) return e.resistance;
+        if constexpr (std::is_same_v<T, Capacitor>) return e.capacitance;
+        if constexpr (std::is_same_v<T, Inductor>) return e.inductance;
+        if constexpr (std::is_same_v<T, VoltageSource> || std::is_same_v<T, CurrentSource>) {
+          return e.dc;
+        }
+        return std::nullopt;
+      },
+      data);
+}
+
+// Writes `value` into the element's description, where its own value lives.
+void store_value(ElementData& data, double value) {
+  std::visit(
+      [&](auto& e) {
+        using T = std::decay_t<decltype(e)>;
+        if constexpr (std::is_same_v<T, Resistor>) e.resistance = value;
+        if constexpr (std::is_same_v<T, Capacitor>) e.capacitance = value;
+        if constexpr (std::is_same_v<T, Inductor>) e.inductance = value;
+        if constexpr (std::is_same_v<T, VoltageSource> || std::is_same_v<T, CurrentSource>) {
+          e.dc = value;
+        }
+      },
+      data);
+}
+
+}  // namespace
+
+struct Simulation::State {
+  explicit State(const Circuit& c) : circuit(c), system(c), newton(system, c.solver) {
+    solution.assign(static_cast<std::size_t>(system.size()) + 1, 0.0);
+    counters.systems_built = 1;
+  }
+
+  // Solves the bias point into `solution`, from the previous one if any.
+  const BiasResult& solve_bias() {
+    if (bias) {
+      ++counters.bias_reused;
+      return *bias;
+    }
+    if (has_solution) {
+      ++counters.warm_bias_solves;
+    } else {
+      ++counters.cold_bias_solves;
+    }
+    std::vector<double> x = solution;
+    const auto how = analysis::solve_operating_point(newton, x);
+    solution = std::move(x);
+    has_solution = true;
+    bias = analysis::describe_operating_point(system, solution, how);
+    return *bias;
+  }
+
+  Circuit circuit;
+  mna::System system;
+  analysis::NewtonSolver newton;
+  std::vector<double> solution;  // the last bias point (n + 1 entries)
+  bool has_solution = false;
+  std::optional<BiasResult> bias;  // its report, while nothing has changed
+  SimulationCounters counters;
+};
+
+Simulation::Simulation(const Circuit& circuit) : state_(std::make_unique<State>(circuit)) {}
+Simulation::~Simulation() = default;
+Simulation::Simulation(Simulation&&) noexcept = default;
+Simulation& Simulation::operator=(Simulation&&) noexcept = default;
+
+const Circuit& Simulation::circuit() const { return state_->circuit; }
+
+SimulationCounters Simulation::counters() const { return state_->counters; }
+
+BiasResult Simulation::bias() { return state_->solve_bias(); }
+
+SweepResult Simulation::sweep(const SweepOptions& options, const ProgressCallback& progress) {
+  if (options.target == SweepOptions::Target::parameter) {
+    throw std::invalid_argument("a parameter sweep needs the circuit's text: use run_deck");
+  }
+  const bool temperature = options.target == SweepOptions::Target::temperature;
+  const double restore = temperature ? state_->system.temperature() : [&] {
+    const Element* e = state_->circuit.find(options.name);
+    const auto* v = e == nullptr ? nullptr : std::get_if<VoltageSource>(&e->data);
+    const auto* i = e == nullptr ? nullptr : std::get_if<CurrentSource>(&e->data);
+    if (v == nullptr && i == nullptr) {
+      throw std::invalid_argument("'" + options.name + "' is not an independent source");
+    }
+    return v != nullptr ? v->dc : i->dc;
+  }();
+  SweepResult result{options, {}};
+  for (double value : options.values) {
+    if (progress) {
+      progress("sweep: point " + std::to_string(result.points.size() + 1) + " of " +
+               std::to_string(options.values.size()));
+    }
+    // Each point starts from the one before.
+    if (temperature) {
+      set_temperature(value);
+    } else {
+      set_value(options.name, value);
+    }
+    result.points.push_back({value, bias()});
+    spdlog::debug("sweep {} = {:.6g}: {} Newton iterations", options.name, value,
+                  result.points.back().bias.newton_iterations);
+  }
+  if (temperature) {
+    set_temperature(restore);
+  } else {
+    set_value(options.name, restore);
+  }
+  return result;
+}
+
+FrequencyResult Simulation::frequency(const FrequencyOptions& options) {
+  if (auto why = frequency_options_error(state_->circuit, options)) {
+    throw std::invalid_argument(*why);
+  }
+  BiasResult bias = state_->solve_bias();
+  return analysis::frequency_response(state_->circuit, state_->system, state_->solution,
+                                      std::move(bias), options);
+}
+
+TransientResult Simulation::transient(const TransientOptions& options) {
+  TransientResult result = analysis::integrate(state_->system, state_->circuit.solver, options);
+  return options.resample_step ? resample(result, *options.resample_step) : result;
+}
+
+void Simulation::set_value(const std::string& element, double value) {
+  Element* e = state_->circuit.find(element);
+  mna::Device* device = state_->system.find_device(element);
+  if (e == nullptr || device == nullptr) {
+    throw std::invalid_argument("no element named '" + element + "'");
+  }
+  if (auto why = value_error(e->data, value)) {
+    throw std::invalid_argument("'" + element + "': " + *why);
+  }
+  if (!device->set_value(value)) {
+    throw std::invalid_argument("'" + element + "' has no single value to set");
+  }
+  store_value(e->data, value);
+  state_->bias.reset();
+}
+
+bool Simulation::take_values_from(const Circuit& other) {
+  const Circuit& mine = state_->circuit;
+  if (other.elements().size() != mine.elements().size() ||
+      other.bipolar_models() != mine.bipolar_models() ||
+      other.diode_models() != mine.diode_models() || other.temperature != mine.temperature) {
+    return false;
+  }
+  for (std::size_t k = 0; k < mine.elements().size(); ++k) {
+    Element same = mine.elements()[k];
+    const Element& theirs = other.elements()[k];
+    if (const auto value = value_of(theirs.data)) store_value(same.data, *value);
+    if (!(same == theirs)) return false;
+  }
+  for (const Element& e : other.elements()) {
+    const auto value = value_of(e.data);
+    if (value && value != value_of(state_->circuit.find(e.name)->data)) set_value(e.name, *value);
+  }
+  return true;
+}
+
+void Simulation::set_temperature(double kelvin) {
+  if (!(std::isfinite(kelvin) && kelvin > 0)) {
+    throw std::invalid_argument("a temperature must be a finite number of kelvin above zero");
+  }
+  state_->system.set_temperature(kelvin);
+  state_->circuit.temperature = kelvin;
+  state_->bias.reset();
+}
+
+}  // namespace stage
