@@ -34,8 +34,7 @@ std::string line_from_file(const SourceLocation& where) {
   return file ? line : std::string();
 }
 
-std::string format(const SourceLocation& where, const std::string& message,
-                   std::string line_text) {
+std::string format(const SourceLocation& where, const std::string& message, std::string line_text) {
   if (line_text.empty() && where.line > 0) line_text = line_from_file(where);
   std::string text = where.file;
   if (where.line > 0) {
