@@ -4,6 +4,7 @@
 #pragma once
 
 #include <limits>
+#include <optional>
 #include <span>
 #include <string>
 #include <string_view>
@@ -80,15 +81,30 @@ struct DiodeModel {
   bool operator==(const DiodeModel&) const = default;
 };
 
+// The values a model parameter may take (NaN never).
+enum class ParameterRange {
+  finite,                // any finite number
+  positive,              // finite and above zero
+  positive_or_infinite,  // above zero; infinity switches the effect off
+  non_negative,          // finite, zero or above
+  below_one,             // from 0 up to, not including, 1
+  fraction,              // from 0 to 1
+};
+
 // One row of a model's parameter table.
 template <class Model>
 struct ModelParameter {
   std::string_view name;
   double Model::*field;
   Quantity quantity;
+  ParameterRange range;
   // True for the Gummel–Poon extras that `form = ebers_moll` rejects.
   bool gummel_poon_only = false;
 };
+
+// Why `value` is outside `range`, as the end of a sentence ("must be
+// positive"), or nothing.
+std::optional<std::string_view> range_error(ParameterRange range, double value);
 
 std::span<const ModelParameter<BipolarModel>> bipolar_parameters();
 std::span<const ModelParameter<DiodeModel>> diode_parameters();

@@ -33,6 +33,9 @@ class Deck {
   Circuit circuit;
   std::vector<AnalysisStatement> analyses;
   std::filesystem::path file;
+  // Where each element ("<name>") and model ("model <name>") was written,
+  // for problems found after reading (Problem::subject names them).
+  std::map<std::string, SourceLocation> places;
 
   // The circuit elaborated again with one `let` parameter set to `value`
   // (parameter sweeps). Throws InputError if `name` is not a parameter.

@@ -11,6 +11,7 @@
 #include "analysis/sine_drive.hpp"
 #include "report/format.hpp"
 #include "stage/errors.hpp"
+#include "stage/validate.hpp"
 
 namespace stage {
 namespace {
@@ -127,6 +128,7 @@ SwingPower swing_power(const Circuit& circuit, const analysis::SineDrive& drive,
 
 CharacterizeResult run_characterize(const Circuit& circuit, const CharacterizeOptions& options,
                                     const ProgressCallback& progress) {
+  if (auto p = validate(circuit, options)) throw std::invalid_argument(p->message);
   CharacterizeResult r;
   r.options = options;
   r.output = options.output.label();

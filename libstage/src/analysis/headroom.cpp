@@ -21,6 +21,7 @@
 #include "report/format.hpp"
 #include "stage/errors.hpp"
 #include "stage/frequency.hpp"
+#include "stage/validate.hpp"
 
 namespace stage {
 namespace {
@@ -49,15 +50,6 @@ bool positive_side(Criterion c) { return c == kPositive || c == kPositive1dB; }
 
 double side_peak(bool positive, const analysis::DriveMeasurement& m) {
   return positive ? m.positive_peak : m.negative_peak;
-}
-
-std::optional<std::string> options_error(const Circuit& circuit, const HeadroomOptions& o) {
-  if (!(o.frequency > 0)) return "the frequency must be positive";
-  if (!(o.distortion_limit > 0 && o.distortion_limit < 1)) {
-    return "the distortion limit must lie between 0 and 100 %";
-  }
-  if (o.load && circuit.find(*o.load) == nullptr) return "no element named '" + *o.load + "'";
-  return std::nullopt;
 }
 
 // The search state: every measurement so far, sorted by amplitude.
@@ -373,7 +365,7 @@ std::optional<double> rail_drive_bound(const Circuit& circuit,
 
 HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& options,
                             const ProgressCallback& progress) {
-  if (auto why = options_error(circuit, options)) throw std::invalid_argument(*why);
+  if (auto p = validate(circuit, options)) throw std::invalid_argument(p->message);
   HeadroomResult result;
   result.options = options;
   result.output = options.output.label();

@@ -9,64 +9,37 @@
 #include "mna/system.hpp"
 #include "stage/errors.hpp"
 #include "stage/simulation.hpp"
+#include "stage/validate.hpp"
 
 namespace stage {
-namespace {
-
-// Why a statement cannot run on the deck's circuit, or nothing.
-std::optional<std::string> statement_error(const Deck& deck, const AnalysisOptions& options,
-                                           bool transient_before) {
-  const Circuit& c = deck.circuit;
-  if (const auto* f = std::get_if<FrequencyOptions>(&options)) {
-    return frequency_options_error(c, *f);
-  }
-  if (std::holds_alternative<SpectrumOptions>(options) && !transient_before) {
-    return std::string(
-        "a spectrum analyses the transient before it: put an "
-        "`analyze transient(...)` statement first");
-  }
-  const std::string* input = nullptr;
-  const SignalRef* output = nullptr;
-  if (const auto* h = std::get_if<HeadroomOptions>(&options)) {
-    input = &h->input;
-    output = &h->output;
-  }
-  if (const auto* s = std::get_if<CharacterizeOptions>(&options)) {
-    input = &s->input;
-    output = &s->output;
-  }
-  if (output != nullptr && output->kind == SignalRef::Kind::element_current) {
-    return "a large-signal output must be a node or a node pair, not " + output->label();
-  }
-  if (input != nullptr) {
-    const Element* e = c.find(*input);
-    if (e == nullptr || !(std::holds_alternative<VoltageSource>(e->data) ||
-                          std::holds_alternative<CurrentSource>(e->data))) {
-      return "the input '" + *input + "' must be an independent voltage or current source";
-    }
-  }
-  return std::nullopt;
-}
-
-}  // namespace
-
 void check_deck(const Deck& deck) {
   if (deck.analyses.empty()) {
     throw InputError({deck.file.string(), 0, 0},
                      "no `analyze` statement: nothing to run (add one, for example "
                      "`analyze bias()`)");
   }
-  // The circuit's graph: floating nodes, loops of voltage sources, cut-sets
-  // of current sources, found before anything runs (NumericalError).
-  const mna::System topology_checked(deck.circuit);
+  if (auto p = validate(deck.circuit)) {
+    const auto place = deck.places.find(p->subject);
+    throw InputError(
+        place != deck.places.end() ? place->second : SourceLocation{deck.file.string(), 0, 0},
+        p->message);
+  }
   bool transient_before = false;
   for (const auto& statement : deck.analyses) {
-    if (auto why = statement_error(deck, statement.options, transient_before)) {
-      throw InputError(statement.where, *why);
+    if (std::holds_alternative<SpectrumOptions>(statement.options) && !transient_before) {
+      throw InputError(statement.where,
+                       "a spectrum analyses the transient before it: put an "
+                       "`analyze transient(...)` statement first");
+    }
+    if (auto p = validate(deck.circuit, statement.options)) {
+      throw InputError(statement.where, p->message);
     }
     transient_before =
         transient_before || std::holds_alternative<TransientOptions>(statement.options);
   }
+  // The circuit's graph: floating nodes, loops of voltage sources, cut-sets
+  // of current sources, found before anything runs (NumericalError).
+  const mna::System topology_checked(deck.circuit);
 }
 
 SweepResult run_parameter_sweep(const Deck& deck, const SweepOptions& options,

@@ -172,6 +172,7 @@ void Elaborator::element(const ast::Instance& instance, const Frame& frame) {
     source.fail(instance.offset, "an element named '" + name + "' already exists");
   }
   element_kinds_[name] = kind;
+  deck_.places[name] = source.location(instance.offset);
   deck_.circuit.add(name, std::move(data));
 }
 

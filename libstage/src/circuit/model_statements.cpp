@@ -89,6 +89,7 @@ void Elaborator::model(const ast::Model& m, const Frame& frame) {
                       (own ? "" : " (it is set in the base model '" + m.base + "')"));
     }
   }
+  deck_.places["model " + m.name] = source.location(m.offset);
   if (bipolar) {
     BipolarModel resolved = entry.bipolar;
     if (resolved.base_resistance_min < 0) resolved.base_resistance_min = resolved.base_resistance;

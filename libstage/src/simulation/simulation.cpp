@@ -15,6 +15,7 @@
 #include "analysis/transient.hpp"
 #include "devices/sources.hpp"
 #include "mna/system.hpp"
+#include "stage/validate.hpp"
 
 namespace stage {
 namespace {
@@ -63,8 +64,20 @@ void store_value(ElementData& data, double value) {
 
 }  // namespace
 
+// The circuit itself, checked before anything is built from it.
+const Circuit& validated(const Circuit& circuit) {
+  if (auto p = validate(circuit)) throw std::invalid_argument(p->message);
+  return circuit;
+}
+
+// A request, checked against the circuit before it runs.
+void check_request(const Circuit& circuit, const AnalysisOptions& options) {
+  if (auto p = validate(circuit, options)) throw std::invalid_argument(p->message);
+}
+
 struct Simulation::State {
-  explicit State(const Circuit& c) : circuit(c), system(c), newton(system, c.solver) {
+  explicit State(const Circuit& c)
+      : circuit(validated(c)), system(circuit), newton(system, circuit.solver) {
     solution.assign(static_cast<std::size_t>(system.size()) + 1, 0.0);
     counters.systems_built = 1;
   }
@@ -112,6 +125,7 @@ SweepResult Simulation::sweep(const SweepOptions& options, const ProgressCallbac
   if (options.target == SweepOptions::Target::parameter) {
     throw std::invalid_argument("a parameter sweep needs the circuit's text: use run_deck");
   }
+  check_request(state_->circuit, options);
   const bool temperature = options.target == SweepOptions::Target::temperature;
   const double restore = temperature ? state_->system.temperature() : [&] {
     const Element* e = state_->circuit.find(options.name);
@@ -147,15 +161,14 @@ SweepResult Simulation::sweep(const SweepOptions& options, const ProgressCallbac
 }
 
 FrequencyResult Simulation::frequency(const FrequencyOptions& options) {
-  if (auto why = frequency_options_error(state_->circuit, options)) {
-    throw std::invalid_argument(*why);
-  }
+  check_request(state_->circuit, options);
   BiasResult bias = state_->solve_bias();
   return analysis::frequency_response(state_->circuit, state_->system, state_->solution,
                                       std::move(bias), options);
 }
 
 TransientResult Simulation::transient(const TransientOptions& options) {
+  check_request(state_->circuit, options);
   TransientResult result = analysis::integrate(state_->system, state_->circuit.solver, options);
   return options.resample_step ? resample(result, *options.resample_step) : result;
 }

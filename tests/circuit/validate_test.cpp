@@ -1,0 +1,119 @@
+// One validation path: the same rules hold for a circuit read from text and
+// one built in C++, every non-finite value is named before anything runs,
+// and what `stage check` passes does not fail later for a reason validation
+// could have known (a distortion limit of 150 %, a negative saturation
+// current).
+#include "stage/validate.hpp"
+
+#include <gtest/gtest.h>
+
+#include <limits>
+#include <string>
+
+#include "headroom/stages.hpp"
+#include "stage/errors.hpp"
+#include "stage/headroom.hpp"
+#include "stage/reader.hpp"
+#include "stage/run.hpp"
+#include "stage/simulation.hpp"
+
+namespace {
+
+using stage::Circuit;
+
+constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+constexpr double kInf = std::numeric_limits<double>::infinity();
+
+// The problem validate(circuit) finds, or "" when it finds none.
+std::string subject_of(const Circuit& c) {
+  const auto p = stage::validate(c);
+  return p ? p->subject : "";
+}
+
+TEST(Validate, NonFiniteElementValuesAreNamed) {
+  const Circuit good = stage::testing::follower_into_low_load();
+  EXPECT_EQ(subject_of(good), "");
+  for (double bad : {kNaN, kInf, -1.0, 0.0}) {
+    Circuit c = good;
+    c.find("re")->data = stage::Resistor{"emitter", "gnd", bad};
+    EXPECT_EQ(subject_of(c), "re") << bad;
+  }
+  Circuit source = good;
+  source.find("vcc")->data = stage::VoltageSource{"vcc", "gnd", kNaN};
+  EXPECT_EQ(subject_of(source), "vcc");
+  Circuit wave = good;
+  wave.find("vin")->data =
+      stage::VoltageSource{"in", "gnd", 0.0, 1.0, 0.0, stage::SineWave{1.0, kInf}};
+  EXPECT_EQ(subject_of(wave), "vin");
+}
+
+TEST(Validate, ModelParametersOutsideTheirRangeAreNamed) {
+  Circuit c = stage::testing::follower_into_low_load();
+  stage::BipolarModel m = stage::testing::generic_npn();
+  m.saturation_current = -1e-14;
+  c.add_model("npn", m);  // replaces the model of the same name
+  const auto p = stage::validate(c);
+  ASSERT_TRUE(p.has_value());
+  EXPECT_EQ(p->subject, "model npn");
+  EXPECT_NE(p->message.find("saturation_current"), std::string::npos) << p->message;
+  m = stage::testing::generic_npn();
+  m.early_voltage_forward = kInf;  // infinity switches the Early effect off: allowed
+  c.add_model("npn", m);
+  EXPECT_EQ(subject_of(c), "");
+}
+
+TEST(Validate, ACircuitBuiltInCodeIsCheckedBeforeAnythingRuns) {
+  Circuit c = stage::testing::follower_into_low_load();
+  c.find("re")->data = stage::Resistor{"emitter", "gnd", kNaN};
+  EXPECT_THROW(stage::Simulation{c}, std::invalid_argument);
+  EXPECT_THROW(stage::run_bias(c), std::invalid_argument);
+}
+
+TEST(Validate, AnalysisOptionsAreCheckedForEveryRun) {
+  const Circuit c = stage::testing::follower_into_low_load();
+  stage::HeadroomOptions h;
+  h.input = "vin";
+  h.output = stage::SignalRef::node("out");
+  h.distortion_limit = 1.5;
+  EXPECT_EQ(stage::validate(c, h)->subject, "distortion_limit");
+  EXPECT_THROW(stage::run_headroom(c, h), std::invalid_argument);
+  h.distortion_limit = 0.01;
+  h.frequency = kNaN;
+  EXPECT_EQ(stage::validate(c, h)->subject, "frequency");
+  stage::TransientOptions t;
+  t.stop = kInf;
+  EXPECT_EQ(stage::validate(c, t)->subject, "stop");
+  EXPECT_THROW(stage::Simulation(c).transient(t), std::invalid_argument);
+  stage::SpectrumOptions s;
+  s.harmonics = 100000;  // bounded: every harmonic costs a pass over the waveform
+  EXPECT_EQ(stage::validate(c, s)->subject, "harmonics");
+}
+
+// From text, the same rules give input errors at the statement or the
+// model's line, found by the check that runs before anything else.
+TEST(Validate, TextGetsTheSameRulesWithPlaces) {
+  const std::string circuit =
+      "model d = diode { saturation_current = -1 fA }\n"
+      "vin = voltage(in, gnd, dc = 0 V, ac = 1 V)\n"
+      "r1 = resistor(in, out, 1k)\n"
+      "d1 = diode(out, gnd, model = d)\n";
+  try {
+    stage::check_deck(stage::read_text(circuit + "analyze bias()\n", "negative.stage"));
+    ADD_FAILURE() << "a negative saturation current passed the check";
+  } catch (const stage::InputError& e) {
+    EXPECT_EQ(e.where().line, 1) << e.what();
+  }
+  const std::string fixed =
+      "model d = diode { saturation_current = 1 fA }\n" + circuit.substr(circuit.find('\n') + 1);
+  try {
+    stage::check_deck(stage::read_text(
+        fixed + "analyze headroom(input = vin, output = out, distortion_limit = 150 %)\n",
+        "limit.stage"));
+    ADD_FAILURE() << "a distortion limit of 150 % passed the check";
+  } catch (const stage::InputError& e) {
+    EXPECT_EQ(e.where().line, 5) << e.what();
+    EXPECT_NE(e.message().find("distortion limit"), std::string::npos) << e.what();
+  }
+}
+
+}  // namespace
