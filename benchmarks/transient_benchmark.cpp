@@ -1,5 +1,6 @@
-// Transient speed: a 10,000-node RC ladder (linear) and 100 emitter
-// followers (nonlinear) over several periods of a sine. Counters: steps per
+// Transient speed: a 10,000-node RC ladder (linear), 100 emitter followers
+// (nonlinear) over several periods of a sine, and issue 10's chain of twenty
+// charge-storing capacitor-coupled followers under each integration method. Counters: steps per
 // second, Newton iterations and factorisations per step; the KLU benchmarks
 // beside them time one solve (and one refactorisation plus solve) of the
 // same matrix G + a C, the floor a step's cost is measured against.
@@ -9,6 +10,7 @@
 
 #include "analysis/newton.hpp"
 #include "analysis/transient.hpp"
+#include "transient/follower_chain.hpp"
 
 namespace {
 
@@ -42,10 +44,10 @@ stage::Circuit follower_array(int stages) {
 }
 
 void run(benchmark::State& state, const stage::Circuit& circuit, const std::string& probe,
-         double steps_per_period = 100) {
+         double periods = 5, double steps_per_period = 100) {
   const stage::mna::System system(circuit);
   stage::TransientOptions options;
-  options.stop = 5 / kFrequency;
+  options.stop = periods / kFrequency;
   options.max_step = 1 / kFrequency / steps_per_period;
   options.signals = {stage::SignalRef::node(probe)};
   stage::TransientResult last;
@@ -57,15 +59,26 @@ void run(benchmark::State& state, const stage::Circuit& circuit, const std::stri
   state.counters["newton_per_step"] = last.newton_iterations / steps;
   state.counters["factorizations"] = last.factorizations;
   state.counters["factorizations_per_step"] = last.factorizations / steps;
+  state.counters["time_per_step"] =
+      benchmark::Counter(steps * static_cast<double>(state.iterations()),
+                         benchmark::Counter::kIsRate | benchmark::Counter::kInvert);
 }
 
 void BM_TransientRcLadder(benchmark::State& state) { run(state, rc_ladder(10000), "n10000"); }
 // At 2000 steps a period the error test never limits the step: after the
 // first steps grow to max_step the factorisation count stays put.
 void BM_TransientRcLadderConstantStep(benchmark::State& state) {
-  run(state, rc_ladder(10000), "n10000", 2000);
+  run(state, rc_ladder(10000), "n10000", 5, 2000);
 }
 void BM_TransientFollowers(benchmark::State& state) { run(state, follower_array(100), "e99"); }
+// The twenty-follower chain, 10 mV at 1 kHz, 2 ms at most 10 us a step (the
+// run of issue 10), by integration method: 0 TR-BDF2, 1 trapezoidal rule,
+// 2 BDF2.
+void BM_TransientFollowerChain(benchmark::State& state) {
+  stage::Circuit c = stage::testing::follower_chain(20);
+  c.solver.integration = static_cast<stage::Integration>(state.range(0));
+  run(state, c, "out", 2, 100);
+}
 
 // One solve, or refactorisation plus solve, of G + a C at the operating point
 // with a = 2 / max_step (the trapezoidal rule's coefficient).
@@ -96,6 +109,7 @@ BENCHMARK(BM_TransientRcLadderConstantStep)->Unit(benchmark::kMillisecond);
 BENCHMARK(BM_KluSolveRcLadder)->Unit(benchmark::kMicrosecond);
 BENCHMARK(BM_TransientFollowers)->Unit(benchmark::kMillisecond);
 BENCHMARK(BM_KluRefactorSolveFollowers)->Unit(benchmark::kMicrosecond);
+BENCHMARK(BM_TransientFollowerChain)->DenseRange(0, 2)->Unit(benchmark::kMillisecond);
 
 }  // namespace
 

@@ -10,13 +10,13 @@
 
 #include <algorithm>
 #include <array>
-#include <boost/numeric/odeint.hpp>
 #include <cmath>
 #include <iomanip>
 #include <numbers>
 #include <sstream>
 #include <vector>
 
+#include "ebers_moll_reference.hpp"
 #include "stage/transient.hpp"
 
 namespace {
@@ -32,51 +32,37 @@ constexpr double kCin = 10e-6, kCout = 100e-6;
 constexpr double kIs = 1e-14, kBf = 150, kBr = 2;
 constexpr double kKelvin = 300.15;
 
+const stage::testing::EbersMoll kTransistor{kIs, kBf, kBr,
+                                            stage::testing::thermal_voltage(kKelvin)};
+
 // Base and emitter voltages of the resistive part.
 struct Nodes {
   double vb = 0, ve = 0;
 };
 
-// Ebers–Moll model of an npn (Ebers and Moll, Proc. IRE 1954) in its
-// transport form (Getreu, "Modeling the Bipolar Transistor", 1978): IC = IS (e^(vbe/vt) -
-// e^(vbc/vt)) - IS/BR (e^(vbc/vt) - 1), IB = IS/BF (e^(vbe/vt) - 1) + IS/BR (e^(vbc/vt) - 1), vt =
-// k T / q from the exact SI constants (CODATA 2018). Solves KCL at base and emitter for the
-// capacitor voltages vcin = v(in) - v(base), vcout = v(e) - v(out) and the
-// source voltage vs, by Newton from `x` (the last solution: it moves little
-// between right-hand-side evaluations). With `dc` the coupling branches carry
-// no current (capacitors open): the bias point.
-Nodes solve_nodes(double vs, double vcin, double vcout, Nodes x, bool dc = false) {
+// Solves KCL at base and emitter for the capacitor voltages
+// vcin = v(in) - v(base), vcout = v(e) - v(out) and the source voltage vs,
+// by Newton from `start` (the last solution: it moves little between
+// right-hand-side evaluations). With `dc` the coupling branches carry no
+// current (capacitors open): the bias point.
+Nodes solve_nodes(double vs, double vcin, double vcout, Nodes start, bool dc = false) {
   const double gs = dc ? 0 : 1 / kRs, gl = dc ? 0 : 1 / kRl;
-  const double vt = 1.380649e-23 * kKelvin / 1.602176634e-19;
-  for (int iteration = 0; iteration < 200; ++iteration) {
-    const double ef = std::exp((x.vb - x.ve) / vt), er = std::exp((x.vb - kVcc) / vt);
-    const double ic = kIs * (ef - er) - kIs / kBr * (er - 1);
-    const double ib = kIs / kBf * (ef - 1) + kIs / kBr * (er - 1);
-    const double gf = kIs * ef / vt, gr = kIs * er / vt;
-    // Residuals: current into the base node and into the emitter node.
-    const double f1 = (vs - vcin - x.vb) * gs + (kVcc - x.vb) / kR1 - x.vb / kR2 - ib;
-    const double f2 = ic + ib - x.ve / kRe - (x.ve - vcout) * gl;
-    const double j11 = -gs - 1 / kR1 - 1 / kR2 - gf / kBf - gr / kBr;
-    const double j12 = gf / kBf;
-    const double j21 = gf * (1 + 1 / kBf) - gr;
-    const double j22 = -gf * (1 + 1 / kBf) - 1 / kRe - gl;
-    const double det = j11 * j22 - j12 * j21;
-    double db = -(f1 * j22 - f2 * j12) / det;
-    double de = -(j11 * f2 - j21 * f1) / det;
-    // Limit the junction-voltage change to a few vt so the exponential cannot
-    // overshoot (common practice in Newton on diode equations).
-    const double dvbe = db - de, limit = 4 * vt;
-    if (std::abs(dvbe) > limit) {
-      db *= limit / std::abs(dvbe);
-      de *= limit / std::abs(dvbe);
-    }
-    x.vb += db;
-    x.ve += de;
-    // Settled to a few units in the last place of volt-sized values.
-    if (std::abs(db) < 1e-14 && std::abs(de) < 1e-14) return x;
+  const auto kcl = [&](const Eigen::VectorXd& v, Eigen::VectorXd& f, Eigen::MatrixXd& j) {
+    const auto q = kTransistor(v[0] - v[1], v[0] - kVcc);
+    // Currents into the base node and into the emitter node.
+    f[0] = (vs - vcin - v[0]) * gs + (kVcc - v[0]) / kR1 - v[0] / kR2 - q.ib;
+    f[1] = q.ic + q.ib - v[1] / kRe - (v[1] - vcout) * gl;
+    j(0, 0) = -gs - 1 / kR1 - 1 / kR2 - q.dib_dvbe - q.dib_dvbc;
+    j(0, 1) = q.dib_dvbe;
+    j(1, 0) = q.dic_dvbe + q.dic_dvbc + q.dib_dvbe + q.dib_dvbc;
+    j(1, 1) = -q.dic_dvbe - q.dib_dvbe - 1 / kRe - gl;
+  };
+  Eigen::VectorXd x(2);
+  x << start.vb, start.ve;
+  if (!stage::testing::solve_kcl(kcl, x, kTransistor.vt)) {
+    ADD_FAILURE() << "reference Newton did not converge at vs = " << vs;
   }
-  ADD_FAILURE() << "reference Newton did not converge at vs = " << vs;
-  return x;
+  return {x[0], x[1]};
 }
 
 double source(double t) { return kAmplitude * std::sin(2 * std::numbers::pi * kF * t); }
@@ -128,14 +114,11 @@ TEST(FollowerReference, ClippedOutputAgreesWithDormandPrince) {
     dv[0] = (vs - v[0] - nodes.vb) / kRs / kCin;
     dv[1] = (nodes.ve - v[1]) / kRl / kCout;
   };
-  namespace odeint = boost::numeric::odeint;
   std::vector<double> reference;
-  odeint::integrate_times(
-      odeint::make_dense_output(1e-10, 1e-10, odeint::runge_kutta_dopri5<State>()), rhs, state,
-      r.time.begin(), r.time.end(), 1e-7, [&](const State& v, double t) {
-        const Nodes n = solve_nodes(source(t), v[0], v[1], nodes);
-        reference.push_back(n.ve - v[1]);  // v(out) = v(e) - vcout
-      });
+  stage::testing::dormand_prince_at(rhs, state, r.time, [&](const State& v, double t) {
+    const Nodes n = solve_nodes(source(t), v[0], v[1], nodes);
+    reference.push_back(n.ve - v[1]);  // v(out) = v(e) - vcout
+  });
   ASSERT_EQ(reference.size(), r.time.size());
 
   const auto& out = r.signal("out");

@@ -7,6 +7,7 @@
 #include <cmath>
 #include <numbers>
 
+#include "analysis/step_interpolant.hpp"
 #include "stage/spectrum.hpp"
 #include "stage/transient.hpp"
 
@@ -101,6 +102,22 @@ TEST(SampledWaveform, ChargingRcIsNotSettled) {
       stage::run_spectrum(stage::run_transient(c, o), {stage::SignalRef::node("out"), kF, 5});
   EXPECT_FALSE(s.settled);
   EXPECT_GT(s.period_change, 1.0);  // ~2 by the hand analysis above
+}
+
+// A piece's range, which the headroom search's peaks come from: the Hermite
+// piece of the cubic t^3 - t on [-1, 1.5] is that cubic, whose largest value
+// there is at the end, 1.875, and whose smallest is at its stationary point
+// t = 1/sqrt 3, -2/(3 sqrt 3) (exact solution).
+TEST(Interpolant, PieceRangeFindsTheCubicsExtremes) {
+  const auto f = [](double t) { return t * t * t - t; };
+  const auto df = [](double t) { return 3 * t * t - 1; };
+  const stage::analysis::HermitePiece piece{-1.0, 1.5, f(-1.0), f(1.5), df(-1.0), df(1.5)};
+  const auto [low, high] = piece.range();
+  EXPECT_NEAR(high, 1.875, 1e-14);                     // exact solution
+  EXPECT_NEAR(low, -2 / (3 * std::sqrt(3.0)), 1e-14);  // exact solution
+  // Falling through a step: no stationary point inside, the ends (exact).
+  const stage::analysis::HermitePiece falling{0.0, 1.0, 1.0, 0.0, -1.0, -1.0};
+  EXPECT_EQ(falling.range(), std::make_pair(0.0, 1.0));
 }
 
 }  // namespace

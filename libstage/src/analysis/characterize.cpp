@@ -9,6 +9,7 @@
 
 #include "analysis/drive_setup.hpp"
 #include "analysis/sine_drive.hpp"
+#include "analysis/step_interpolant.hpp"
 #include "report/format.hpp"
 #include "stage/errors.hpp"
 #include "stage/validate.hpp"
@@ -24,22 +25,6 @@ constexpr int kPointsPerDecade = 20;
 // to Newton's tolerance; what is left is the quadrature of the charges' share
 // over about 400 steps a period (common practice for a power audit).
 constexpr double kBalanceTolerance = 1e-3;
-
-// Mean of a sampled signal over [from, to] by the trapezoidal rule.
-double period_mean(const std::vector<double>& time, const std::vector<double>& values, double from,
-                   double to) {
-  double area = 0;
-  for (std::size_t k = 1; k < time.size(); ++k) {
-    const double a = std::max(time[k - 1], from), b = std::min(time[k], to);
-    if (b <= a) continue;
-    const double span = time[k] - time[k - 1];
-    const auto at = [&](double t) {
-      return values[k - 1] + (values[k] - values[k - 1]) * (t - time[k - 1]) / span;
-    };
-    area += 0.5 * (at(a) + at(b)) * (b - a);
-  }
-  return area / (to - from);
-}
 
 // The load's current and the voltage across it, recorded for its DC part.
 struct LoadProbes {
@@ -90,10 +75,12 @@ SwingPower swing_power(const Circuit& circuit, const analysis::SineDrive& drive,
     } else if (name == load.load) {
       // Signal power only: a load that also carries the bias current (class A
       // with the load as emitter resistor) takes DC power that is no output.
-      const auto& t = m.transient.time;
-      const double to = t.back(), from = to - 1.0 / frequency;
-      const double dc = period_mean(t, m.transient.signal(load.voltage->label()), from, to) *
-                        period_mean(t, m.transient.signal(load.current->label()), from, to);
+      const TransientResult& t = m.transient;
+      const double to = t.time.back(), from = to - 1.0 / frequency;
+      const auto dc_part = [&](const SignalRef& ref) {
+        return analysis::mean(t, analysis::signal_named(t, ref.label()), from, to);
+      };
+      const double dc = dc_part(*load.voltage) * dc_part(*load.current);
       s.load_power = absorbed - dc;
       s.dissipation += dc;
     } else {

@@ -3,11 +3,13 @@
 
 #include <spdlog/spdlog.h>
 
+#include <algorithm>
 #include <limits>
 #include <optional>
 #include <stdexcept>
 
 #include "analysis/energy_ledger.hpp"
+#include "analysis/step_interpolant.hpp"
 #include "analysis/transient.hpp"
 #include "mna/system.hpp"
 
@@ -87,6 +89,19 @@ TransientResult SineDrive::run(double amplitude, int periods, DriveMeasurement& 
   };
   ++runs_;
   TransientResult result = integrate(system, c.solver, options, observer);
+  // The peaks between the samples: the interpolant's extremes over the
+  // steps from the first sample of the last period on (the output is the
+  // first signal). The state stays the extreme sample's, for telling what
+  // limits each side.
+  const TransientSignal& output = result.signals.front();
+  const auto& time = result.time;
+  for (auto k = static_cast<std::size_t>(std::lower_bound(time.begin(), time.end(), window) -
+                                         time.begin());
+       k + 1 < time.size(); ++k) {
+    const auto [low, high] = step_piece(result, output, k).range();
+    m.maximum.value = std::max(m.maximum.value, high);
+    m.minimum.value = std::min(m.minimum.value, low);
+  }
   m.element_power.clear();
   if (ledger) {
     const std::vector<double> power = ledger->mean_power();

@@ -29,7 +29,9 @@ struct DriveMeasurement {
   // level while driven: coupling capacitors drift slowly (their time
   // constants span many periods), and that drift is not clipping.
   double average = 0;
-  double positive_peak = 0;  // max(output) - average, over the last period
+  // max(output) - average over the last period, the output read by its
+  // interpolant between samples (interpolate() in stage/transient.hpp)
+  double positive_peak = 0;
   double negative_peak = 0;  // average - min(output)
   double thd = 0;
   double fundamental = 0;  // output's fundamental amplitude

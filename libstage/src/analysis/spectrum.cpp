@@ -32,13 +32,6 @@ constexpr double kPanelPhase = 0.5;
 // distortion figures of interest).
 constexpr double kSettleLimit = 1e-3;
 
-const TransientSignal& find_signal(const TransientResult& tr, const std::string& name) {
-  for (const auto& s : tr.signals) {
-    if (s.name == name) return s;
-  }
-  throw std::invalid_argument("the transient has no signal '" + name + "'");
-}
-
 // RMS of x(t) - x(t - period) over [end - period, end].
 double rms_period_change(const TransientResult& tr, const TransientSignal& signal, double end,
                          double period) {
@@ -68,7 +61,7 @@ SpectrumResult run_spectrum(const TransientResult& tr, const SpectrumOptions& op
   SpectrumResult result;
   result.signal = options.signal.label();
   result.fundamental = options.fundamental;
-  const TransientSignal& signal = find_signal(tr, result.signal);
+  const TransientSignal& signal = analysis::signal_named(tr, result.signal);
   const double period = 1.0 / options.fundamental;
   const double length = tr.time.empty() ? 0.0 : tr.time.back() - tr.time.front();
   const auto whole = static_cast<int>(std::floor(length / period * (1.0 + 1e-9)));

@@ -1,11 +1,15 @@
 // The interpolant of a transient signal, one cubic Hermite piece per step
 // (interpolate() in stage/transient.hpp), for the figures that integrate
-// over a waveform rather than sample it: spectra, averages, the settle check.
+// over a waveform rather than sample it (spectra, averages, the settle
+// check) or look between its samples (peaks).
 #pragma once
 
 #include <algorithm>
 #include <array>
 #include <cmath>
+#include <stdexcept>
+#include <string>
+#include <utility>
 #include <vector>
 
 #include "stage/transient.hpp"
@@ -26,6 +30,27 @@ struct HermitePiece {
     const double h = t1 - t0, s = (t - t0) / h;
     return 6 * (s * s - s) / h * (v0 - v1) + (3 * s * s - 4 * s + 1) * d0 +
            (3 * s * s - 2 * s) * d1;
+  }
+  // Smallest and largest value over [t0, t1]: the ends and the cubic's
+  // stationary points between them, the roots of p'(s) = 3a s^2 + 2b s + c
+  // in the piece's own variable s = (t - t0) / h, taken in the form that
+  // does not cancel (Press et al., Numerical Recipes, section 5.6).
+  std::pair<double, double> range() const {
+    const double h = t1 - t0;
+    const double a = 2 * (v0 - v1) + h * (d0 + d1), b = 3 * (v1 - v0) - h * (2 * d0 + d1);
+    const double c = h * d0;
+    std::pair<double, double> r{std::min(v0, v1), std::max(v0, v1)};
+    const auto consider = [&](double s) {
+      if (!(s > 0 && s < 1)) return;
+      const double v = value(t0 + s * h);
+      r = {std::min(r.first, v), std::max(r.second, v)};
+    };
+    const double discriminant = b * b - 3 * a * c;
+    if (discriminant < 0) return r;
+    const double q = -(b + std::copysign(std::sqrt(discriminant), b));
+    if (a != 0) consider(q / (3 * a));
+    if (q != 0) consider(c / q);
+    return r;
   }
 };
 
@@ -77,6 +102,25 @@ void for_each_quadrature_node(const std::vector<double>& time, double from, doub
     }
     a = b;
   }
+}
+
+// Mean of the interpolant over [from, to], integrated exactly (one
+// quadrature panel per step holds a cubic exactly).
+inline double mean(const TransientResult& r, const TransientSignal& s, double from, double to) {
+  double area = 0;
+  for_each_quadrature_node(r.time, from, to, to - from,
+                           [&](double t, double weight, std::size_t k) {
+                             area += weight * step_piece(r, s, k).value(t);
+                           });
+  return area / (to - from);
+}
+
+// The signal called `name`; throws std::invalid_argument if there is none.
+inline const TransientSignal& signal_named(const TransientResult& r, const std::string& name) {
+  for (const auto& s : r.signals) {
+    if (s.name == name) return s;
+  }
+  throw std::invalid_argument("the transient has no signal '" + name + "'");
 }
 
 }  // namespace stage::analysis

@@ -8,11 +8,21 @@
 // unknowns (resistive node voltages, source currents) must still satisfy the
 // circuit at t = 0. Both come from one backward-Euler step of a very short
 // length tau from the charges q0:  f(x, 0) + (q(x) - q0) / tau = 0.
-// Its solution satisfies every algebraic equation exactly and moves each
-// charge only by tau q' (tau is 1e-9 of the run), and (q(x) - q0) / tau is
-// the charge derivative q'(0) the first step's error estimate needs. Where
-// the circuit forces a charge (a capacitor straight across a source) the
-// step moves it to the forced value, which is the physical outcome.
+// Its solution x1 satisfies every algebraic equation exactly and moves each
+// charge only by tau q', except where the circuit forces a charge (a
+// capacitor straight across a source, a junction capacitance from a supply
+// to a node the supply pulls up): that step moves it to the forced value,
+// which is the physical outcome at t = 0+.
+//
+// That first point x1 is no start, though, wherever a charge was forced:
+// its resistive unknowns carry the jump's impulse (q(x1) - q0) / tau (the
+// drop it makes across a base resistance, say), and the first step's
+// predictor, q + h q' with that q', misses by (h / tau) times the jump, so
+// every step was rejected down to the minimum. A second step of length tau
+// from q(x1), with nothing left to force, ends at a point x2 whose
+// resistive unknowns match the charges' derivative after the jump, and
+// gives that derivative, (q(x2) - q(x1)) / tau, to O(tau). The transient
+// starts at x2 (tau later than t = 0, as x1 already was).
 #include "analysis/transient_start.hpp"
 
 #include "analysis/operating_point.hpp"
@@ -56,23 +66,20 @@ std::vector<double> initial_charges(const mna::System& system) {
   return q0;
 }
 
-StartPoint zero_start(NewtonSolver& newton, double duration) {
+// One backward-Euler step of length tau from the charges `from`, solved in
+// place from x. Throws NumericalError if Newton does not converge.
+int consistency_step(NewtonSolver& newton, const std::vector<double>& from, double tau,
+                     std::vector<double>& x) {
   const mna::System& system = newton.system();
-  const std::vector<double> q0 = initial_charges(system);
-  const double tau = kConsistencyFraction * duration;
-  std::vector<double> history(q0.size());
-  for (std::size_t i = 0; i < q0.size(); ++i) history[i] = -q0[i] / tau;
-
-  StartPoint start;
-  start.x.assign(q0.size(), 0.0);
+  std::vector<double> history(from.size());
+  for (std::size_t i = 0; i < from.size(); ++i) history[i] = -from[i] / tau;
   NewtonProblem p;
   p.request = system.request(nullptr);
   p.request.dc = false;
   p.reactive_scale = 1.0 / tau;
   p.reactive_history = history.data();
   p.max_iterations = newton.options().max_newton_iterations;
-  const auto outcome = newton.solve(start.x, p);
-  start.newton_iterations = outcome.iterations;
+  const auto outcome = newton.solve(x, p);
   if (outcome.status != NewtonStatus::converged) {
     const auto worst = system.worst_unknowns(newton.last_update(), 3);
     throw NumericalError(
@@ -81,9 +88,20 @@ StartPoint zero_start(NewtonSolver& newton, double duration) {
             worst.front(),
         worst);
   }
+  return outcome.iterations;
+}
+
+StartPoint zero_start(NewtonSolver& newton, double duration) {
+  const std::vector<double> q0 = initial_charges(newton.system());
+  const double tau = kConsistencyFraction * duration;
+  StartPoint start;
+  start.x.assign(q0.size(), 0.0);
+  start.newton_iterations = consistency_step(newton, q0, tau, start.x);
+  const std::vector<double> forced = newton.workspace().q;
+  start.newton_iterations += consistency_step(newton, forced, tau, start.x);
   start.q = newton.workspace().q;
   start.qdot.resize(q0.size());
-  for (std::size_t i = 0; i < q0.size(); ++i) start.qdot[i] = (start.q[i] - q0[i]) / tau;
+  for (std::size_t i = 0; i < q0.size(); ++i) start.qdot[i] = (start.q[i] - forced[i]) / tau;
   return start;
 }
 
