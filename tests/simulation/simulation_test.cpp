@@ -10,6 +10,8 @@
 #include <limits>
 
 #include "headroom/stages.hpp"
+#include "stage/characterize.hpp"
+#include "stage/headroom.hpp"
 
 namespace {
 
@@ -79,7 +81,31 @@ TEST(Simulation, RunsEveryAnalysisOnOneSystemAsOneShotRunsDo) {
   EXPECT_EQ(n.systems_built, 1);
   EXPECT_EQ(n.cold_bias_solves, 1);
   EXPECT_EQ(n.warm_bias_solves, 1);
-  EXPECT_EQ(n.bias_reused, 1);  // the frequency sweep's bias point
+  EXPECT_EQ(n.bias_reused, 2);  // by the frequency sweep and the transient's start
+}
+
+// The headroom search and the stage report run every transient on one
+// prepared simulation: one system, one bias point solved from cold, and
+// every run (and the small-signal gain) starting from it.
+TEST(Simulation, HeadroomAndStageReportSolveOneBiasPoint) {
+  const Circuit c = stage::testing::follower_into_low_load();
+  stage::HeadroomOptions h;
+  h.input = "vin";
+  h.output = stage::SignalRef::node("out");
+  const stage::HeadroomResult headroom = stage::run_headroom(c, h);
+  EXPECT_EQ(headroom.counters.systems_built, 1);
+  EXPECT_EQ(headroom.counters.cold_bias_solves, 1);
+  EXPECT_EQ(headroom.counters.warm_bias_solves, 0);
+  EXPECT_EQ(headroom.counters.bias_reused, headroom.transient_runs + 1);
+
+  stage::CharacterizeOptions o;
+  o.input = "vin";
+  o.output = stage::SignalRef::node("out");
+  o.load = "rl";
+  const stage::CharacterizeResult report = stage::run_characterize(c, o);
+  EXPECT_EQ(report.headroom.counters.systems_built, 1);
+  EXPECT_EQ(report.headroom.counters.cold_bias_solves, 1);
+  EXPECT_EQ(report.headroom.counters.warm_bias_solves, 0);
 }
 
 TEST(Simulation, SweepLeavesTheSourceAsItWas) {

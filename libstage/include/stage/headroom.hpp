@@ -31,6 +31,7 @@
 #include "stage/bias.hpp"
 #include "stage/circuit.hpp"
 #include "stage/progress.hpp"
+#include "stage/simulation.hpp"
 
 namespace stage {
 
@@ -116,6 +117,10 @@ struct HeadroomResult {
   // rails can deliver), and never a prediction beyond 1.5 x the largest rail.
   double largest_drive_allowed = 0;
   int transient_runs = 0;
+  // What the search's prepared simulation built and solved: one system and
+  // one cold bias point for the whole search (the load-line estimate solves
+  // a separate small-signal circuit of its own).
+  SimulationCounters counters;
   std::optional<LoadLineEstimate> load_line;  // single-transistor stages only
   BiasResult bias;
   std::vector<std::string> notes;

@@ -14,6 +14,7 @@
 #pragma once
 
 #include <memory>
+#include <optional>
 #include <string>
 
 #include "stage/bias.hpp"
@@ -58,6 +59,9 @@ class Simulation {
   // element, an element with no such value, or a value it cannot take (not
   // finite; not positive for R, C and L).
   void set_value(const std::string& element, double value);
+  // Replaces an independent source's waveform (nothing: DC only). Its DC
+  // value, and so the bias point, stay as they are.
+  void set_waveform(const std::string& source, const std::optional<Waveform>& wave);
   void set_temperature(double kelvin);
   // Takes every element value of `other` when it is this circuit with only
   // such values changed (the same elements, nodes, models and waveforms, as
@@ -68,6 +72,7 @@ class Simulation {
   SimulationCounters counters() const;
 
  private:
+  friend struct SimulationAccess;  // the analyses built on a simulation (internal)
   struct State;
   std::unique_ptr<State> state_;
 };

@@ -8,6 +8,7 @@
 #include <limits>
 
 #include "analysis/drive_setup.hpp"
+#include "analysis/headroom_search.hpp"
 #include "analysis/sine_drive.hpp"
 #include "analysis/step_interpolant.hpp"
 #include "report/format.hpp"
@@ -128,7 +129,13 @@ CharacterizeResult run_characterize(const Circuit& circuit, const CharacterizeOp
   f.output = options.output;
   f.load = options.load;
   f.at = options.frequency;
-  r.frequency = run_frequency(analysis::with_only_ac_input(circuit, options.input), f);
+  // One drive, one prepared simulation: the frequency sweep, the headroom
+  // search and the power rows share its system and its bias point.
+  const LoadProbes load = load_probes(circuit, options);
+  const analysis::SineDrive drive(analysis::with_only_ac_input(circuit, options.input),
+                                  options.input, options.output, options.frequency, load.signals(),
+                                  true);
+  r.frequency = drive.simulation().frequency(f);
   r.bias = r.frequency.bias;
   r.gain = std::pow(10.0, *r.frequency.figures.gain_at_dB / 20.0);
   const auto& fs = r.frequency.frequencies;
@@ -140,11 +147,7 @@ CharacterizeResult run_characterize(const Circuit& circuit, const CharacterizeOp
   if (!r.frequency.output_impedance.empty()) r.output_impedance = r.frequency.output_impedance[at];
 
   HeadroomOptions h{options.input, options.output, options.frequency, kHeadroomLimit, options.load};
-  r.headroom = run_headroom(circuit, h, progress);
-
-  const LoadProbes load = load_probes(circuit, options);
-  const analysis::SineDrive drive(circuit, options.input, options.output, options.frequency,
-                                  load.signals(), true);
+  r.headroom = analysis::headroom_search(circuit, drive, h, progress);
   const auto power_at = [&](double amplitude, const std::string& row) {
     return swing_power(circuit, drive, load, options.input, amplitude, options.frequency, row);
   };

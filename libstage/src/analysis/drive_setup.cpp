@@ -42,6 +42,12 @@ Circuit with_only_ac_input(const Circuit& circuit, const std::string& input) {
 
 double small_signal_gain(const Circuit& circuit, const std::string& input, const SignalRef& output,
                          double frequency) {
+  Simulation simulation(with_only_ac_input(circuit, input));
+  return small_signal_gain(simulation, input, output, frequency);
+}
+
+double small_signal_gain(Simulation& simulation, const std::string& input, const SignalRef& output,
+                         double frequency) {
   FrequencyOptions f;
   f.from = frequency;
   f.to = frequency * 1.001;  // a grid of its own; the figure is solved at `at`
@@ -49,7 +55,7 @@ double small_signal_gain(const Circuit& circuit, const std::string& input, const
   f.input = input;
   f.output = output;
   f.at = frequency;
-  const FrequencyResult r = run_frequency(with_only_ac_input(circuit, input), f);
+  const FrequencyResult r = simulation.frequency(f);
   return std::pow(10.0, *r.figures.gain_at_dB / 20.0);
 }
 

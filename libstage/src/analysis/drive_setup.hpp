@@ -9,6 +9,7 @@
 
 #include "stage/circuit.hpp"
 #include "stage/signal.hpp"
+#include "stage/simulation.hpp"
 
 namespace stage::analysis {
 
@@ -20,6 +21,10 @@ Circuit with_only_ac_input(const Circuit& circuit, const std::string& input);
 // |output / input| at one frequency, the input alone driving (small signal,
 // around the bias point).
 double small_signal_gain(const Circuit& circuit, const std::string& input, const SignalRef& output,
+                         double frequency);
+// The same on a prepared simulation of a circuit where the input alone
+// carries an AC phasor (with_only_ac_input): its bias point is reused.
+double small_signal_gain(Simulation& simulation, const std::string& input, const SignalRef& output,
                          double frequency);
 
 // The small-signal impedance |Z| between nodes a and b at `frequency` with

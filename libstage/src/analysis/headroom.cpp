@@ -16,9 +16,11 @@
 #include <stdexcept>
 
 #include "analysis/drive_setup.hpp"
+#include "analysis/headroom_search.hpp"
 #include "analysis/sine_drive.hpp"
 #include "mna/system.hpp"
 #include "report/format.hpp"
+#include "simulation/simulation_access.hpp"
 #include "stage/errors.hpp"
 #include "stage/frequency.hpp"
 #include "stage/validate.hpp"
@@ -366,20 +368,27 @@ std::optional<double> rail_drive_bound(const Circuit& circuit,
 HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& options,
                             const ProgressCallback& progress) {
   if (auto p = validate(circuit, options)) throw std::invalid_argument(p->message);
+  const analysis::SineDrive drive(analysis::with_only_ac_input(circuit, options.input),
+                                  options.input, options.output, options.frequency);
+  return analysis::headroom_search(circuit, drive, options, progress);
+}
+
+namespace analysis {
+
+HeadroomResult headroom_search(const Circuit& circuit, const SineDrive& drive,
+                               const HeadroomOptions& options, const ProgressCallback& progress) {
   HeadroomResult result;
   result.options = options;
   result.output = options.output.label();
-  result.bias = run_bias(circuit);
+  result.bias = drive.simulation().bias();
   const auto node = [&](const std::string& name) {
     return name == kGround || name.empty() ? 0.0 : result.bias.voltage(name);
   };
   result.bias_output =
       node(options.output.a) -
       (options.output.kind == SignalRef::Kind::node_pair ? node(options.output.b) : 0.0);
-  result.small_signal_gain =
-      analysis::small_signal_gain(circuit, options.input, options.output, options.frequency);
-
-  const analysis::SineDrive drive(circuit, options.input, options.output, options.frequency);
+  result.small_signal_gain = analysis::small_signal_gain(drive.simulation(), options.input,
+                                                         options.output, options.frequency);
   Search search(drive, options.distortion_limit, result.small_signal_gain, progress);
 
   const StageFacts facts = stage_facts(circuit, options.input, options.frequency);
@@ -441,7 +450,7 @@ HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& optio
     }
   }
 
-  const mna::System system(circuit);
+  const mna::System& system = SimulationAccess::system(drive.simulation());
   const double reference =
       options.output.kind == SignalRef::Kind::node_pair ? node(options.output.b) : 0.0;
   const auto& largest = search.runs().rbegin()->second;
@@ -539,9 +548,11 @@ HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& optio
   }
   result.symmetric_peak_to_peak = 2 * symmetric;
   result.transient_runs = drive.runs();
+  result.counters = drive.simulation().counters();
   result.load_line = estimate_load_line(circuit, result.bias, options.frequency);
   spdlog::debug("headroom: {} transient runs", result.transient_runs);
   return result;
 }
 
+}  // namespace analysis
 }  // namespace stage

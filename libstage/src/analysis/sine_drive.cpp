@@ -12,6 +12,7 @@
 #include "analysis/step_interpolant.hpp"
 #include "analysis/transient.hpp"
 #include "mna/system.hpp"
+#include "simulation/simulation_access.hpp"
 
 namespace stage::analysis {
 namespace {
@@ -21,44 +22,31 @@ constexpr int kMaxPeriods = 64;          // coupling capacitors get this long to
 constexpr double kStepsPerPeriod = 400;  // step bound: peaks read to ~3e-5 relative
 constexpr int kHarmonics = 9;
 
-template <class Source>
-void drive(Source& source, double amplitude, double frequency) {
-  source.wave = SineWave{amplitude, frequency, source.dc};
+// The DC value the sine rides on: the input source's own.
+double dc_of(const Circuit& circuit, const std::string& input) {
+  const Element& e = *circuit.find(input);
+  if (const auto* v = std::get_if<VoltageSource>(&e.data)) return v->dc;
+  return std::get<CurrentSource>(e.data).dc;
 }
 
 }  // namespace
 
-SineDrive::SineDrive(Circuit circuit, std::string input, SignalRef output, double frequency,
+SineDrive::SineDrive(const Circuit& circuit, std::string input, SignalRef output, double frequency,
                      std::vector<SignalRef> record, bool energy_ledger)
-    : circuit_(std::move(circuit)),
+    : simulation_(circuit),
       input_(std::move(input)),
       output_(std::move(output)),
       frequency_(frequency),
+      input_dc_(dc_of(circuit, input_)),
       record_(std::move(record)),
       energy_ledger_(energy_ledger),
-      periods_(kFirstPeriods) {
-  if (output_.kind == SignalRef::Kind::element_current) {
-    throw std::invalid_argument("a large-signal output must be a node or a node pair, not " +
-                                output_.label());
-  }
-  const Element* element = circuit_.find(input_);
-  if (element == nullptr || !(std::holds_alternative<VoltageSource>(element->data) ||
-                              std::holds_alternative<CurrentSource>(element->data))) {
-    throw std::invalid_argument("'" + input_ + "' is not an independent voltage or current source");
-  }
-}
+      periods_(kFirstPeriods) {}
 
 TransientResult SineDrive::run(double amplitude, int periods, DriveMeasurement& m) const {
-  Circuit c = circuit_;
-  std::visit(
-      [&](auto& e) {
-        using T = std::decay_t<decltype(e)>;
-        if constexpr (std::is_same_v<T, VoltageSource> || std::is_same_v<T, CurrentSource>) {
-          drive(e, amplitude, frequency_);
-        }
-      },
-      c.find(input_)->data);
-  mna::System system(c);
+  // The sine rides on the source's DC value, so the bias point, solved once
+  // by the simulation, is every run's start.
+  simulation_.set_waveform(input_, SineWave{amplitude, frequency_, input_dc_});
+  const mna::System& system = SimulationAccess::system(simulation_);
   const auto& topology = system.topology();
   const auto node = [&](const std::string& name) {
     const auto index = name.empty() ? std::optional<mna::Index>(0) : topology.find_node(name);
@@ -79,7 +67,7 @@ TransientResult SineDrive::run(double amplitude, int periods, DriveMeasurement& 
   m.maximum = {0, -std::numeric_limits<double>::infinity(), {}};
   m.minimum = {0, std::numeric_limits<double>::infinity(), {}};
   std::optional<EnergyLedger> ledger;
-  if (energy_ledger_) ledger.emplace(c, system).start(window);
+  if (energy_ledger_) ledger.emplace(simulation_.circuit(), system).start(window);
   const StepObserver observer = [&](double t, const std::vector<double>& x) {
     if (ledger) ledger->step(t, x);
     if (t < window) return;
@@ -88,7 +76,7 @@ TransientResult SineDrive::run(double amplitude, int periods, DriveMeasurement& 
     if (v < m.minimum.value) m.minimum = {t, v, x};
   };
   ++runs_;
-  TransientResult result = integrate(system, c.solver, options, observer);
+  TransientResult result = SimulationAccess::transient(simulation_, options, observer);
   // The peaks between the samples: the interpolant's extremes over the
   // steps from the first sample of the last period on (the output is the
   // first signal). The state stays the extreme sample's, for telling what

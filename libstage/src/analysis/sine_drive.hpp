@@ -12,6 +12,7 @@
 
 #include "stage/circuit.hpp"
 #include "stage/signal.hpp"
+#include "stage/simulation.hpp"
 #include "stage/spectrum.hpp"
 #include "stage/transient.hpp"
 
@@ -50,19 +51,26 @@ struct DriveMeasurement {
 
 class SineDrive {
  public:
-  // `output` must be a node or a node pair. `record` lists extra signals kept
-  // in each measurement's transient (load current and voltage, for power);
-  // `energy_ledger` fills each measurement's element_power.
-  SineDrive(Circuit circuit, std::string input, SignalRef output, double frequency,
+  // The request has been validated (stage/validate.hpp): `input` is an
+  // independent source, `output` a node or a node pair. `record` lists extra
+  // signals kept in each measurement's transient (load current and voltage,
+  // for power); `energy_ledger` fills each measurement's element_power.
+  SineDrive(const Circuit& circuit, std::string input, SignalRef output, double frequency,
             std::vector<SignalRef> record = {}, bool energy_ledger = false);
 
   DriveMeasurement measure(double amplitude) const;
   int runs() const { return runs_; }
+  // The prepared simulation every measurement runs on: its bias point is
+  // solved once and starts every run; the analyses built on the drive ask
+  // it for that bias point and the small-signal figures too.
+  Simulation& simulation() const { return simulation_; }
 
  private:
   TransientResult run(double amplitude, int periods, DriveMeasurement& m) const;
 
-  Circuit circuit_;
+  // Mutable as runs_ is: each measurement changes the input's waveform and
+  // keeps what it solved, not what the drive is.
+  mutable Simulation simulation_;
   std::string input_;
   SignalRef output_;
   double frequency_;

@@ -60,15 +60,17 @@ struct Point {
 
 class Stepper {
  public:
-  Stepper(const mna::System& system, const SolverOptions& solver, const TransientOptions& options,
-          TransientResult& result, const StepObserver& observer)
-      : system_(system),
+  Stepper(NewtonSolver& newton, const TransientOptions& options, TransientResult& result,
+          const StepObserver& observer, const std::vector<double>* bias_point)
+      : system_(newton.system()),
         observer_(observer),
-        solver_(solver),
+        solver_(newton.options()),
         options_(options),
         result_(result),
-        recorder_(system, options.signals, options.from, result),
-        newton_(system, solver) {}
+        recorder_(system_, options.signals, options.from, result),
+        newton_(newton),
+        bias_point_(bias_point),
+        factorizations_before_(newton.factorizations()) {}
 
   void run();
 
@@ -93,9 +95,11 @@ class Stepper {
   TransientOptions options_;
   TransientResult& result_;
   SignalRecorder recorder_;
-  NewtonSolver newton_;
-  std::array<Point, 3> past_;  // newest first
-  int since_breakpoint_ = 1;   // accepted points since the last corner, that one included
+  NewtonSolver& newton_;
+  const std::vector<double>* bias_point_;  // the operating point, when already solved
+  int factorizations_before_;              // the solver's count when this run began
+  std::array<Point, 3> past_;              // newest first
+  int since_breakpoint_ = 1;  // accepted points since the last corner, that one included
   std::vector<double> x_, history_, peak_, weights_;
   StepFormula formula_;
   // The accepted formula's shape (for the recorder) and TR-BDF2's inner
@@ -122,7 +126,7 @@ void Stepper::run() {
   if (!breakpoints.empty() && stop - breakpoints.back() < min_step) breakpoints.pop_back();
   breakpoints.push_back(stop);
 
-  StartPoint start = start_transient(newton_, options_.start, stop);
+  StartPoint start = start_transient(newton_, options_.start, stop, bias_point_);
   result_.newton_iterations += start.newton_iterations;
   for (Point& p : past_) p = {0.0, 0.0, start.x, start.q, start.qdot};
   x_ = start.x;
@@ -181,7 +185,7 @@ void Stepper::run() {
       }
     }
   }
-  result_.factorizations = newton_.factorizations();
+  result_.factorizations = newton_.factorizations() - factorizations_before_;
 }
 
 Stepper::Outcome Stepper::attempt(double t_new, double h, double& ratio) {
@@ -363,12 +367,18 @@ void Stepper::fail(double t, double h) const {
 
 TransientResult integrate(const mna::System& system, const SolverOptions& solver,
                           const TransientOptions& options, const StepObserver& observer) {
+  NewtonSolver newton(system, solver);
+  return integrate(newton, options, observer);
+}
+
+TransientResult integrate(NewtonSolver& newton, const TransientOptions& options,
+                          const StepObserver& observer, const std::vector<double>* bias_point) {
   if (!(options.stop > 0) || options.from >= options.stop || options.from < 0) {
     throw std::invalid_argument("a transient needs 0 <= from < stop");
   }
   TransientResult result;
-  result.integration = solver.integration;
-  Stepper stepper(system, solver, options, result, observer);
+  result.integration = newton.options().integration;
+  Stepper stepper(newton, options, result, observer, bias_point);
   stepper.run();
   spdlog::debug("transient: {} steps accepted, {} rejected, {} Newton iterations",
                 result.accepted_steps, result.rejected_steps, result.newton_iterations);

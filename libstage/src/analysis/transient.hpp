@@ -5,6 +5,7 @@
 #include <functional>
 #include <vector>
 
+#include "analysis/newton.hpp"
 #include "mna/system.hpp"
 #include "stage/transient.hpp"
 
@@ -15,7 +16,15 @@ namespace stage::analysis {
 // more than the recorded signals (the device states at a waveform's peak).
 using StepObserver = std::function<void(double time, const std::vector<double>& x)>;
 
+// A run on a Newton solver of its own (tests and benchmarks).
 TransientResult integrate(const mna::System& system, const SolverOptions& solver,
                           const TransientOptions& options, const StepObserver& observer = {});
+
+// A run on a prepared simulation's solver, whose factorisation's symbolic
+// analysis it keeps. `bias_point` (n + 1 entries), when given, is the
+// system's operating point: a bias start takes it instead of solving again.
+TransientResult integrate(NewtonSolver& newton, const TransientOptions& options,
+                          const StepObserver& observer = {},
+                          const std::vector<double>* bias_point = nullptr);
 
 }  // namespace stage::analysis

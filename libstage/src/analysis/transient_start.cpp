@@ -105,11 +105,15 @@ StartPoint zero_start(NewtonSolver& newton, double duration) {
   return start;
 }
 
-StartPoint bias_start(NewtonSolver& newton) {
+StartPoint bias_start(NewtonSolver& newton, const std::vector<double>* bias_point) {
   const mna::System& system = newton.system();
   StartPoint start;
-  start.x.assign(static_cast<std::size_t>(system.size()) + 1, 0.0);
-  start.newton_iterations = solve_operating_point(newton, start.x).newton_iterations;
+  if (bias_point != nullptr) {
+    start.x = *bias_point;
+  } else {
+    start.x.assign(static_cast<std::size_t>(system.size()) + 1, 0.0);
+    start.newton_iterations = solve_operating_point(newton, start.x).newton_iterations;
+  }
   mna::Workspace w = system.make_workspace();
   system.evaluate(system.request(start.x.data()), w);
   start.q = w.q;
@@ -119,9 +123,11 @@ StartPoint bias_start(NewtonSolver& newton) {
 
 }  // namespace
 
-StartPoint start_transient(NewtonSolver& newton, TransientStart start, double duration) {
+StartPoint start_transient(NewtonSolver& newton, TransientStart start, double duration,
+                           const std::vector<double>* bias_point) {
   for (const auto& d : newton.system().devices()) d->reset_limiting();
-  return start == TransientStart::bias ? bias_start(newton) : zero_start(newton, duration);
+  return start == TransientStart::bias ? bias_start(newton, bias_point)
+                                       : zero_start(newton, duration);
 }
 
 }  // namespace stage::analysis

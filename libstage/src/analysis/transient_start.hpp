@@ -16,7 +16,10 @@ struct StartPoint {
 };
 
 // `duration` is the transient's length: the consistency step of a zero
-// start is a tiny fraction of it. Throws NumericalError if no point is found.
-StartPoint start_transient(NewtonSolver& newton, TransientStart start, double duration);
+// start is a tiny fraction of it. `bias_point`, when given, is the operating
+// point already solved, which a bias start takes as it is. Throws
+// NumericalError if no point is found.
+StartPoint start_transient(NewtonSolver& newton, TransientStart start, double duration,
+                           const std::vector<double>* bias_point = nullptr);
 
 }  // namespace stage::analysis

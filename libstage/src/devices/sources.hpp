@@ -39,6 +39,10 @@ class IndependentSource : public mna::Device {
     value_.set_dc(dc);
     return true;
   }
+  bool set_waveform(const std::optional<Waveform>& wave) override {
+    value_.set_wave(wave);
+    return true;
+  }
   void corners(double from, double to, std::vector<double>& out) const override;
 
  protected:

@@ -116,6 +116,9 @@ class Device {
   // a prepared simulation keeps its factorisation's structure. False for a
   // kind that has no such value. The caller has checked the value.
   virtual bool set_value(double /*value*/) { return false; }
+  // Replaces an independent source's waveform (nothing: DC only), likewise
+  // in place. False for a kind that has none.
+  virtual bool set_waveform(const std::optional<Waveform>& /*wave*/) { return false; }
 
   // True if f or q depend nonlinearly on x (Newton must iterate).
   virtual bool nonlinear() const { return false; }

@@ -15,6 +15,7 @@
 #include "analysis/transient.hpp"
 #include "devices/sources.hpp"
 #include "mna/system.hpp"
+#include "simulation/simulation_access.hpp"
 #include "stage/validate.hpp"
 
 namespace stage {
@@ -169,8 +170,24 @@ FrequencyResult Simulation::frequency(const FrequencyOptions& options) {
 
 TransientResult Simulation::transient(const TransientOptions& options) {
   check_request(state_->circuit, options);
-  TransientResult result = analysis::integrate(state_->system, state_->circuit.solver, options);
+  TransientResult result = SimulationAccess::transient(*this, options, {});
   return options.resample_step ? resample(result, *options.resample_step) : result;
+}
+
+const mna::System& SimulationAccess::system(const Simulation& simulation) {
+  return simulation.state_->system;
+}
+
+const std::vector<double>& SimulationAccess::bias_point(Simulation& simulation) {
+  simulation.state_->solve_bias();
+  return simulation.state_->solution;
+}
+
+TransientResult SimulationAccess::transient(Simulation& simulation, const TransientOptions& options,
+                                            const analysis::StepObserver& observer) {
+  const std::vector<double>* start =
+      options.start == TransientStart::bias ? &bias_point(simulation) : nullptr;
+  return analysis::integrate(simulation.state_->newton, options, observer, start);
 }
 
 void Simulation::set_value(const std::string& element, double value) {
@@ -207,6 +224,24 @@ bool Simulation::take_values_from(const Circuit& other) {
     if (value && value != value_of(state_->circuit.find(e.name)->data)) set_value(e.name, *value);
   }
   return true;
+}
+
+void Simulation::set_waveform(const std::string& source, const std::optional<Waveform>& wave) {
+  Element* e = state_->circuit.find(source);
+  mna::Device* device = state_->system.find_device(source);
+  auto* voltage = e == nullptr ? nullptr : std::get_if<VoltageSource>(&e->data);
+  auto* current = e == nullptr ? nullptr : std::get_if<CurrentSource>(&e->data);
+  if (device == nullptr || (voltage == nullptr && current == nullptr)) {
+    throw std::invalid_argument("'" + source + "' is not an independent source");
+  }
+  auto& stored = voltage != nullptr ? voltage->wave : current->wave;
+  const std::optional<Waveform> before = stored;
+  stored = wave;
+  if (auto p = validate(state_->circuit)) {
+    stored = before;
+    throw std::invalid_argument(p->message);
+  }
+  device->set_waveform(wave);
 }
 
 void Simulation::set_temperature(double kelvin) {
