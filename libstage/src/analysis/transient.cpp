@@ -13,6 +13,22 @@
 // oscillating part in one step while staying second order, where backward
 // Euler would drop to first order and rejecting would only shrink the step
 // (the ringing grows no weaker with h as long as h lambda is large).
+//
+// The same ringing hides in the charge derivative alone on a row whose
+// charge is set by the nodes around it (a supply node's junction
+// capacitances: the source's current takes up whatever q' says). There the
+// trapezoidal rule's q'_{n+1} = 2 (q_{n+1} - q_n) / h - q'_n carries any
+// error of q'_n on with factor -1 for ever while q stays smooth, and the
+// error estimate, whose predictor starts from q'_n, sees h times it every
+// step: the step can neither grow nor be rejected and stays where that
+// error is a fixed fraction of the tolerance (a settled power-up held at
+// 0.7 us steps where 0.4 ms would do). A trapezoidal step whose q' change is
+// opposite to the last one for the second step running, not smaller than
+// kRingingDecay of it, and moves the predictor (h times the change) by
+// more than the row's tolerance, is damped the same way; TR-BDF2's q'_{n+1}
+// depends on the charges alone, so one step removes it. Two alternations
+// in a row, not one: a resolved oscillation's q' turns once at each
+// extreme.
 #include "analysis/transient.hpp"
 
 #include <spdlog/spdlog.h>
@@ -81,7 +97,7 @@ class Stepper {
              const std::vector<double>* extra_x = nullptr);
   Outcome attempt_single(Formula formula, double t_new, double h, double& ratio);
   Outcome attempt_tr_bdf2(double t_new, double h, double& ratio);
-  bool rings() const;
+  bool rings(double h) const;
   void accept(double t_new, double h, bool at_breakpoint);
   double row_tolerance(mna::Index i) const;
   double error_ratio(const StepFormula& formula, double h, double h_prev) const;
@@ -194,7 +210,7 @@ Stepper::Outcome Stepper::attempt(double t_new, double h, double& ratio) {
       return attempt_single(Formula::bdf2, t_new, h, ratio);
     case Integration::trapezoidal: {
       const Outcome outcome = attempt_single(Formula::trapezoidal, t_new, h, ratio);
-      if (outcome == Outcome::newton_failed || !rings()) return outcome;
+      if (outcome == Outcome::newton_failed || !rings(h)) return outcome;
       damping_ = true;
       return attempt_tr_bdf2(t_new, h, ratio);
     }
@@ -282,15 +298,27 @@ Stepper::Outcome Stepper::attempt_tr_bdf2(double t_new, double h, double& ratio)
   return ratio <= 1.0 ? Outcome::accepted : Outcome::error_too_large;
 }
 
-// The trapezoidal candidate in the workspace against the last accepted step
-// (see the file comment).
-bool Stepper::rings() const {
+// The trapezoidal candidate of step h in the workspace against the last
+// accepted steps (see the file comment): its charge changes, and its charge
+// derivative's changes once three points since the last corner give two.
+bool Stepper::rings(double h) const {
   const auto& q = newton_.workspace().q;
-  const Point &now = past_[0], &before = past_[1];
+  const Point &now = past_[0], &before = past_[1], &earlier = past_[2];
+  const bool derivative_history = since_breakpoint_ >= 3;
+  const auto alternates = [](double change, double last_change) {
+    return change * last_change < 0 && std::abs(change) >= kRingingDecay * std::abs(last_change);
+  };
   for (mna::Index i = 1; i <= system_.size(); ++i) {
+    const double tolerance = row_tolerance(i);
     const double change = q[i] - now.q[i], last_change = now.q[i] - before.q[i];
-    if (change * last_change < 0 && std::abs(change) >= kRingingDecay * std::abs(last_change) &&
-        std::abs(change) > row_tolerance(i)) {
+    if (alternates(change, last_change) && std::abs(change) > tolerance) return true;
+    if (!derivative_history) continue;
+    const double qdot = formula_.a * q[i] + history_[i];
+    const double slope_change = qdot - now.qdot[i],
+                 last_slope_change = now.qdot[i] - before.qdot[i];
+    if (alternates(slope_change, last_slope_change) &&
+        alternates(last_slope_change, before.qdot[i] - earlier.qdot[i]) &&
+        h * std::abs(slope_change) > tolerance) {
       return true;
     }
   }
