@@ -15,7 +15,11 @@ namespace stage::analysis {
 // more than the recorded signals (the device states at a waveform's peak).
 using StepObserver = std::function<void(double time, const std::vector<double>& x)>;
 
+// `landings`: times a step lands on exactly, as on a waveform's corner but
+// without restarting the formula there (the start of a window an observer
+// integrates over, so that no step straddles it).
 TransientResult integrate(const mna::System& system, const SolverOptions& solver,
-                          const TransientOptions& options, const StepObserver& observer = {});
+                          const TransientOptions& options, const StepObserver& observer = {},
+                          const std::vector<double>& landings = {});
 
 }  // namespace stage::analysis
