@@ -37,9 +37,9 @@ struct TransientResult {
   Integration integration = Integration::tr_bdf2;
   int accepted_steps = 0;
   int rejected_steps = 0;  // redone smaller: error too large or Newton failed
-  // Trapezoidal steps found ringing (successive charge changes alternating
-  // in sign without decaying, above the error tolerance) and redone as
-  // TR-BDF2 steps of the same length.
+  // Trapezoidal steps found ringing (successive changes of a charge, or
+  // of its rate of change, alternating in sign without decaying, above the
+  // error tolerance) and redone as TR-BDF2 steps of the same length.
   int damped_steps = 0;
   int newton_iterations = 0;
   int factorizations = 0;  // numeric LU factorisations, the operating point included

@@ -39,7 +39,6 @@ EnergyLedger::EnergyLedger(const Circuit& circuit, const mna::System& system)
 void EnergyLedger::start(double from) {
   from_ = from;
   has_last_ = false;
-  last_evaluated_ = false;
   std::fill(energy_.begin(), energy_.end(), 0.0);
 }
 
@@ -70,30 +69,23 @@ void EnergyLedger::evaluate(double time, const double* x, std::vector<double>& p
 }
 
 void EnergyLedger::step(double time, const std::vector<double>& x) {
-  if (time >= from_) {
-    evaluate(time, x.data(), power_, charge_);
-    if (has_last_ && time > last_time_) {
-      if (!last_evaluated_) evaluate(last_time_, last_x_.data(), last_power_, last_charge_);
-      // The part of the step inside the window, power interpolated linearly
-      // to its start as the recorded signals are.
-      const double begin = std::max(last_time_, from_), span = time - last_time_;
-      const double inside = (time - begin) / span;
-      for (std::size_t d = 0; d + 1 < offsets_.size(); ++d) {
-        const double p_begin = last_power_[d] + (power_[d] - last_power_[d]) * (1 - inside);
-        double moved = 0;  // ∫ v dq over the step, trapezoidal in v
-        for (std::size_t k = offsets_[d]; k < offsets_[d + 1]; ++k) {
-          const mna::Index row = terminals_[k];
-          moved += 0.5 * (last_x_[row] + x[row]) * (charge_[k] - last_charge_[k]);
-        }
-        energy_[d] += 0.5 * (p_begin + power_[d]) * (time - begin) + inside * moved;
-      }
-    }
-    std::swap(power_, last_power_);
-    std::swap(charge_, last_charge_);
-    last_evaluated_ = true;
-  } else {
-    last_evaluated_ = false;
+  if (time < from_) return;
+  if (!has_last_ && time > from_) {
+    throw std::logic_error("the energy ledger's window does not start on a transient step");
   }
+  evaluate(time, x.data(), power_, charge_);
+  if (has_last_) {
+    for (std::size_t d = 0; d + 1 < offsets_.size(); ++d) {
+      double moved = 0;  // ∫ v dq over the step, trapezoidal in v
+      for (std::size_t k = offsets_[d]; k < offsets_[d + 1]; ++k) {
+        const mna::Index row = terminals_[k];
+        moved += 0.5 * (last_x_[row] + x[row]) * (charge_[k] - last_charge_[k]);
+      }
+      energy_[d] += 0.5 * (last_power_[d] + power_[d]) * (time - last_time_) + moved;
+    }
+  }
+  std::swap(power_, last_power_);
+  std::swap(charge_, last_charge_);
   std::copy(x.begin(), x.end(), last_x_.begin());
   last_time_ = time;
   has_last_ = true;

@@ -19,10 +19,12 @@ class EnergyLedger {
   // `system` must outlive the ledger and be built from `circuit`.
   EnergyLedger(const Circuit& circuit, const mna::System& system);
 
-  // Forget what was taken; integrate from `from` (seconds) on.
+  // Forget what was taken; integrate from `from` (seconds) on. The
+  // transient must land a step on `from` (integrate()'s landings), so that
+  // the window is a whole number of steps and nothing is interpolated.
   void start(double from);
-  // Every accepted transient step, in time order (steps before `from` too,
-  // so that the window's first interval can be interpolated).
+  // Every accepted transient step, in time order; steps before `from` are
+  // ignored. Throws std::logic_error when a step straddles `from`.
   void step(double time, const std::vector<double>& x);
 
   // Mean power each device took over [from, last step], in the order of
@@ -41,9 +43,8 @@ class EnergyLedger {
   mna::Workspace scratch_;
   double from_ = 0;
   double last_time_ = 0;
-  bool has_last_ = false;
-  bool last_evaluated_ = false;
-  std::vector<double> last_x_, last_power_, last_charge_, last_terminal_v_;
+  bool has_last_ = false;  // a step at or after `from` has been taken
+  std::vector<double> last_x_, last_power_, last_charge_;
   std::vector<double> power_, charge_;
   std::vector<double> energy_;  // per device, J since `from`
 };

@@ -63,7 +63,9 @@ TransientResult SineDrive::run(double amplitude, int periods, DriveMeasurement& 
   options.signals = {output_};
   options.signals.insert(options.signals.end(), record_.begin(), record_.end());
 
-  const double window = options.stop - period * (1 + 1e-9);
+  // The last period, which a step lands on: the ledger integrates it whole
+  // steps at a time, and the peaks start on a sample.
+  const double window = options.stop - period;
   m.maximum = {0, -std::numeric_limits<double>::infinity(), {}};
   m.minimum = {0, std::numeric_limits<double>::infinity(), {}};
   std::optional<EnergyLedger> ledger;
@@ -76,7 +78,7 @@ TransientResult SineDrive::run(double amplitude, int periods, DriveMeasurement& 
     if (v < m.minimum.value) m.minimum = {t, v, x};
   };
   ++runs_;
-  TransientResult result = SimulationAccess::transient(simulation_, options, observer);
+  TransientResult result = SimulationAccess::transient(simulation_, options, observer, {window});
   // The peaks between the samples: the interpolant's extremes over the
   // steps from the first sample of the last period on (the output is the
   // first signal). The state stays the extreme sample's, for telling what

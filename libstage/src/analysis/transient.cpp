@@ -13,6 +13,22 @@
 // oscillating part in one step while staying second order, where backward
 // Euler would drop to first order and rejecting would only shrink the step
 // (the ringing grows no weaker with h as long as h lambda is large).
+//
+// The same ringing hides in the charge derivative alone on a row whose
+// charge is set by the nodes around it (a supply node's junction
+// capacitances: the source's current takes up whatever q' says). There the
+// trapezoidal rule's q'_{n+1} = 2 (q_{n+1} - q_n) / h - q'_n carries any
+// error of q'_n on with factor -1 for ever while q stays smooth, and the
+// error estimate, whose predictor starts from q'_n, sees h times it every
+// step: the step can neither grow nor be rejected and stays where that
+// error is a fixed fraction of the tolerance (a settled power-up held at
+// 0.7 us steps where 0.4 ms would do). A trapezoidal step whose q' change is
+// opposite to the last one for the second step running, not smaller than
+// kRingingDecay of it, and moves the predictor (h times the change) by
+// more than the row's tolerance, is damped the same way; TR-BDF2's q'_{n+1}
+// depends on the charges alone, so one step removes it. Two alternations
+// in a row, not one: a resolved oscillation's q' turns once at each
+// extreme.
 #include "analysis/transient.hpp"
 
 #include <spdlog/spdlog.h>
@@ -61,9 +77,11 @@ struct Point {
 class Stepper {
  public:
   Stepper(NewtonSolver& newton, const TransientOptions& options, TransientResult& result,
-          const StepObserver& observer, const std::vector<double>* bias_point)
+          const StepObserver& observer, const std::vector<double>* bias_point,
+          const std::vector<double>& landings)
       : system_(newton.system()),
         observer_(observer),
+        landings_(landings),
         solver_(newton.options()),
         options_(options),
         result_(result),
@@ -83,14 +101,23 @@ class Stepper {
              const std::vector<double>* extra_x = nullptr);
   Outcome attempt_single(Formula formula, double t_new, double h, double& ratio);
   Outcome attempt_tr_bdf2(double t_new, double h, double& ratio);
-  bool rings() const;
-  void accept(double t_new, double h, bool at_breakpoint);
+  bool rings(double h) const;
+  void accept(double t_new, double h, bool at_corner);
   double row_tolerance(mna::Index i) const;
   double error_ratio(const StepFormula& formula, double h, double h_prev) const;
   [[noreturn]] void fail(double t, double h) const;
 
+  // A time a step lands on exactly: a waveform's corner, where the formula
+  // restarts, or a time a caller asked for, where it carries on.
+  struct Landing {
+    double t = 0;
+    bool corner = false;
+  };
+  std::vector<Landing> landing_points(double stop, double min_step) const;
+
   const mna::System& system_;
   const StepObserver& observer_;
+  const std::vector<double>& landings_;
   SolverOptions solver_;
   TransientOptions options_;
   TransientResult& result_;
@@ -110,21 +137,36 @@ class Stepper {
   std::vector<double> x_stage_, q_stage_, qdot_stage_;
 };
 
+// The corners of every device's waveform and the requested landings in
+// (0, stop), in time order, then stop. Points closer than the minimum step
+// are one point, a corner if either is.
+std::vector<Stepper::Landing> Stepper::landing_points(double stop, double min_step) const {
+  std::vector<double> corners;
+  for (const auto& d : system_.devices()) d->corners(0.0, stop, corners);
+  std::vector<Landing> points;
+  for (double t : corners) points.push_back({t, true});
+  for (double t : landings_) points.push_back({t, false});
+  std::sort(points.begin(), points.end(), [](const Landing& a, const Landing& b) {
+    return a.t < b.t || (a.t == b.t && a.corner > b.corner);
+  });
+  std::vector<Landing> merged;
+  for (const Landing& p : points) {
+    if (!(p.t > 0) || stop - p.t < min_step) continue;
+    if (!merged.empty() && p.t - merged.back().t < min_step) {
+      merged.back().corner = merged.back().corner || p.corner;
+    } else {
+      merged.push_back(p);
+    }
+  }
+  merged.push_back({stop, true});
+  return merged;
+}
+
 void Stepper::run() {
   const double stop = options_.stop;
   const double max_step = options_.max_step > 0 ? options_.max_step : stop / kDefaultStepsPerRun;
-  std::vector<double> breakpoints;
-  for (const auto& d : system_.devices()) d->corners(0.0, stop, breakpoints);
-  std::sort(breakpoints.begin(), breakpoints.end());
   const double min_step = kMinStepFraction * stop;
-  // Corners closer than the minimum step are one corner.
-  breakpoints.erase(std::unique(breakpoints.begin(), breakpoints.end(),
-                                [&](double a, double b) { return b - a < min_step; }),
-                    breakpoints.end());
-  breakpoints.erase(std::upper_bound(breakpoints.begin(), breakpoints.end(), stop),
-                    breakpoints.end());
-  if (!breakpoints.empty() && stop - breakpoints.back() < min_step) breakpoints.pop_back();
-  breakpoints.push_back(stop);
+  const std::vector<Landing> breakpoints = landing_points(stop, min_step);
 
   StartPoint start = start_transient(newton_, options_.start, stop, bias_point_);
   result_.newton_iterations += start.newton_iterations;
@@ -139,10 +181,10 @@ void Stepper::run() {
   if (observer_ && options_.from <= 0.0) observer_(0.0, start.x);
 
   std::size_t next = 0;  // next breakpoint
-  double h = std::min(max_step, breakpoints.front()) * kFirstStepFraction;
+  double h = std::min(max_step, breakpoints.front().t) * kFirstStepFraction;
   while (next < breakpoints.size()) {
     const double t = past_[0].t;
-    const double gap = breakpoints[next] - t;
+    const double gap = breakpoints[next].t - t;
     h = std::min(h, max_step);
     // Land on the corner exactly; split the approach rather than leave a sliver.
     double step = h;
@@ -153,7 +195,7 @@ void Stepper::run() {
     } else if (gap < 2.0 * h) {
       step = 0.5 * gap;
     }
-    const double t_new = lands ? breakpoints[next] : t + step;
+    const double t_new = lands ? breakpoints[next].t : t + step;
     // A step equal to h up to rounding keeps h in the formula, and so the
     // Jacobian and its factorisation.
     if (std::abs(step - h) > kSameStep * h) h = step;
@@ -173,16 +215,15 @@ void Stepper::run() {
       if (h < min_step) fail(t_new, h);
       continue;
     }
-    accept(t_new, h, lands);
+    const bool at_corner = lands && breakpoints[next].corner;
+    accept(t_new, h, at_corner);
     const double grow =
         ratio > 0 ? std::min(kMaxGrowth, kSafety * std::pow(ratio, -1.0 / (formula_.order + 1)))
                   : kMaxGrowth;
     if (grow >= kGrowThreshold) h *= grow;
-    if (lands) {
-      ++next;
-      if (next < breakpoints.size()) {
-        h = std::min(h, kFirstStepFraction * 10.0 * (breakpoints[next] - t_new));
-      }
+    if (lands) ++next;
+    if (at_corner && next < breakpoints.size()) {
+      h = std::min(h, kFirstStepFraction * 10.0 * (breakpoints[next].t - t_new));
     }
   }
   result_.factorizations = newton_.factorizations() - factorizations_before_;
@@ -198,7 +239,7 @@ Stepper::Outcome Stepper::attempt(double t_new, double h, double& ratio) {
       return attempt_single(Formula::bdf2, t_new, h, ratio);
     case Integration::trapezoidal: {
       const Outcome outcome = attempt_single(Formula::trapezoidal, t_new, h, ratio);
-      if (outcome == Outcome::newton_failed || !rings()) return outcome;
+      if (outcome == Outcome::newton_failed || !rings(h)) return outcome;
       damping_ = true;
       return attempt_tr_bdf2(t_new, h, ratio);
     }
@@ -286,15 +327,27 @@ Stepper::Outcome Stepper::attempt_tr_bdf2(double t_new, double h, double& ratio)
   return ratio <= 1.0 ? Outcome::accepted : Outcome::error_too_large;
 }
 
-// The trapezoidal candidate in the workspace against the last accepted step
-// (see the file comment).
-bool Stepper::rings() const {
+// The trapezoidal candidate of step h in the workspace against the last
+// accepted steps (see the file comment): its charge changes, and its charge
+// derivative's changes once three points since the last corner give two.
+bool Stepper::rings(double h) const {
   const auto& q = newton_.workspace().q;
-  const Point &now = past_[0], &before = past_[1];
+  const Point &now = past_[0], &before = past_[1], &earlier = past_[2];
+  const bool derivative_history = since_breakpoint_ >= 3;
+  const auto alternates = [](double change, double last_change) {
+    return change * last_change < 0 && std::abs(change) >= kRingingDecay * std::abs(last_change);
+  };
   for (mna::Index i = 1; i <= system_.size(); ++i) {
+    const double tolerance = row_tolerance(i);
     const double change = q[i] - now.q[i], last_change = now.q[i] - before.q[i];
-    if (change * last_change < 0 && std::abs(change) >= kRingingDecay * std::abs(last_change) &&
-        std::abs(change) > row_tolerance(i)) {
+    if (alternates(change, last_change) && std::abs(change) > tolerance) return true;
+    if (!derivative_history) continue;
+    const double qdot = formula_.a * q[i] + history_[i];
+    const double slope_change = qdot - now.qdot[i],
+                 last_slope_change = now.qdot[i] - before.qdot[i];
+    if (alternates(slope_change, last_slope_change) &&
+        alternates(last_slope_change, before.qdot[i] - earlier.qdot[i]) &&
+        h * std::abs(slope_change) > tolerance) {
       return true;
     }
   }
@@ -329,7 +382,7 @@ double Stepper::error_ratio(const StepFormula& formula, double h, double h_prev)
   return worst;
 }
 
-void Stepper::accept(double t_new, double h, bool at_breakpoint) {
+void Stepper::accept(double t_new, double h, bool at_corner) {
   std::rotate(past_.begin(), past_.end() - 1, past_.end());
   Point& p = past_[0];
   const auto& q = newton_.workspace().q;
@@ -348,7 +401,7 @@ void Stepper::accept(double t_new, double h, bool at_breakpoint) {
     check_model_ranges(
         system_, at, fmt::format("the transient leaves the device models at t = {:.9g} s", t_new));
   }
-  since_breakpoint_ = at_breakpoint ? 1 : std::min(since_breakpoint_ + 1, 3);
+  since_breakpoint_ = at_corner ? 1 : std::min(since_breakpoint_ + 1, 3);
   ++result_.accepted_steps;
   if (damping_) ++result_.damped_steps;
   recorder_.advance(t_new, x_, shape_, t_stage_, &x_stage_);
@@ -366,19 +419,21 @@ void Stepper::fail(double t, double h) const {
 }  // namespace
 
 TransientResult integrate(const mna::System& system, const SolverOptions& solver,
-                          const TransientOptions& options, const StepObserver& observer) {
+                          const TransientOptions& options, const StepObserver& observer,
+                          const std::vector<double>& landings) {
   NewtonSolver newton(system, solver);
-  return integrate(newton, options, observer);
+  return integrate(newton, options, observer, nullptr, landings);
 }
 
 TransientResult integrate(NewtonSolver& newton, const TransientOptions& options,
-                          const StepObserver& observer, const std::vector<double>* bias_point) {
+                          const StepObserver& observer, const std::vector<double>* bias_point,
+                          const std::vector<double>& landings) {
   if (!(options.stop > 0) || options.from >= options.stop || options.from < 0) {
     throw std::invalid_argument("a transient needs 0 <= from < stop");
   }
   TransientResult result;
   result.integration = newton.options().integration;
-  Stepper stepper(newton, options, result, observer, bias_point);
+  Stepper stepper(newton, options, result, observer, bias_point, landings);
   stepper.run();
   spdlog::debug("transient: {} steps accepted, {} rejected, {} Newton iterations",
                 result.accepted_steps, result.rejected_steps, result.newton_iterations);

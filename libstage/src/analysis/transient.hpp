@@ -17,14 +17,19 @@ namespace stage::analysis {
 using StepObserver = std::function<void(double time, const std::vector<double>& x)>;
 
 // A run on a Newton solver of its own (tests and benchmarks).
+// `landings`: times a step lands on exactly, as on a waveform's corner but
+// without restarting the formula there (the start of a window an observer
+// integrates over, so that no step straddles it).
 TransientResult integrate(const mna::System& system, const SolverOptions& solver,
-                          const TransientOptions& options, const StepObserver& observer = {});
+                          const TransientOptions& options, const StepObserver& observer = {},
+                          const std::vector<double>& landings = {});
 
 // A run on a prepared simulation's solver, whose factorisation's symbolic
 // analysis it keeps. `bias_point` (n + 1 entries), when given, is the
 // system's operating point: a bias start takes it instead of solving again.
 TransientResult integrate(NewtonSolver& newton, const TransientOptions& options,
                           const StepObserver& observer = {},
-                          const std::vector<double>* bias_point = nullptr);
+                          const std::vector<double>* bias_point = nullptr,
+                          const std::vector<double>& landings = {});
 
 }  // namespace stage::analysis

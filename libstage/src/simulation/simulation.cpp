@@ -184,10 +184,11 @@ const std::vector<double>& SimulationAccess::bias_point(Simulation& simulation) 
 }
 
 TransientResult SimulationAccess::transient(Simulation& simulation, const TransientOptions& options,
-                                            const analysis::StepObserver& observer) {
+                                            const analysis::StepObserver& observer,
+                                            const std::vector<double>& landings) {
   const std::vector<double>* start =
       options.start == TransientStart::bias ? &bias_point(simulation) : nullptr;
-  return analysis::integrate(simulation.state_->newton, options, observer, start);
+  return analysis::integrate(simulation.state_->newton, options, observer, start, landings);
 }
 
 void Simulation::set_value(const std::string& element, double value) {
