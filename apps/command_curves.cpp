@@ -99,7 +99,10 @@ void write_comparison_csv(const std::filesystem::path& path, const stage::CurveC
     }
     out << "\n";
   }
-  if (!out) throw stage::InputError({path.string(), 0, 0}, "cannot write the CSV file");
+  if (!out) {
+    throw stage::Error(stage::ErrorKind::not_written,
+                       "cannot write the CSV file '" + path.string() + "'", {path.string()});
+  }
 }
 
 struct Inputs {
@@ -162,7 +165,10 @@ int fit(const CurvesSettings& s) {
     out << "# Fitted by `stage curves fit` to:";
     for (const auto& file : s.curve_files) out << " " << file;
     out << "\n" << statement;
-    if (!out) throw stage::InputError({s.output, 0, 0}, "cannot write the model file");
+    if (!out) {
+      throw stage::Error(stage::ErrorKind::not_written,
+                         "cannot write the model file '" + s.output + "'", {s.output});
+    }
   }
   return result.converged ? 0 : 1;
 }

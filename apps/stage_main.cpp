@@ -1,13 +1,14 @@
 // The `stage` command: reads a `.stage` circuit description, runs its
 // analyses and prints readable tables (default), JSON or CSV.
 //
-// Exit status: 0 success, 2 bad input (nothing ran), 3 numerical failure,
-// 1 anything else (a bug: please report it).
+// Exit status: 0 success, otherwise chosen from the error's kind in
+// exit_status.hpp (2 bad input or request, 3 numerical failure, 1 a bug).
 #include <spdlog/sinks/stdout_color_sinks.h>
 #include <spdlog/spdlog.h>
 #include <unistd.h>
 
 #include <CLI/CLI.hpp>
+#include <algorithm>
 #include <cstdlib>
 #include <iostream>
 
@@ -112,14 +113,18 @@ int run(const Settings& s) {
     }
   }
   // The results that were found are printed above; each failure is also
-  // told on stderr, and the status says the run did not complete.
+  // told on stderr, and the status (the most severe) says the run did not
+  // complete.
+  int status = 0;
   for (const auto& analysis : result.analyses) {
     if (const auto* failure = std::get_if<stage::AnalysisFailure>(&analysis)) {
-      std::cerr << "error: " << s.file << ':' << failure->where.line << ": analyze "
-                << failure->kind << ": " << failure->message << '\n';
+      std::cerr << "error (" << to_string(failure->error_kind) << "): " << s.file << ':'
+                << failure->where.line << ": analyze " << failure->kind << ": " << failure->message
+                << '\n';
+      status = std::max(status, exit_status(failure->error_kind));
     }
   }
-  return result.failed() ? stage::kExitNumericalError : 0;
+  return status;
 }
 
 }  // namespace
@@ -156,7 +161,7 @@ int main(int argc, char** argv) {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
     const int code = app.exit(e);
-    return code == 0 ? 0 : stage::kExitInputError;
+    return code == 0 ? 0 : exit_status(stage::ErrorKind::input);
   }
   if (s.verbose) spdlog::set_level(spdlog::level::debug);
   if (curves_cmd->parsed()) return curves_status;

@@ -65,8 +65,8 @@ TEST(Validate, ModelParametersOutsideTheirRangeAreNamed) {
 TEST(Validate, ACircuitBuiltInCodeIsCheckedBeforeAnythingRuns) {
   Circuit c = stage::testing::follower_into_low_load();
   c.find("re")->data = stage::Resistor{"emitter", "gnd", kNaN};
-  EXPECT_THROW(stage::Simulation{c}, std::invalid_argument);
-  EXPECT_THROW(stage::run_bias(c), std::invalid_argument);
+  EXPECT_THROW(stage::Simulation{c}, stage::Error);
+  EXPECT_THROW(stage::run_bias(c), stage::Error);
 }
 
 TEST(Validate, AnalysisOptionsAreCheckedForEveryRun) {
@@ -76,14 +76,14 @@ TEST(Validate, AnalysisOptionsAreCheckedForEveryRun) {
   h.output = stage::SignalRef::node("out");
   h.distortion_limit = 1.5;
   EXPECT_EQ(stage::validate(c, h)->subject, "distortion_limit");
-  EXPECT_THROW(stage::run_headroom(c, h), std::invalid_argument);
+  EXPECT_THROW(stage::run_headroom(c, h), stage::Error);
   h.distortion_limit = 0.01;
   h.frequency = kNaN;
   EXPECT_EQ(stage::validate(c, h)->subject, "frequency");
   stage::TransientOptions t;
   t.stop = kInf;
   EXPECT_EQ(stage::validate(c, t)->subject, "stop");
-  EXPECT_THROW(stage::Simulation(c).transient(t), std::invalid_argument);
+  EXPECT_THROW(stage::Simulation(c).transient(t), stage::Error);
   stage::SpectrumOptions s;
   s.harmonics = 100000;  // bounded: every harmonic costs a pass over the waveform
   EXPECT_EQ(stage::validate(c, s)->subject, "harmonics");

@@ -13,7 +13,8 @@ namespace stage {
 
 std::string json_document(const RunResult& run, int indent = 2);
 void print_report(std::ostream& out, const RunResult& run);
-// Writes <dir>/<n>_<kind>.csv for the n-th analysis (from 1); returns the paths.
+// Writes <dir>/<n>_<kind>.csv for the n-th analysis (from 1), creating <dir>;
+// returns the paths. Throws a not_written Error naming the folder or file.
 std::vector<std::filesystem::path> write_csv_files(const std::filesystem::path& dir,
                                                    const RunResult& run);
 

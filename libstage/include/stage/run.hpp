@@ -9,6 +9,7 @@
 
 #include "stage/bias.hpp"
 #include "stage/characterize.hpp"
+#include "stage/errors.hpp"
 #include "stage/frequency.hpp"
 #include "stage/headroom.hpp"
 #include "stage/reader.hpp"
@@ -18,9 +19,11 @@
 namespace stage {
 
 // An analysis that could not finish: the NumericalError it ended with, kept
-// in the run beside the results of the analyses that did finish.
+// in the run beside the results of the analyses that did finish. A spectrum
+// not run because its transient failed takes that failure's error kind.
 struct AnalysisFailure {
   std::string kind;  // the statement's analysis kind: "bias", "transient", ...
+  ErrorKind error_kind;
   SourceLocation where;
   std::string message;
   std::vector<std::string> involved;  // nodes or elements at fault

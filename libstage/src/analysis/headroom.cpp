@@ -68,6 +68,7 @@ class Search {
     }
     if (static_cast<int>(runs_.size()) >= kMaxRuns) {
       throw NumericalError(
+          ErrorKind::search_exhausted,
           "the headroom search did not converge in " + std::to_string(kMaxRuns) + " transient runs",
           {});
     }
@@ -365,7 +366,8 @@ std::optional<double> rail_drive_bound(const Circuit& circuit,
 
 HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& options,
                             const ProgressCallback& progress) {
-  if (auto p = validate(circuit, options)) throw std::invalid_argument(p->message);
+  if (auto p = validate(circuit, options))
+    throw Error(ErrorKind::invalid_request, p->message, {p->subject});
   HeadroomResult result;
   result.options = options;
   result.output = options.output.label();

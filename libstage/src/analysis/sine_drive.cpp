@@ -6,12 +6,12 @@
 #include <algorithm>
 #include <limits>
 #include <optional>
-#include <stdexcept>
 
 #include "analysis/energy_ledger.hpp"
 #include "analysis/step_interpolant.hpp"
 #include "analysis/transient.hpp"
 #include "mna/system.hpp"
+#include "stage/errors.hpp"
 
 namespace stage::analysis {
 namespace {
@@ -38,13 +38,15 @@ SineDrive::SineDrive(Circuit circuit, std::string input, SignalRef output, doubl
       energy_ledger_(energy_ledger),
       periods_(kFirstPeriods) {
   if (output_.kind == SignalRef::Kind::element_current) {
-    throw std::invalid_argument("a large-signal output must be a node or a node pair, not " +
-                                output_.label());
+    throw Error(ErrorKind::invalid_request,
+                "a large-signal output must be a node or a node pair, not " + output_.label(),
+                {output_.a});
   }
   const Element* element = circuit_.find(input_);
   if (element == nullptr || !(std::holds_alternative<VoltageSource>(element->data) ||
                               std::holds_alternative<CurrentSource>(element->data))) {
-    throw std::invalid_argument("'" + input_ + "' is not an independent voltage or current source");
+    throw Error(ErrorKind::invalid_request,
+                "'" + input_ + "' is not an independent voltage or current source", {input_});
   }
 }
 
@@ -62,7 +64,7 @@ TransientResult SineDrive::run(double amplitude, int periods, DriveMeasurement& 
   const auto& topology = system.topology();
   const auto node = [&](const std::string& name) {
     const auto index = name.empty() ? std::optional<mna::Index>(0) : topology.find_node(name);
-    if (!index) throw std::invalid_argument("no node named '" + name + "'");
+    if (!index) throw Error(ErrorKind::invalid_request, "no node named '" + name + "'", {name});
     return *index;
   };
   const mna::Index p = node(output_.a);

@@ -7,7 +7,6 @@
 
 #include <cmath>
 #include <optional>
-#include <stdexcept>
 
 #include "analysis/frequency_response.hpp"
 #include "analysis/newton.hpp"
@@ -15,6 +14,7 @@
 #include "analysis/transient.hpp"
 #include "devices/sources.hpp"
 #include "mna/system.hpp"
+#include "stage/errors.hpp"
 #include "stage/validate.hpp"
 
 namespace stage {
@@ -66,13 +66,14 @@ void store_value(ElementData& data, double value) {
 
 // The circuit itself, checked before anything is built from it.
 const Circuit& validated(const Circuit& circuit) {
-  if (auto p = validate(circuit)) throw std::invalid_argument(p->message);
+  if (auto p = validate(circuit)) throw Error(ErrorKind::invalid_request, p->message, {p->subject});
   return circuit;
 }
 
 // A request, checked against the circuit before it runs.
 void check_request(const Circuit& circuit, const AnalysisOptions& options) {
-  if (auto p = validate(circuit, options)) throw std::invalid_argument(p->message);
+  if (auto p = validate(circuit, options))
+    throw Error(ErrorKind::invalid_request, p->message, {p->subject});
 }
 
 struct Simulation::State {
@@ -123,7 +124,8 @@ BiasResult Simulation::bias() { return state_->solve_bias(); }
 
 SweepResult Simulation::sweep(const SweepOptions& options, const ProgressCallback& progress) {
   if (options.target == SweepOptions::Target::parameter) {
-    throw std::invalid_argument("a parameter sweep needs the circuit's text: use run_deck");
+    throw Error(ErrorKind::invalid_request,
+                "a parameter sweep needs the circuit's text: use run_deck", {options.name});
   }
   check_request(state_->circuit, options);
   const bool temperature = options.target == SweepOptions::Target::temperature;
@@ -132,7 +134,8 @@ SweepResult Simulation::sweep(const SweepOptions& options, const ProgressCallbac
     const auto* v = e == nullptr ? nullptr : std::get_if<VoltageSource>(&e->data);
     const auto* i = e == nullptr ? nullptr : std::get_if<CurrentSource>(&e->data);
     if (v == nullptr && i == nullptr) {
-      throw std::invalid_argument("'" + options.name + "' is not an independent source");
+      throw Error(ErrorKind::invalid_request, "'" + options.name + "' is not an independent source",
+                  {options.name});
     }
     return v != nullptr ? v->dc : i->dc;
   }();
@@ -177,13 +180,14 @@ void Simulation::set_value(const std::string& element, double value) {
   Element* e = state_->circuit.find(element);
   mna::Device* device = state_->system.find_device(element);
   if (e == nullptr || device == nullptr) {
-    throw std::invalid_argument("no element named '" + element + "'");
+    throw Error(ErrorKind::invalid_request, "no element named '" + element + "'", {element});
   }
   if (auto why = value_error(e->data, value)) {
-    throw std::invalid_argument("'" + element + "': " + *why);
+    throw Error(ErrorKind::invalid_request, "'" + element + "': " + *why, {element});
   }
   if (!device->set_value(value)) {
-    throw std::invalid_argument("'" + element + "' has no single value to set");
+    throw Error(ErrorKind::invalid_request, "'" + element + "' has no single value to set",
+                {element});
   }
   store_value(e->data, value);
   state_->bias.reset();
@@ -211,7 +215,8 @@ bool Simulation::take_values_from(const Circuit& other) {
 
 void Simulation::set_temperature(double kelvin) {
   if (!(std::isfinite(kelvin) && kelvin > 0)) {
-    throw std::invalid_argument("a temperature must be a finite number of kelvin above zero");
+    throw Error(ErrorKind::invalid_request,
+                "a temperature must be a finite number of kelvin above zero", {"temperature"});
   }
   state_->system.set_temperature(kelvin);
   state_->circuit.temperature = kelvin;
