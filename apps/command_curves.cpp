@@ -16,6 +16,7 @@
 #include "stage/curves.hpp"
 #include "stage/errors.hpp"
 #include "stage/reader.hpp"
+#include "stage/report.hpp"
 
 namespace {
 
@@ -128,7 +129,7 @@ int check(const CurvesSettings& s) {
         in.library.circuit, model_name_for(curve, s, in.library.circuit), s.model_file);
     results.push_back(stage::check_curve(curve, model));
     if (!s.csv_dir.empty()) {
-      std::filesystem::create_directories(s.csv_dir);
+      stage::create_output_folder(s.csv_dir);
       const auto path = std::filesystem::path(s.csv_dir) / (curve.name + "_model.csv");
       write_comparison_csv(path, results.back(), curve);
       spdlog::info("wrote {}", path.string());

@@ -130,4 +130,16 @@ TEST(ErrorKinds, AFailedAnalysisCarriesItsKindInJson) {
   EXPECT_EQ(failed["line"], 3) << failed;
 }
 
+// `curves check --csv` into a folder that cannot be made is the same
+// not_written error as `run --csv`, not a crash.
+TEST(ErrorKinds, CurvesCsvIntoAnUnmakeableFolderIsNotWritten) {
+  const fs::path plain_file = write_temp("kind_curves_plain_file", "not a folder\n");
+  const std::string models = std::string(STAGE_SOURCE_DIR) + "/models/";
+  const auto o = run("curves check " + models + "transistors.stage " + models +
+                     "curves/small_npn_gummel.csv --csv " + (plain_file / "csv").string());
+  EXPECT_EQ(o.status, documented_status(ErrorKind::not_written)) << o.out;
+  EXPECT_NE(o.out.find("error (not_written): cannot create the folder"), std::string::npos)
+      << o.out;
+}
+
 }  // namespace

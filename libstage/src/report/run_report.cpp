@@ -46,14 +46,18 @@ void print_report(std::ostream& out, const RunResult& run) {
   }
 }
 
-std::vector<std::filesystem::path> write_csv_files(const std::filesystem::path& dir,
-                                                   const RunResult& run) {
+void create_output_folder(const std::filesystem::path& dir) {
   std::error_code ec;
   std::filesystem::create_directories(dir, ec);
   if (ec) {
     throw Error(ErrorKind::not_written,
                 "cannot create the folder '" + dir.string() + "': " + ec.message(), {dir.string()});
   }
+}
+
+std::vector<std::filesystem::path> write_csv_files(const std::filesystem::path& dir,
+                                                   const RunResult& run) {
+  create_output_folder(dir);
   std::vector<std::filesystem::path> written;
   for (std::size_t i = 0; i < run.analyses.size(); ++i) {
     const auto path = dir / (std::to_string(i + 1) + "_" + kind_of(run.analyses[i]) + ".csv");
