@@ -35,9 +35,10 @@ Examples:
   stage curves check models/transistors.stage models/curves/small_npn_*.csv
                                            compare a model with its reference curves
 
-Exit status: 0 done, 2 error in the input (file, line and column are shown, nothing ran),
-3 the circuit could not be solved (the nodes or elements involved are named); every analysis
-that finished is still printed, and a failed one shows its error in its place.
+Exit status: 0 done, 2 error in the input (file, line and column are shown, nothing ran), a
+request that cannot be done as asked or an output that cannot be written, 3 the circuit could
+not be solved (the nodes or elements involved are named), 1 a bug; every analysis that finished
+is still printed, and a failed one shows its error and error kind in its place.
 Models: `include "transistors.stage"` finds files next to the circuit, then in $STAGE_MODEL_PATH
 (colon-separated), then in the installed model library.)";
 
