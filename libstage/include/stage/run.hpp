@@ -48,9 +48,10 @@ struct RunOptions {
 
 // Throws InputError when the deck has no analysis or at the first statement
 // that cannot run as written (bad options for the circuit, a spectrum with no
-// transient before it), and NumericalError when the circuit's graph has no
-// unique DC solution (a floating node, a loop of voltage sources, a cut-set
-// of current sources), so that nothing runs when something would fail.
+// transient before it), and a NumericalError of kind topology when the
+// circuit's graph has no unique DC solution (a floating node, a loop of
+// voltage sources, a cut-set of current sources), so that nothing runs when
+// something would fail.
 void check_deck(const Deck& deck);
 
 // Runs check_deck, then every analysis. An analysis that fails numerically
