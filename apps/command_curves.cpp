@@ -16,6 +16,7 @@
 #include "stage/curves.hpp"
 #include "stage/errors.hpp"
 #include "stage/reader.hpp"
+#include "stage/report.hpp"
 
 namespace {
 
@@ -99,7 +100,10 @@ void write_comparison_csv(const std::filesystem::path& path, const stage::CurveC
     }
     out << "\n";
   }
-  if (!out) throw stage::InputError({path.string(), 0, 0}, "cannot write the CSV file");
+  if (!out) {
+    throw stage::Error(stage::ErrorKind::not_written,
+                       "cannot write the CSV file '" + path.string() + "'", {path.string()});
+  }
 }
 
 struct Inputs {
@@ -125,7 +129,7 @@ int check(const CurvesSettings& s) {
         in.library.circuit, model_name_for(curve, s, in.library.circuit), s.model_file);
     results.push_back(stage::check_curve(curve, model));
     if (!s.csv_dir.empty()) {
-      std::filesystem::create_directories(s.csv_dir);
+      stage::create_output_folder(s.csv_dir);
       const auto path = std::filesystem::path(s.csv_dir) / (curve.name + "_model.csv");
       write_comparison_csv(path, results.back(), curve);
       spdlog::info("wrote {}", path.string());
@@ -162,7 +166,10 @@ int fit(const CurvesSettings& s) {
     out << "# Fitted by `stage curves fit` to:";
     for (const auto& file : s.curve_files) out << " " << file;
     out << "\n" << statement;
-    if (!out) throw stage::InputError({s.output, 0, 0}, "cannot write the model file");
+    if (!out) {
+      throw stage::Error(stage::ErrorKind::not_written,
+                         "cannot write the model file '" + s.output + "'", {s.output});
+    }
   }
   return result.converged ? 0 : 1;
 }

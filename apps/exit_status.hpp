@@ -1,6 +1,8 @@
-// The command's exit statuses, shared by every subcommand: a library
-// exception becomes its message on stderr and the status of spec section 8
-// (2 bad input, nothing ran; 3 numerical failure; 1 anything else, a bug).
+// The command's exit statuses, shared by every subcommand, chosen here from
+// the library's error kinds (spec section 8): 2 for what the user must fix
+// (the input, a request, an output file that could not be written; nothing
+// more ran), 3 for a circuit that could not be solved, 1 for anything else
+// (a bug: please report it).
 #pragma once
 
 #include <iostream>
@@ -8,21 +10,48 @@
 
 #include "stage/errors.hpp"
 
+inline constexpr int kExitBug = 1;
+inline constexpr int kExitUserError = 2;
+inline constexpr int kExitNotSolved = 3;
+
+// No default: a kind left out here is a -Wswitch warning (an error in CI).
+constexpr int exit_status(stage::ErrorKind kind) {
+  switch (kind) {
+    case stage::ErrorKind::input:
+    case stage::ErrorKind::invalid_request:
+    case stage::ErrorKind::not_written:
+      return kExitUserError;
+    case stage::ErrorKind::topology:
+    case stage::ErrorKind::singular:
+    case stage::ErrorKind::no_convergence:
+    case stage::ErrorKind::step_too_small:
+    case stage::ErrorKind::search_exhausted:
+    case stage::ErrorKind::outside_model:
+    case stage::ErrorKind::energy_imbalance:
+      return kExitNotSolved;
+  }
+  return kExitBug;
+}
+
+// An error with a place already reads `file:line:column: message`; the
+// others are told as `error (kind): message`.
+inline void print_error(std::ostream& out, const stage::Error& e) {
+  if (e.location()) {
+    out << e.what() << '\n';
+  } else {
+    out << "error (" << to_string(e.kind()) << "): " << e.what() << '\n';
+  }
+}
+
 template <class Command>
 int run_guarded(Command&& command) {
   try {
     return command();
-  } catch (const stage::InputError& e) {
-    std::cerr << e.what() << '\n';
-    return stage::kExitInputError;
-  } catch (const stage::NumericalError& e) {
-    std::cerr << "error: " << e.what() << '\n';
-    return stage::kExitNumericalError;
-  } catch (const std::invalid_argument& e) {
-    std::cerr << "error: " << e.what() << '\n';
-    return stage::kExitInputError;
+  } catch (const stage::Error& e) {
+    print_error(std::cerr, e);
+    return exit_status(e.kind());
   } catch (const std::exception& e) {
     std::cerr << "internal error: " << e.what() << '\n';
-    return 1;
+    return kExitBug;
   }
 }

@@ -1,13 +1,14 @@
 // The `stage` command: reads a `.stage` circuit description, runs its
 // analyses and prints readable tables (default), JSON or CSV.
 //
-// Exit status: 0 success, 2 bad input (nothing ran), 3 numerical failure,
-// 1 anything else (a bug: please report it).
+// Exit status: 0 success, otherwise chosen from the error's kind in
+// exit_status.hpp (2 bad input or request, 3 numerical failure, 1 a bug).
 #include <spdlog/sinks/stdout_color_sinks.h>
 #include <spdlog/spdlog.h>
 #include <unistd.h>
 
 #include <CLI/CLI.hpp>
+#include <algorithm>
 #include <cstdlib>
 #include <iostream>
 
@@ -34,9 +35,10 @@ Examples:
   stage curves check models/transistors.stage models/curves/small_npn_*.csv
                                            compare a model with its reference curves
 
-Exit status: 0 done, 2 error in the input (file, line and column are shown, nothing ran),
-3 the circuit could not be solved (the nodes or elements involved are named); every analysis
-that finished is still printed, and a failed one shows its error in its place.
+Exit status: 0 done, 2 error in the input (file, line and column are shown, nothing ran), a
+request that cannot be done as asked or an output that cannot be written, 3 the circuit could
+not be solved (the nodes or elements involved are named), 1 a bug; every analysis that finished
+is still printed, and a failed one shows its error and error kind in its place.
 Models: `include "transistors.stage"` finds files next to the circuit, then in $STAGE_MODEL_PATH
 (colon-separated), then in the installed model library.)";
 
@@ -112,14 +114,18 @@ int run(const Settings& s) {
     }
   }
   // The results that were found are printed above; each failure is also
-  // told on stderr, and the status says the run did not complete.
+  // told on stderr, and the status (the most severe) says the run did not
+  // complete.
+  int status = 0;
   for (const auto& analysis : result.analyses) {
     if (const auto* failure = std::get_if<stage::AnalysisFailure>(&analysis)) {
-      std::cerr << "error: " << s.file << ':' << failure->where.line << ": analyze "
-                << failure->kind << ": " << failure->message << '\n';
+      std::cerr << "error (" << to_string(failure->error_kind) << "): " << s.file << ':'
+                << failure->where.line << ": analyze " << failure->kind << ": " << failure->message
+                << '\n';
+      status = std::max(status, exit_status(failure->error_kind));
     }
   }
-  return result.failed() ? stage::kExitNumericalError : 0;
+  return status;
 }
 
 }  // namespace
@@ -156,7 +162,7 @@ int main(int argc, char** argv) {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
     const int code = app.exit(e);
-    return code == 0 ? 0 : stage::kExitInputError;
+    return code == 0 ? 0 : exit_status(stage::ErrorKind::input);
   }
   if (s.verbose) spdlog::set_level(spdlog::level::debug);
   if (curves_cmd->parsed()) return curves_status;

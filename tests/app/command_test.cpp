@@ -3,45 +3,23 @@
 // example circuit (compared with a tolerance, so that an unintended change in
 // any figure shows up).
 #include <gtest/gtest.h>
-#include <sys/wait.h>
 
 #include <algorithm>
-#include <array>
 #include <cmath>
-#include <cstdio>
 #include <filesystem>
 #include <fstream>
 #include <nlohmann/json.hpp>
 #include <sstream>
 
+#include "app/run_command.hpp"
+
 namespace {
 
 namespace fs = std::filesystem;
 
-struct Outcome {
-  int status = -1;
-  std::string out;  // stdout and stderr together, or stdout alone
-};
-
-enum class Stderr { merged, dropped };
-
-Outcome run(const std::string& arguments, Stderr err = Stderr::merged) {
-  const std::string command = std::string(STAGE_BINARY_DIR) + "/apps/stage " + arguments +
-                              (err == Stderr::merged ? " 2>&1" : " 2>/dev/null");
-  Outcome o;
-  FILE* pipe = popen(command.c_str(), "r");
-  std::array<char, 4096> buffer{};
-  while (std::fgets(buffer.data(), buffer.size(), pipe) != nullptr) o.out += buffer.data();
-  const int raw = pclose(pipe);
-  o.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
-  return o;
-}
-
-fs::path write_temp(const std::string& name, const std::string& text) {
-  const fs::path path = fs::temp_directory_path() / ("stage_command_test_" + name);
-  std::ofstream(path) << text;
-  return path;
-}
+using stage::testing::run;
+using stage::testing::Stderr;
+using stage::testing::write_temp;
 
 std::string example(const std::string& name) {
   return std::string(STAGE_SOURCE_DIR) + "/apps/examples/" + name;

@@ -7,6 +7,8 @@
 
 #include <gtest/gtest.h>
 
+#include <filesystem>
+#include <fstream>
 #include <limits>
 #include <string>
 
@@ -65,8 +67,8 @@ TEST(Validate, ModelParametersOutsideTheirRangeAreNamed) {
 TEST(Validate, ACircuitBuiltInCodeIsCheckedBeforeAnythingRuns) {
   Circuit c = stage::testing::follower_into_low_load();
   c.find("re")->data = stage::Resistor{"emitter", "gnd", kNaN};
-  EXPECT_THROW(stage::Simulation{c}, std::invalid_argument);
-  EXPECT_THROW(stage::run_bias(c), std::invalid_argument);
+  EXPECT_THROW(stage::Simulation{c}, stage::Error);
+  EXPECT_THROW(stage::run_bias(c), stage::Error);
 }
 
 TEST(Validate, AnalysisOptionsAreCheckedForEveryRun) {
@@ -76,14 +78,14 @@ TEST(Validate, AnalysisOptionsAreCheckedForEveryRun) {
   h.output = stage::SignalRef::node("out");
   h.distortion_limit = 1.5;
   EXPECT_EQ(stage::validate(c, h)->subject, "distortion_limit");
-  EXPECT_THROW(stage::run_headroom(c, h), std::invalid_argument);
+  EXPECT_THROW(stage::run_headroom(c, h), stage::Error);
   h.distortion_limit = 0.01;
   h.frequency = kNaN;
   EXPECT_EQ(stage::validate(c, h)->subject, "frequency");
   stage::TransientOptions t;
   t.stop = kInf;
   EXPECT_EQ(stage::validate(c, t)->subject, "stop");
-  EXPECT_THROW(stage::Simulation(c).transient(t), std::invalid_argument);
+  EXPECT_THROW(stage::Simulation(c).transient(t), stage::Error);
   stage::SpectrumOptions s;
   s.harmonics = 100000;  // bounded: every harmonic costs a pass over the waveform
   EXPECT_EQ(stage::validate(c, s)->subject, "harmonics");
@@ -113,6 +115,28 @@ TEST(Validate, TextGetsTheSameRulesWithPlaces) {
   } catch (const stage::InputError& e) {
     EXPECT_EQ(e.where().line, 5) << e.what();
     EXPECT_NE(e.message().find("distortion limit"), std::string::npos) << e.what();
+  }
+}
+
+// A problem found after reading still shows its line with a caret, taken
+// from the text the reader kept: the file is gone from disk by then.
+TEST(Validate, CaretLineComesFromTheTextKeptNotTheDisk) {
+  const auto path = std::filesystem::temp_directory_path() / "stage_validate_deleted.stage";
+  std::ofstream(path) << "vin = voltage(in, gnd, 1 V)\n"
+                         "model d = diode { saturation_current = -1 fA }\n"
+                         "d1 = diode(in, gnd, model = d)\nanalyze bias()\n";
+  const stage::Deck deck = stage::read_file(path);
+  std::filesystem::remove(path);
+  try {
+    stage::check_deck(deck);
+    ADD_FAILURE() << "a negative saturation current passed the check";
+  } catch (const stage::InputError& e) {
+    EXPECT_EQ(e.kind(), stage::ErrorKind::input);
+    EXPECT_EQ(e.where().line, 2) << e.what();
+    const std::string shown = e.what();
+    EXPECT_NE(shown.find("\nmodel d = diode { saturation_current = -1 fA }\n"), std::string::npos)
+        << shown;
+    EXPECT_NE(shown.find("\n^"), std::string::npos) << shown;
   }
 }
 

@@ -36,7 +36,7 @@ stage::NumericalError bias_failure(const Circuit& c) {
   } catch (const stage::NumericalError& e) {
     return e;
   }
-  return stage::NumericalError("", {});
+  return stage::NumericalError(stage::ErrorKind::no_convergence, "", {});
 }
 
 stage::DiodeModel plain_diode() {
@@ -55,6 +55,7 @@ TEST(SolutionCheck, CurrentForcedBackwardsThroughDiodeHasNoSolution) {
   c.add("i1", stage::CurrentSource{"gnd", "a", 1e-3});
   c.add("d1", stage::Diode{"gnd", "a", "d"});
   const auto e = bias_failure(c);
+  EXPECT_EQ(e.kind(), stage::ErrorKind::no_convergence) << e.what();
   EXPECT_TRUE(names(e.involved(), "a")) << e.what();
   EXPECT_TRUE(names(e.involved(), "i1")) << e.what();
   EXPECT_TRUE(names(e.involved(), "d1")) << e.what();
@@ -74,6 +75,7 @@ TEST(SolutionCheck, SourceAcrossBaseEmitterIsOutsideTheModel) {
   c.add("vb", stage::VoltageSource{"b", "gnd", 5.0});
   c.add("q1", stage::Bipolar{stage::Polarity::npn, "c", "b", "gnd", {}, "n"});
   const auto e = bias_failure(c);
+  EXPECT_EQ(e.kind(), stage::ErrorKind::outside_model) << e.what();
   EXPECT_TRUE(names(e.involved(), "q1")) << e.what();
   EXPECT_NE(std::string(e.what()).find("base–emitter"), std::string::npos) << e.what();
   // Just inside the range the same circuit is an ordinary bias point: at
@@ -133,6 +135,7 @@ TEST(SolutionCheck, PerturbedSolutionFailsKclAtThatNode) {
     stage::analysis::verify_operating_point(system, c.solver, x);
     ADD_FAILURE() << "a perturbed solution passed the KCL check";
   } catch (const stage::NumericalError& e) {
+    EXPECT_EQ(e.kind(), stage::ErrorKind::no_convergence) << e.what();
     EXPECT_TRUE(names(e.involved(), "a")) << e.what();
   }
 }

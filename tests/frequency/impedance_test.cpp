@@ -5,6 +5,7 @@
 #include <gtest/gtest.h>
 
 #include "frequency/response_checks.hpp"
+#include "stage/errors.hpp"
 #include "stage/frequency.hpp"
 
 namespace {
@@ -129,7 +130,7 @@ TEST(Impedance, LoadMustConnectTheOutputNodes) {
   const auto why = stage::frequency_options_error(network(false), o);
   ASSERT_TRUE(why);
   EXPECT_NE(why->find("must connect the output's nodes"), std::string::npos) << *why;
-  EXPECT_THROW(stage::run_frequency(network(false), o), std::invalid_argument);
+  EXPECT_THROW(stage::run_frequency(network(false), o), stage::Error);
 }
 
 TEST(Impedance, OptionsAreChecked) {

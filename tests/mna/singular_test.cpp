@@ -10,15 +10,17 @@ namespace {
 
 using stage::Circuit;
 
-// Runs bias and returns the error it must throw.
+// Runs bias and returns the error it must throw: every circuit here fails
+// the graph check, before anything is solved.
 stage::NumericalError failure(const Circuit& c) {
   try {
     stage::run_bias(c);
   } catch (const stage::NumericalError& e) {
+    EXPECT_EQ(e.kind(), stage::ErrorKind::topology) << e.what();
     return e;
   }
   ADD_FAILURE() << "expected a NumericalError";
-  return stage::NumericalError("", {});
+  return stage::NumericalError(stage::ErrorKind::topology, "", {});
 }
 
 bool names(const stage::NumericalError& e, const std::string& who) {

@@ -11,6 +11,7 @@
 
 #include "headroom/stages.hpp"
 #include "stage/characterize.hpp"
+#include "stage/errors.hpp"
 #include "stage/headroom.hpp"
 
 namespace {
@@ -126,14 +127,18 @@ TEST(Simulation, SweepLeavesTheSourceAsItWas) {
 
 TEST(Simulation, RefusesValuesAnElementCannotTake) {
   stage::Simulation simulation(stage::testing::follower_into_low_load());
-  EXPECT_THROW(simulation.set_value("nothing", 1.0), std::invalid_argument);
-  EXPECT_THROW(simulation.set_value("re", -1.0), std::invalid_argument);
-  EXPECT_THROW(simulation.set_value("re", std::numeric_limits<double>::quiet_NaN()),
-               std::invalid_argument);
-  EXPECT_THROW(simulation.set_value("vcc", std::numeric_limits<double>::infinity()),
-               std::invalid_argument);
-  EXPECT_THROW(simulation.set_value("q1", 1.0), std::invalid_argument);
-  EXPECT_THROW(simulation.set_temperature(0.0), std::invalid_argument);
+  try {
+    simulation.set_value("nothing", 1.0);
+    ADD_FAILURE() << "an unknown element was set";
+  } catch (const stage::Error& e) {
+    EXPECT_EQ(e.kind(), stage::ErrorKind::invalid_request) << e.what();
+    EXPECT_EQ(e.involved(), std::vector<std::string>{"nothing"});
+  }
+  EXPECT_THROW(simulation.set_value("re", -1.0), stage::Error);
+  EXPECT_THROW(simulation.set_value("re", std::numeric_limits<double>::quiet_NaN()), stage::Error);
+  EXPECT_THROW(simulation.set_value("vcc", std::numeric_limits<double>::infinity()), stage::Error);
+  EXPECT_THROW(simulation.set_value("q1", 1.0), stage::Error);
+  EXPECT_THROW(simulation.set_temperature(0.0), stage::Error);
   // Nothing was changed by the refused calls: the bias point is the one-shot one.
   expect_same_voltages(simulation.bias(), stage::run_bias(stage::testing::follower_into_low_load()),
                        0.0);

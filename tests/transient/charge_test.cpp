@@ -122,6 +122,7 @@ TEST(StepFailure, NamesTheTimeAndTheNode) {
     stage::analysis::integrate(system, c.solver, o);
     FAIL() << "the step cannot converge after 1 ms";
   } catch (const stage::NumericalError& e) {
+    EXPECT_EQ(e.kind(), stage::ErrorKind::step_too_small) << e.what();
     EXPECT_NE(std::string(e.what()).find("t = 0.001 s"), std::string::npos) << e.what();
     ASSERT_FALSE(e.involved().empty());
     EXPECT_EQ(e.involved().front(), "x");

@@ -12,6 +12,7 @@
 
 #include "reference.hpp"
 #include "stage/circuit.hpp"
+#include "stage/errors.hpp"
 
 namespace {
 
@@ -128,7 +129,7 @@ TEST(Spectrum, WarnsWhenTooShortAndRefusesLessThanAPeriod) {
   EXPECT_FALSE(s.settled);  // one whole period: nothing to compare it with
   EXPECT_EQ(s.periods, 1);
   EXPECT_NEAR(s.harmonics[0].amplitude, 1.0, 1e-6);
-  EXPECT_THROW(stage::run_spectrum(sampled(sine, 0.7), options()), std::invalid_argument);
+  EXPECT_THROW(stage::run_spectrum(sampled(sine, 0.7), options()), stage::Error);
 }
 
 // End to end: a 1 kHz sine source through a divider, simulated with 500

@@ -56,7 +56,7 @@ struct CharacterizeResult {
   std::optional<SwingPower> limit_swing;
 };
 
-// Throws std::invalid_argument for bad options and NumericalError when an
+// Throws an invalid_request Error for bad options and NumericalError when an
 // analysis fails or a swing's powers do not balance (or its supplies would
 // absorb power).
 CharacterizeResult run_characterize(const Circuit& circuit, const CharacterizeOptions& options,

@@ -145,7 +145,7 @@ class Circuit {
   double temperature = kRoomTemperature;  // kelvin
   SolverOptions solver;
 
-  // Adds an element; throws std::invalid_argument on a duplicate name.
+  // Adds an element; throws an invalid_request Error on a duplicate name.
   Circuit& add(std::string name, ElementData data);
   Circuit& add_model(std::string name, BipolarModel model);
   Circuit& add_model(std::string name, DiodeModel model);

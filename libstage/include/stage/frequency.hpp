@@ -82,7 +82,7 @@ struct FrequencyResult {
 std::optional<std::string> frequency_options_error(const Circuit& circuit,
                                                    const FrequencyOptions& options);
 
-// Throws std::invalid_argument with the message above for invalid options,
+// Throws an invalid_request Error with the message above for invalid options,
 // NumericalError when there is no operating point or G + jwC is singular.
 FrequencyResult run_frequency(const Circuit& circuit, const FrequencyOptions& options);
 

@@ -126,7 +126,7 @@ struct HeadroomResult {
   std::vector<std::string> notes;
 };
 
-// Throws std::invalid_argument for bad options (input not an independent
+// Throws an invalid_request Error for bad options (input not an independent
 // source, unknown output, frequency not positive, limit not in (0, 1)),
 // NumericalError when a transient fails.
 HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& options,

@@ -41,6 +41,11 @@ class Deck {
   // (parameter sweeps). Throws InputError if `name` is not a parameter.
   Circuit with_parameter(const std::string& name, double value) const;
 
+  // The text of line `where.line` of `where.file` as it was read, for the
+  // caret line of an error found after reading; empty when the deck has no
+  // such file (a deck not read from text). The disk is not read again.
+  std::string line_text(const SourceLocation& where) const;
+
   // Internal: the syntax tree and options the deck was elaborated from.
   std::shared_ptr<const SyntaxTree> tree;
   ReadOptions options;

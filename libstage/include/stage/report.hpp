@@ -13,7 +13,11 @@ namespace stage {
 
 std::string json_document(const RunResult& run, int indent = 2);
 void print_report(std::ostream& out, const RunResult& run);
-// Writes <dir>/<n>_<kind>.csv for the n-th analysis (from 1); returns the paths.
+// Creates `dir` (and its parents) for output files; throws a not_written
+// Error naming it when it cannot.
+void create_output_folder(const std::filesystem::path& dir);
+// Writes <dir>/<n>_<kind>.csv for the n-th analysis (from 1), creating <dir>;
+// returns the paths. Throws a not_written Error naming the folder or file.
 std::vector<std::filesystem::path> write_csv_files(const std::filesystem::path& dir,
                                                    const RunResult& run);
 

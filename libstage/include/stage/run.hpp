@@ -9,6 +9,7 @@
 
 #include "stage/bias.hpp"
 #include "stage/characterize.hpp"
+#include "stage/errors.hpp"
 #include "stage/frequency.hpp"
 #include "stage/headroom.hpp"
 #include "stage/reader.hpp"
@@ -18,9 +19,11 @@
 namespace stage {
 
 // An analysis that could not finish: the NumericalError it ended with, kept
-// in the run beside the results of the analyses that did finish.
+// in the run beside the results of the analyses that did finish. A spectrum
+// not run because its transient failed takes that failure's error kind.
 struct AnalysisFailure {
   std::string kind;  // the statement's analysis kind: "bias", "transient", ...
+  ErrorKind error_kind;
   SourceLocation where;
   std::string message;
   std::vector<std::string> involved;  // nodes or elements at fault
@@ -45,9 +48,10 @@ struct RunOptions {
 
 // Throws InputError when the deck has no analysis or at the first statement
 // that cannot run as written (bad options for the circuit, a spectrum with no
-// transient before it), and NumericalError when the circuit's graph has no
-// unique DC solution (a floating node, a loop of voltage sources, a cut-set
-// of current sources), so that nothing runs when something would fail.
+// transient before it), and a NumericalError of kind topology when the
+// circuit's graph has no unique DC solution (a floating node, a loop of
+// voltage sources, a cut-set of current sources), so that nothing runs when
+// something would fail.
 void check_deck(const Deck& deck);
 
 // Runs check_deck, then every analysis. An analysis that fails numerically

@@ -37,7 +37,7 @@ class Simulation {
  public:
   // Builds the devices and the pattern and checks the circuit's graph;
   // throws NumericalError for a graph with no unique DC solution and
-  // std::invalid_argument for elements that reference unknown models.
+  // an invalid_request Error for elements that reference unknown models.
   explicit Simulation(const Circuit& circuit);
   ~Simulation();
   Simulation(Simulation&&) noexcept;
@@ -55,7 +55,7 @@ class Simulation {
   TransientResult transient(const TransientOptions& options);
 
   // Changes the value of a resistor, capacitor or inductor, or the DC value
-  // of an independent source. Throws std::invalid_argument for an unknown
+  // of an independent source. Throws an invalid_request Error for an unknown
   // element, an element with no such value, or a value it cannot take (not
   // finite; not positive for R, C and L).
   void set_value(const std::string& element, double value);

@@ -42,7 +42,7 @@ struct SpectrumResult {
   std::string message;
 };
 
-// Throws std::invalid_argument when the signal is unknown or the transient
+// Throws an invalid_request Error when the signal is unknown or the transient
 // holds less than one period of the fundamental.
 SpectrumResult run_spectrum(const TransientResult& transient, const SpectrumOptions& options,
                             int periods = 1);

@@ -49,7 +49,7 @@ struct TransientResult {
 };
 
 // Throws NumericalError (naming the time and the nodes) when the step falls
-// below its minimum, and std::invalid_argument for a bad request (stop not
+// below its minimum, and an invalid_request Error for a bad request (stop not
 // after from, an unknown signal).
 TransientResult run_transient(const Circuit& circuit, const TransientOptions& options);
 

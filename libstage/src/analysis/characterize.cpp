@@ -99,12 +99,14 @@ SwingPower swing_power(const Circuit& circuit, const analysis::SineDrive& drive,
            report::si(s.stored_power, "W");
   };
   if (!(std::abs(s.energy_residual) <= kBalanceTolerance)) {
-    throw NumericalError("the " + row + " swing's powers do not balance (" + figures() +
+    throw NumericalError(ErrorKind::energy_imbalance,
+                         "the " + row + " swing's powers do not balance (" + figures() +
                              ", off by " + report::si(imbalance, "W") + ")",
                          {});
   }
   if (!(s.supply_power > 0)) {
-    throw NumericalError("at the " + row + " swing the supplies absorb power (" + figures() +
+    throw NumericalError(ErrorKind::energy_imbalance,
+                         "at the " + row + " swing the supplies absorb power (" + figures() +
                              "): the drive feeds them",
                          {input});
   }
@@ -116,7 +118,8 @@ SwingPower swing_power(const Circuit& circuit, const analysis::SineDrive& drive,
 
 CharacterizeResult run_characterize(const Circuit& circuit, const CharacterizeOptions& options,
                                     const ProgressCallback& progress) {
-  if (auto p = validate(circuit, options)) throw std::invalid_argument(p->message);
+  if (auto p = validate(circuit, options))
+    throw Error(ErrorKind::invalid_request, p->message, {p->subject});
   CharacterizeResult r;
   r.options = options;
   r.output = options.output.label();

@@ -2,8 +2,8 @@
 #include "analysis/drive_setup.hpp"
 
 #include <cmath>
-#include <stdexcept>
 
+#include "stage/errors.hpp"
 #include "stage/frequency.hpp"
 
 namespace stage::analysis {
@@ -35,7 +35,8 @@ Circuit with_only_ac_input(const Circuit& circuit, const std::string& input) {
     source.ac_phase_deg = 0.0;
   });
   if (!found) {
-    throw std::invalid_argument("'" + input + "' is not an independent voltage or current source");
+    throw Error(ErrorKind::invalid_request,
+                "'" + input + "' is not an independent voltage or current source", {input});
   }
   return c;
 }

@@ -14,7 +14,7 @@
 namespace stage::analysis {
 
 // A copy of `circuit` where `input` has a unit AC phasor and every other
-// source none. Throws std::invalid_argument when `input` is not an
+// source none. Throws an invalid_request Error when `input` is not an
 // independent voltage or current source.
 Circuit with_only_ac_input(const Circuit& circuit, const std::string& input);
 

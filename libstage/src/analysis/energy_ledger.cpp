@@ -2,9 +2,9 @@
 #include "analysis/energy_ledger.hpp"
 
 #include <algorithm>
-#include <stdexcept>
 
 #include "analysis/element_nodes.hpp"
+#include "stage/errors.hpp"
 
 namespace stage::analysis {
 
@@ -18,7 +18,7 @@ EnergyLedger::EnergyLedger(const Circuit& circuit, const mna::System& system)
     for (const std::string& name :
          element == nullptr ? std::vector<std::string>{} : element_nodes(element->data)) {
       const auto index = name == kGround ? std::optional<mna::Index>(0) : topology.find_node(name);
-      if (!index) throw std::invalid_argument("no node named '" + name + "'");
+      if (!index) throw Error(ErrorKind::invalid_request, "no node named '" + name + "'", {name});
       // A terminal shared with another of the same device (base tied to
       // collector) is one row: counting it twice would double its power.
       if (std::find(terminals_.begin() + first, terminals_.end(), *index) == terminals_.end()) {

@@ -70,6 +70,7 @@ class Search {
     }
     if (static_cast<int>(runs_.size()) >= kMaxRuns) {
       throw NumericalError(
+          ErrorKind::search_exhausted,
           "the headroom search did not converge in " + std::to_string(kMaxRuns) + " transient runs",
           {});
     }
@@ -367,7 +368,9 @@ std::optional<double> rail_drive_bound(const Circuit& circuit,
 
 HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& options,
                             const ProgressCallback& progress) {
-  if (auto p = validate(circuit, options)) throw std::invalid_argument(p->message);
+  if (auto p = validate(circuit, options)) {
+    throw Error(ErrorKind::invalid_request, p->message, {p->subject});
+  }
   const analysis::SineDrive drive(analysis::with_only_ac_input(circuit, options.input),
                                   options.input, options.output, options.frequency);
   return analysis::headroom_search(circuit, drive, options, progress);

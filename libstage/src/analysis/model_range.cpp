@@ -16,7 +16,7 @@ std::vector<std::string> check_model_ranges(const mna::System& system, const mna
       message += (involved.empty() ? ": " : "; ") + finding.message;
       involved.push_back(finding.device);
     }
-    throw NumericalError(message, involved);
+    throw NumericalError(ErrorKind::outside_model, message, involved);
   }
   std::vector<std::string> warnings;
   for (auto& finding : range.extrapolated) warnings.push_back(std::move(finding.message));

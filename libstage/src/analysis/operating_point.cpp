@@ -134,7 +134,8 @@ std::string joined(const std::vector<std::string>& names) {
   const auto& topology = system.topology();
   if (attempt.outcome.status == NewtonStatus::singular) {
     const std::string name = topology.name(attempt.outcome.culprit);
-    throw NumericalError("the DC system is singular at '" + name +
+    throw NumericalError(ErrorKind::singular,
+                         "the DC system is singular at '" + name +
                              "': no unique operating point (check for a node held by nothing "
                              "but junctions in cutoff or by controlled sources alone)",
                          {name});
@@ -159,7 +160,7 @@ std::string joined(const std::vector<std::string>& names) {
              " (does a source force a current or voltage that nothing in the circuit can carry?)";
   std::vector<std::string> involved{name};
   involved.insert(involved.end(), elements.begin(), elements.end());
-  throw NumericalError(message, involved);
+  throw NumericalError(ErrorKind::no_convergence, message, involved);
 }
 
 }  // namespace
@@ -187,6 +188,7 @@ std::vector<std::string> verify_operating_point(const mna::System& system,
     if (!std::isfinite(x[i]) || !(std::abs(w.f[i]) <= allowed)) {
       const std::string name = topology.name(i);
       throw NumericalError(
+          ErrorKind::no_convergence,
           fmt::format("the DC solution fails its check at '{}': value {:.4g}, {} residual {:.3g} "
                       "against an allowed {:.3g}",
                       name, x[i], kcl ? "KCL" : "branch", w.f[i], allowed),

@@ -4,6 +4,7 @@
 #include <stdexcept>
 
 #include "analysis/step_interpolant.hpp"
+#include "stage/errors.hpp"
 #include "stage/transient.hpp"
 
 namespace stage {
@@ -17,14 +18,17 @@ const std::vector<double>& TransientResult::signal(const std::string& name) cons
 
 double interpolate(const TransientResult& result, const TransientSignal& signal, double t) {
   const std::size_t n = result.time.size();
-  if (n == 0) throw std::invalid_argument("interpolating an empty signal");
+  if (n == 0)
+    throw Error(ErrorKind::invalid_request, "interpolating an empty signal", {signal.name});
   if (n == 1 || t <= result.time.front()) return signal.values.front();
   if (t >= result.time.back()) return signal.values.back();
   return analysis::step_piece(result, signal, analysis::step_holding(result.time, t)).value(t);
 }
 
 TransientResult resample(const TransientResult& result, double step) {
-  if (!(step > 0)) throw std::invalid_argument("the resampling step must be positive");
+  if (!(step > 0))
+    throw Error(ErrorKind::invalid_request, "the resampling step must be positive",
+                {"uniform_step"});
   TransientResult out = result;
   out.time.clear();
   if (result.time.empty()) return out;

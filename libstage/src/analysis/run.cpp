@@ -20,19 +20,20 @@ void check_deck(const Deck& deck) {
   }
   if (auto p = validate(deck.circuit)) {
     const auto place = deck.places.find(p->subject);
-    throw InputError(
-        place != deck.places.end() ? place->second : SourceLocation{deck.file.string(), 0, 0},
-        p->message);
+    const SourceLocation where =
+        place != deck.places.end() ? place->second : SourceLocation{deck.file.string(), 0, 0};
+    throw InputError(where, p->message, deck.line_text(where));
   }
   bool transient_before = false;
   for (const auto& statement : deck.analyses) {
     if (std::holds_alternative<SpectrumOptions>(statement.options) && !transient_before) {
       throw InputError(statement.where,
                        "a spectrum analyses the transient before it: put an "
-                       "`analyze transient(...)` statement first");
+                       "`analyze transient(...)` statement first",
+                       deck.line_text(statement.where));
     }
     if (auto p = validate(deck.circuit, statement.options)) {
-      throw InputError(statement.where, p->message);
+      throw InputError(statement.where, p->message, deck.line_text(statement.where));
     }
     transient_before =
         transient_before || std::holds_alternative<TransientOptions>(statement.options);
@@ -106,8 +107,10 @@ RunResult run_deck(const Deck& deck, const RunOptions& run_options) {
     const TransientResult* transient =
         last_transient ? std::get_if<TransientResult>(&run.analyses[*last_transient]) : nullptr;
     if (std::holds_alternative<SpectrumOptions>(statement.options) && transient == nullptr) {
-      run.analyses.push_back(
-          AnalysisFailure{kind, statement.where, "not run: the transient before it failed", {}});
+      // check_deck saw a transient before it, so that transient failed.
+      const auto& failed = std::get<AnalysisFailure>(run.analyses[*last_transient]);
+      run.analyses.push_back(AnalysisFailure{
+          kind, failed.error_kind, statement.where, "not run: the transient before it failed", {}});
       continue;
     }
     try {
@@ -115,7 +118,8 @@ RunResult run_deck(const Deck& deck, const RunOptions& run_options) {
           std::visit(Visitor{deck, circuit, run_options, transient}, statement.options));
     } catch (const NumericalError& e) {
       spdlog::debug("analyze {} failed: {}", kind, e.what());
-      run.analyses.push_back(AnalysisFailure{kind, statement.where, e.what(), e.involved()});
+      run.analyses.push_back(
+          AnalysisFailure{kind, e.kind(), statement.where, e.message(), e.involved()});
     }
     if (std::holds_alternative<TransientOptions>(statement.options)) {
       last_transient = run.analyses.size() - 1;

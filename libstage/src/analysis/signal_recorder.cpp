@@ -4,9 +4,9 @@
 #include "analysis/signal_recorder.hpp"
 
 #include <array>
-#include <stdexcept>
 
 #include "analysis/integration.hpp"
+#include "stage/errors.hpp"
 
 namespace stage::analysis {
 namespace {
@@ -14,7 +14,7 @@ namespace {
 mna::Index node_index(const mna::System& system, const std::string& name) {
   if (name == kGround) return mna::kGroundIndex;
   const auto index = system.topology().find_node(name);
-  if (!index) throw std::invalid_argument("no node named '" + name + "'");
+  if (!index) throw Error(ErrorKind::invalid_request, "no node named '" + name + "'", {name});
   return *index;
 }
 
@@ -47,7 +47,8 @@ SignalRecorder::SignalRecorder(const mna::System& system, const std::vector<Sign
         break;
       case SignalRef::Kind::element_current: {
         const mna::Device* device = system.find_device(ref.a);
-        if (device == nullptr) throw std::invalid_argument("no element named '" + ref.a + "'");
+        if (device == nullptr)
+          throw Error(ErrorKind::invalid_request, "no element named '" + ref.a + "'", {ref.a});
         add_current(*device, ref.label());
         break;
       }
@@ -66,7 +67,8 @@ void SignalRecorder::add_every_current(const mna::Device& device) {
 
 void SignalRecorder::add_current(const mna::Device& device, const std::string& name) {
   if (!device.reported_current(system_.request(zero_.data()))) {
-    throw std::invalid_argument("element '" + device.name() + "' reports no current");
+    throw Error(ErrorKind::invalid_request, "element '" + device.name() + "' reports no current",
+                {device.name()});
   }
   probes_.push_back({mna::kGroundIndex, mna::kGroundIndex, &device});
   result_.signals.emplace_back().name = name;

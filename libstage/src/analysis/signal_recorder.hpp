@@ -21,7 +21,7 @@ enum class StepShape { line, through_previous_point, through_inner_stage };
 class SignalRecorder {
  public:
   // `wanted` empty: every circuit node voltage and every reported current.
-  // Samples before `from` are not kept. Throws std::invalid_argument for a
+  // Samples before `from` are not kept. Throws an invalid_request Error for a
   // node or element that does not exist.
   SignalRecorder(const mna::System& system, const std::vector<SignalRef>& wanted, double from,
                  TransientResult& result);

@@ -6,13 +6,13 @@
 #include <algorithm>
 #include <limits>
 #include <optional>
-#include <stdexcept>
 
 #include "analysis/energy_ledger.hpp"
 #include "analysis/step_interpolant.hpp"
 #include "analysis/transient.hpp"
 #include "mna/system.hpp"
 #include "simulation/simulation_access.hpp"
+#include "stage/errors.hpp"
 
 namespace stage::analysis {
 namespace {
@@ -50,7 +50,7 @@ TransientResult SineDrive::run(double amplitude, int periods, DriveMeasurement& 
   const auto& topology = system.topology();
   const auto node = [&](const std::string& name) {
     const auto index = name.empty() ? std::optional<mna::Index>(0) : topology.find_node(name);
-    if (!index) throw std::invalid_argument("no node named '" + name + "'");
+    if (!index) throw Error(ErrorKind::invalid_request, "no node named '" + name + "'", {name});
     return *index;
   };
   const mna::Index p = node(output_.a);

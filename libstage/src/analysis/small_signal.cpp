@@ -47,7 +47,8 @@ void SmallSignalSystem::factor(double omega) {
   for (std::size_t s = 0; s < values_.size(); ++s) values_[s] = {bias_.g[s], omega * bias_.c[s]};
   if (lu_.factor(values_.data())) return;
   const std::string name = system_.topology().name(lu_.singular_column() + 1);
-  throw NumericalError("the small-signal system is singular at " +
+  throw NumericalError(ErrorKind::singular,
+                       "the small-signal system is singular at " +
                            std::to_string(omega / (2 * std::numbers::pi)) + " Hz near '" + name +
                            "' (a lossless resonance or a node held only by reactances)",
                        {name});

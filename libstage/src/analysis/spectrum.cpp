@@ -18,9 +18,9 @@
 #include <algorithm>
 #include <cmath>
 #include <numbers>
-#include <stdexcept>
 
 #include "analysis/step_interpolant.hpp"
+#include "stage/errors.hpp"
 
 namespace stage {
 namespace {
@@ -56,7 +56,9 @@ double rms_period_change(const TransientResult& tr, const TransientSignal& signa
 SpectrumResult run_spectrum(const TransientResult& tr, const SpectrumOptions& options,
                             int periods) {
   if (!(options.fundamental > 0) || options.harmonics < 1 || periods < 1) {
-    throw std::invalid_argument("a spectrum needs a positive fundamental, harmonics and periods");
+    throw Error(ErrorKind::invalid_request,
+                "a spectrum needs a positive fundamental, harmonics and periods",
+                {"fundamental", "harmonics"});
   }
   SpectrumResult result;
   result.signal = options.signal.label();
@@ -66,7 +68,9 @@ SpectrumResult run_spectrum(const TransientResult& tr, const SpectrumOptions& op
   const double length = tr.time.empty() ? 0.0 : tr.time.back() - tr.time.front();
   const auto whole = static_cast<int>(std::floor(length / period * (1.0 + 1e-9)));
   if (whole < 1) {
-    throw std::invalid_argument("the transient is shorter than one period of the fundamental");
+    throw Error(ErrorKind::invalid_request,
+                "the transient is shorter than one period of the fundamental",
+                {result.signal, "fundamental"});
   }
   result.periods = std::min(periods, whole);
   if (whole < periods + 1) {

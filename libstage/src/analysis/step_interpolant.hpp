@@ -7,11 +7,11 @@
 #include <algorithm>
 #include <array>
 #include <cmath>
-#include <stdexcept>
 #include <string>
 #include <utility>
 #include <vector>
 
+#include "stage/errors.hpp"
 #include "stage/transient.hpp"
 
 namespace stage::analysis {
@@ -115,12 +115,12 @@ inline double mean(const TransientResult& r, const TransientSignal& s, double fr
   return area / (to - from);
 }
 
-// The signal called `name`; throws std::invalid_argument if there is none.
+// The signal called `name`; throws an invalid_request Error if there is none.
 inline const TransientSignal& signal_named(const TransientResult& r, const std::string& name) {
   for (const auto& s : r.signals) {
     if (s.name == name) return s;
   }
-  throw std::invalid_argument("the transient has no signal '" + name + "'");
+  throw Error(ErrorKind::invalid_request, "the transient has no signal '" + name + "'", {name});
 }
 
 }  // namespace stage::analysis

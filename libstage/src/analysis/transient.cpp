@@ -413,7 +413,7 @@ void Stepper::fail(double t, double h) const {
   std::string message = fmt::format(
       "the transient step fell below its minimum ({:.3g} s) at t = {:.9g} s; not settling:", h, t);
   for (const auto& name : worst) message += " " + name;
-  throw NumericalError(message, worst);
+  throw NumericalError(ErrorKind::step_too_small, message, worst);
 }
 
 }  // namespace
@@ -429,7 +429,7 @@ TransientResult integrate(NewtonSolver& newton, const TransientOptions& options,
                           const StepObserver& observer, const std::vector<double>* bias_point,
                           const std::vector<double>& landings) {
   if (!(options.stop > 0) || options.from >= options.stop || options.from < 0) {
-    throw std::invalid_argument("a transient needs 0 <= from < stop");
+    throw Error(ErrorKind::invalid_request, "a transient needs 0 <= from < stop", {"from", "stop"});
   }
   TransientResult result;
   result.integration = newton.options().integration;

@@ -82,11 +82,11 @@ int consistency_step(NewtonSolver& newton, const std::vector<double>& from, doub
   const auto outcome = newton.solve(x, p);
   if (outcome.status != NewtonStatus::converged) {
     const auto worst = system.worst_unknowns(newton.last_update(), 3);
-    throw NumericalError(
-        "no consistent initial point for the transient (start = zero): "
-        "did not settle: " +
-            worst.front(),
-        worst);
+    throw NumericalError(ErrorKind::no_convergence,
+                         "no consistent initial point for the transient (start = zero): "
+                         "did not settle: " +
+                             worst.front(),
+                         worst);
   }
   return outcome.iterations;
 }

@@ -1,13 +1,13 @@
 // Building a Circuit in code: element and model registries.
 #include "stage/circuit.hpp"
 
-#include <stdexcept>
+#include "stage/errors.hpp"
 
 namespace stage {
 
 Circuit& Circuit::add(std::string name, ElementData data) {
   if (index_.count(name) != 0) {
-    throw std::invalid_argument("element '" + name + "' is already defined");
+    throw Error(ErrorKind::invalid_request, "element '" + name + "' is already defined", {name});
   }
   index_.emplace(name, elements_.size());
   elements_.push_back({std::move(name), std::move(data)});

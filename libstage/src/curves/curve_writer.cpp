@@ -49,7 +49,10 @@ std::string format_curve(const Curve& curve) {
 void write_curve_file(const std::filesystem::path& path, const Curve& curve) {
   std::ofstream out(path);
   out << format_curve(curve);
-  if (!out) throw InputError({path.string(), 0, 0}, "cannot write the curve file");
+  if (!out) {
+    throw Error(ErrorKind::not_written, "cannot write the curve file '" + path.string() + "'",
+                {path.string()});
+  }
 }
 
 }  // namespace stage

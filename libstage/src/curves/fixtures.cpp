@@ -191,7 +191,8 @@ std::vector<BiasResult> forced_collector_current(const Curve& reference, const D
     }
     if (worst < kRelative) return points;
   }
-  throw NumericalError("curve '" + reference.name +
+  throw NumericalError(ErrorKind::no_convergence,
+                       "curve '" + reference.name +
                            "': the collector current could not be "
                            "reached by adjusting VBE",
                        {"q"});

@@ -1,9 +1,8 @@
 // Stamps of the controlled sources.
 #include "devices/controlled.hpp"
 
-#include <stdexcept>
-
 #include "mna/topology_check.hpp"
+#include "stage/errors.hpp"
 
 namespace stage::devices {
 
@@ -11,8 +10,10 @@ mna::Index sensed_branch(mna::PatternBuilder& pattern, const std::string& device
                          const std::string& sense) {
   const auto branch = pattern.topology().find_branch(sense);
   if (!branch) {
-    throw std::invalid_argument("'" + device + "' senses '" + sense +
-                                "', which is not a voltage source or inductor");
+    throw Error(
+        ErrorKind::invalid_request,
+        "'" + device + "' senses '" + sense + "', which is not a voltage source or inductor",
+        {device, sense});
   }
   return *branch;
 }

@@ -1,13 +1,12 @@
 // One Device per Element: picks the class, numbers its nodes and branches.
 #include "devices/factory.hpp"
 
-#include <stdexcept>
-
 #include "devices/controlled.hpp"
 #include "devices/passive.hpp"
 #include "devices/semiconductors.hpp"
 #include "devices/sources.hpp"
 #include "mna/topology.hpp"
+#include "stage/errors.hpp"
 
 namespace stage::devices {
 namespace {
@@ -17,8 +16,10 @@ const Model& find_model(const std::map<std::string, Model>& models, const std::s
                         const std::string& element) {
   auto it = models.find(name);
   if (it == models.end()) {
-    throw std::invalid_argument("element '" + element + "' uses model '" + name +
-                                "', which is not defined for its kind");
+    throw Error(
+        ErrorKind::invalid_request,
+        "element '" + element + "' uses model '" + name + "', which is not defined for its kind",
+        {element, name});
   }
   return it->second;
 }

@@ -12,7 +12,7 @@ class Topology;
 namespace stage::devices {
 
 // Allocates the element's internal nodes and branch unknowns in `topology`.
-// Throws std::invalid_argument for an unknown model name.
+// Throws an invalid_request Error for an unknown model name.
 std::unique_ptr<mna::Device> make_device(const Element& element, const Circuit& circuit,
                                          mna::Topology& topology);
 

@@ -30,7 +30,7 @@ System::System(const Circuit& circuit, const std::vector<DeviceMaker>& extra)
     std::vector<std::string> involved;
     for (const auto& f : findings)
       involved.insert(involved.end(), f.involved.begin(), f.involved.end());
-    throw NumericalError(message, involved);
+    throw NumericalError(ErrorKind::topology, message, involved);
   }
 
   PatternBuilder builder(topology_);

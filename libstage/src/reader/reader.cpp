@@ -133,6 +133,14 @@ Deck read_text(const std::string& text, const std::string& file_name, const Read
   return read(file_name, text, options);
 }
 
+std::string Deck::line_text(const SourceLocation& where) const {
+  if (!tree) return {};
+  for (const auto& file : tree->files) {
+    if (file.source.file_name() == where.file) return file.source.line_text(where.line);
+  }
+  return {};
+}
+
 Circuit Deck::with_parameter(const std::string& name, double value) const {
   if (!tree) throw InputError({file.string(), 0, 0}, "this deck was not read from text");
   ReadOptions changed = options;

@@ -20,17 +20,22 @@ std::string csv_text(const std::string& text) {
 }  // namespace
 
 Json to_json(const AnalysisFailure& f) {
-  return Json{
-      {"kind", f.kind}, {"error", f.message}, {"involved", f.involved}, {"line", f.where.line}};
+  return Json{{"kind", f.kind},
+              {"error", f.message},
+              {"error_kind", to_string(f.error_kind)},
+              {"involved", f.involved},
+              {"line", f.where.line}};
 }
 
 void print_table(std::ostream& out, const AnalysisFailure& f) {
-  out << "Failed: analyze " << f.kind << " (line " << f.where.line << ")\n  " << f.message << '\n';
+  out << "Failed: analyze " << f.kind << " (line " << f.where.line << ", "
+      << to_string(f.error_kind) << ")\n  " << f.message << '\n';
 }
 
 void write_csv(std::ostream& out, const AnalysisFailure& f) {
-  out << "error,involved\n"
-      << csv_text(f.message) << ',' << csv_text(joined(f.involved, " ")) << '\n';
+  out << "error_kind,error,involved\n"
+      << to_string(f.error_kind) << ',' << csv_text(f.message) << ','
+      << csv_text(joined(f.involved, " ")) << '\n';
 }
 
 }  // namespace stage::report

@@ -8,6 +8,7 @@
 #include "report/headroom_report.hpp"
 #include "report/spectrum_report.hpp"
 #include "report/transient_report.hpp"
+#include "stage/errors.hpp"
 #include "stage/report.hpp"
 
 namespace stage {
@@ -45,15 +46,26 @@ void print_report(std::ostream& out, const RunResult& run) {
   }
 }
 
+void create_output_folder(const std::filesystem::path& dir) {
+  std::error_code ec;
+  std::filesystem::create_directories(dir, ec);
+  if (ec) {
+    throw Error(ErrorKind::not_written,
+                "cannot create the folder '" + dir.string() + "': " + ec.message(), {dir.string()});
+  }
+}
+
 std::vector<std::filesystem::path> write_csv_files(const std::filesystem::path& dir,
                                                    const RunResult& run) {
-  std::filesystem::create_directories(dir);
+  create_output_folder(dir);
   std::vector<std::filesystem::path> written;
   for (std::size_t i = 0; i < run.analyses.size(); ++i) {
     const auto path = dir / (std::to_string(i + 1) + "_" + kind_of(run.analyses[i]) + ".csv");
     std::ofstream file(path);
     std::visit([&](const auto& r) { report::write_csv(file, r); }, run.analyses[i]);
-    if (!file) throw std::runtime_error("cannot write " + path.string());
+    if (!file) {
+      throw Error(ErrorKind::not_written, "cannot write '" + path.string() + "'", {path.string()});
+    }
     written.push_back(path);
   }
   return written;

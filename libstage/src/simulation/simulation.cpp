@@ -7,7 +7,6 @@
 
 #include <cmath>
 #include <optional>
-#include <stdexcept>
 
 #include "analysis/frequency_response.hpp"
 #include "analysis/newton.hpp"
@@ -16,6 +15,7 @@
 #include "devices/sources.hpp"
 #include "mna/system.hpp"
 #include "simulation/simulation_access.hpp"
+#include "stage/errors.hpp"
 #include "stage/validate.hpp"
 
 namespace stage {
@@ -67,13 +67,14 @@ void store_value(ElementData& data, double value) {
 
 // The circuit itself, checked before anything is built from it.
 const Circuit& validated(const Circuit& circuit) {
-  if (auto p = validate(circuit)) throw std::invalid_argument(p->message);
+  if (auto p = validate(circuit)) throw Error(ErrorKind::invalid_request, p->message, {p->subject});
   return circuit;
 }
 
 // A request, checked against the circuit before it runs.
 void check_request(const Circuit& circuit, const AnalysisOptions& options) {
-  if (auto p = validate(circuit, options)) throw std::invalid_argument(p->message);
+  if (auto p = validate(circuit, options))
+    throw Error(ErrorKind::invalid_request, p->message, {p->subject});
 }
 
 struct Simulation::State {
@@ -124,7 +125,8 @@ BiasResult Simulation::bias() { return state_->solve_bias(); }
 
 SweepResult Simulation::sweep(const SweepOptions& options, const ProgressCallback& progress) {
   if (options.target == SweepOptions::Target::parameter) {
-    throw std::invalid_argument("a parameter sweep needs the circuit's text: use run_deck");
+    throw Error(ErrorKind::invalid_request,
+                "a parameter sweep needs the circuit's text: use run_deck", {options.name});
   }
   check_request(state_->circuit, options);
   const bool temperature = options.target == SweepOptions::Target::temperature;
@@ -133,7 +135,8 @@ SweepResult Simulation::sweep(const SweepOptions& options, const ProgressCallbac
     const auto* v = e == nullptr ? nullptr : std::get_if<VoltageSource>(&e->data);
     const auto* i = e == nullptr ? nullptr : std::get_if<CurrentSource>(&e->data);
     if (v == nullptr && i == nullptr) {
-      throw std::invalid_argument("'" + options.name + "' is not an independent source");
+      throw Error(ErrorKind::invalid_request, "'" + options.name + "' is not an independent source",
+                  {options.name});
     }
     return v != nullptr ? v->dc : i->dc;
   }();
@@ -195,13 +198,14 @@ void Simulation::set_value(const std::string& element, double value) {
   Element* e = state_->circuit.find(element);
   mna::Device* device = state_->system.find_device(element);
   if (e == nullptr || device == nullptr) {
-    throw std::invalid_argument("no element named '" + element + "'");
+    throw Error(ErrorKind::invalid_request, "no element named '" + element + "'", {element});
   }
   if (auto why = value_error(e->data, value)) {
-    throw std::invalid_argument("'" + element + "': " + *why);
+    throw Error(ErrorKind::invalid_request, "'" + element + "': " + *why, {element});
   }
   if (!device->set_value(value)) {
-    throw std::invalid_argument("'" + element + "' has no single value to set");
+    throw Error(ErrorKind::invalid_request, "'" + element + "' has no single value to set",
+                {element});
   }
   store_value(e->data, value);
   state_->bias.reset();
@@ -233,21 +237,23 @@ void Simulation::set_waveform(const std::string& source, const std::optional<Wav
   auto* voltage = e == nullptr ? nullptr : std::get_if<VoltageSource>(&e->data);
   auto* current = e == nullptr ? nullptr : std::get_if<CurrentSource>(&e->data);
   if (device == nullptr || (voltage == nullptr && current == nullptr)) {
-    throw std::invalid_argument("'" + source + "' is not an independent source");
+    throw Error(ErrorKind::invalid_request, "'" + source + "' is not an independent source",
+                {source});
   }
   auto& stored = voltage != nullptr ? voltage->wave : current->wave;
   const std::optional<Waveform> before = stored;
   stored = wave;
   if (auto p = validate(state_->circuit)) {
     stored = before;
-    throw std::invalid_argument(p->message);
+    throw Error(ErrorKind::invalid_request, p->message, {p->subject});
   }
   device->set_waveform(wave);
 }
 
 void Simulation::set_temperature(double kelvin) {
   if (!(std::isfinite(kelvin) && kelvin > 0)) {
-    throw std::invalid_argument("a temperature must be a finite number of kelvin above zero");
+    throw Error(ErrorKind::invalid_request,
+                "a temperature must be a finite number of kelvin above zero", {"temperature"});
   }
   state_->system.set_temperature(kelvin);
   state_->circuit.temperature = kelvin;
