@@ -9,6 +9,7 @@
 #include "analysis/operating_point.hpp"
 #include "benchmark_support.hpp"
 #include "mna/system.hpp"
+#include "simulation/assemble.hpp"
 
 namespace {
 
@@ -58,7 +59,7 @@ stage::Circuit generate(int kind, int transistors) {
 
 void BM_BiasFromZero(benchmark::State& state) {
   const auto circuit = generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
-  stage::mna::System system(circuit);
+  stage::mna::System system = stage::assemble(circuit);
   stage::analysis::NewtonSolver newton(system, circuit.solver);
   std::vector<double> x(static_cast<std::size_t>(system.size()) + 1);
   int iterations = 0;
@@ -77,7 +78,7 @@ void BM_BiasFromZero(benchmark::State& state) {
 // before the linear solve).
 void BM_DeviceEvaluation(benchmark::State& state) {
   const auto circuit = generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
-  stage::mna::System system(circuit);
+  stage::mna::System system = stage::assemble(circuit);
   stage::analysis::NewtonSolver newton(system, circuit.solver);
   std::vector<double> x(static_cast<std::size_t>(system.size()) + 1, 0.0);
   stage::analysis::solve_operating_point(newton, x);
@@ -93,7 +94,7 @@ void BM_DeviceEvaluation(benchmark::State& state) {
 // The linear-algebra half of an iteration: KLU refactor and solve.
 void BM_RefactorSolve(benchmark::State& state) {
   const auto circuit = generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
-  stage::mna::System system(circuit);
+  stage::mna::System system = stage::assemble(circuit);
   stage::analysis::NewtonSolver newton(system, circuit.solver);
   std::vector<double> x(static_cast<std::size_t>(system.size()) + 1, 0.0);
   stage::analysis::solve_operating_point(newton, x);

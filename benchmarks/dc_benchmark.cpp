@@ -10,6 +10,7 @@
 #include "analysis/operating_point.hpp"
 #include "benchmark_support.hpp"
 #include "mna/system.hpp"
+#include "simulation/assemble.hpp"
 
 namespace {
 
@@ -57,7 +58,7 @@ stage::Circuit generate(int kind, int size) { return kind == 0 ? mesh(size) : la
 void BM_OperatingPoint(benchmark::State& state) {
   const stage::Circuit circuit =
       generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
-  stage::mna::System system(circuit);
+  stage::mna::System system = stage::assemble(circuit);
   std::vector<double> x(static_cast<std::size_t>(system.size()) + 1);
   for (auto _ : state) {
     stage::analysis::NewtonSolver newton(system, circuit.solver);
@@ -72,7 +73,7 @@ void BM_OperatingPoint(benchmark::State& state) {
 void BM_RefactorSolve(benchmark::State& state) {
   const stage::Circuit circuit =
       generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
-  stage::mna::System system(circuit);
+  stage::mna::System system = stage::assemble(circuit);
   const std::vector<double> x(static_cast<std::size_t>(system.size()) + 1, 0.0);
   stage::benchmarks::time_refactor_solve(state, system, x);
 }
@@ -81,7 +82,7 @@ void BM_RefactorSolve(benchmark::State& state) {
 void BM_DenseLu(benchmark::State& state) {
   const stage::Circuit circuit =
       generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
-  stage::mna::System system(circuit);
+  stage::mna::System system = stage::assemble(circuit);
   const int n = system.size();
   std::vector<double> x(static_cast<std::size_t>(n) + 1, 0.0);
   auto w = system.make_workspace();

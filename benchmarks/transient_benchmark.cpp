@@ -10,6 +10,7 @@
 
 #include "analysis/newton.hpp"
 #include "analysis/transient.hpp"
+#include "simulation/assemble.hpp"
 #include "transient/follower_chain.hpp"
 
 namespace {
@@ -45,7 +46,7 @@ stage::Circuit follower_array(int stages) {
 
 void run(benchmark::State& state, const stage::Circuit& circuit, const std::string& probe,
          double periods = 5, double steps_per_period = 100) {
-  const stage::mna::System system(circuit);
+  const stage::mna::System system = stage::assemble(circuit);
   stage::TransientOptions options;
   options.stop = periods / kFrequency;
   options.max_step = 1 / kFrequency / steps_per_period;
@@ -83,7 +84,7 @@ void BM_TransientFollowerChain(benchmark::State& state) {
 // One solve, or refactorisation plus solve, of G + a C at the operating point
 // with a = 2 / max_step (the trapezoidal rule's coefficient).
 void klu(benchmark::State& state, const stage::Circuit& circuit, bool refactor) {
-  const stage::mna::System system(circuit);
+  const stage::mna::System system = stage::assemble(circuit);
   stage::mna::Workspace w = system.make_workspace();
   std::vector<double> x(w.f.size(), 0.0);
   system.evaluate(system.request(x.data()), w);

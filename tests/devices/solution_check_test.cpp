@@ -15,6 +15,7 @@
 #include "analysis/operating_point.hpp"
 #include "devices/physical_constants.hpp"
 #include "mna/system.hpp"
+#include "simulation/assemble.hpp"
 #include "stage/bias.hpp"
 #include "stage/errors.hpp"
 
@@ -123,7 +124,7 @@ TEST(SolutionCheck, PerturbedSolutionFailsKclAtThatNode) {
   c.add("v1", stage::VoltageSource{"in", "gnd", 5.0});
   c.add("r1", stage::Resistor{"in", "a", 1e3});
   c.add("d1", stage::Diode{"a", "gnd", "d"});
-  const stage::mna::System system(c);
+  const stage::mna::System system = stage::assemble(c);
   stage::analysis::NewtonSolver newton(system, c.solver);
   std::vector<double> x(static_cast<std::size_t>(system.size()) + 1, 0.0);
   stage::analysis::solve_operating_point(newton, x);

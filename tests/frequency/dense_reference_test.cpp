@@ -10,6 +10,7 @@
 
 #include "analysis/operating_point.hpp"
 #include "analysis/small_signal.hpp"
+#include "simulation/assemble.hpp"
 
 namespace {
 
@@ -64,7 +65,7 @@ Circuit random_network(int nodes, unsigned seed) {
 
 // Solves with both at several frequencies, for the same right-hand side.
 void compare_with_dense(const Circuit& circuit) {
-  stage::mna::System system(circuit);
+  stage::mna::System system = stage::assemble(circuit);
   stage::analysis::NewtonSolver newton(system, circuit.solver);
   std::vector<double> x(static_cast<std::size_t>(system.size()) + 1, 0.0);
   stage::analysis::solve_operating_point(newton, x);

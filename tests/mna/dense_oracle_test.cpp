@@ -8,6 +8,7 @@
 
 #include "analysis/newton.hpp"
 #include "mna/system.hpp"
+#include "simulation/assemble.hpp"
 #include "stage/bias.hpp"
 
 namespace {
@@ -40,7 +41,7 @@ stage::Circuit random_network(int nodes, unsigned seed) {
 TEST(DenseOracle, RandomNetworksAgreeWithDenseLu) {
   for (unsigned seed = 1; seed <= 20; ++seed) {
     const stage::Circuit circuit = random_network(40, seed);
-    stage::mna::System system(circuit);
+    stage::mna::System system = stage::assemble(circuit);
     const int n = system.size();
     std::vector<double> zero(static_cast<std::size_t>(n) + 1, 0.0);
     auto w = system.make_workspace();

@@ -9,6 +9,7 @@
 #include "devices/stamp.hpp"
 #include "mna/topology_check.hpp"
 #include "reference.hpp"
+#include "simulation/assemble.hpp"
 #include "stage/errors.hpp"
 
 namespace {
@@ -89,7 +90,7 @@ TEST_P(ChargeConservation, CubicCapacitorReturnsToItsStartCharge) {
   c.solver.integration = GetParam();
   c.add("i1", stage::CurrentSource{"gnd", "x", 0.0, 0.0, 0.0, charge_and_return()});
   c.add("rleak", stage::Resistor{"x", "gnd", 1e12});
-  const stage::mna::System system(
+  const stage::mna::System system = stage::assemble(
       c, {[](stage::mna::Topology& t) { return std::make_unique<CubicCapacitor>(t.node("x")); }});
   stage::TransientOptions o;
   o.stop = 3e-3;
@@ -114,7 +115,7 @@ TEST(StepFailure, NamesTheTimeAndTheNode) {
   stage::Circuit c;
   c.add("r1", stage::Resistor{"x", "gnd", 1e3});
   c.add("c1", stage::Capacitor{"x", "gnd", 1e-6});
-  const stage::mna::System system(
+  const stage::mna::System system = stage::assemble(
       c, {[](stage::mna::Topology& t) { return std::make_unique<SignFlipper>(t.node("x")); }});
   stage::TransientOptions o;
   o.stop = 2e-3;

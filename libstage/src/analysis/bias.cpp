@@ -1,11 +1,9 @@
-// The bias and sweep results' look-ups, and the one-shot bias and sweep
-// (analyze bias(), analyze sweep(...) over a source or the temperature).
+// The bias result's look-ups and the names of the ways a bias point was
+// found (the one-shot run_bias and run_sweep are in simulation/one_shot.cpp).
 #include "stage/bias.hpp"
 
 #include <algorithm>
 #include <stdexcept>
-
-#include "stage/simulation.hpp"
 
 namespace stage {
 namespace {
@@ -43,13 +41,6 @@ const BipolarOperatingPoint& BiasResult::bipolar(const std::string& name) const 
 
 const DiodeOperatingPoint& BiasResult::diode(const std::string& name) const {
   return find_named(diodes, name, "diode");
-}
-
-BiasResult run_bias(const Circuit& circuit) { return Simulation(circuit).bias(); }
-
-SweepResult run_sweep(const Circuit& circuit, const SweepOptions& options,
-                      const ProgressCallback& progress) {
-  return Simulation(circuit).sweep(options, progress);
 }
 
 std::string_view to_string(BiasMethod method) {

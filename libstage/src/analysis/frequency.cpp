@@ -14,7 +14,6 @@
 #include "analysis/frequency_response.hpp"
 #include "analysis/small_signal.hpp"
 #include "devices/sources.hpp"
-#include "stage/simulation.hpp"
 
 namespace stage {
 namespace {
@@ -178,10 +177,6 @@ Complex Sweep::output_impedance() const {
 }
 
 }  // namespace
-
-FrequencyResult run_frequency(const Circuit& circuit, const FrequencyOptions& options) {
-  return Simulation(circuit).frequency(options);
-}
 
 namespace analysis {
 

@@ -43,7 +43,6 @@
 #include "analysis/signal_recorder.hpp"
 #include "analysis/transient_start.hpp"
 #include "stage/errors.hpp"
-#include "stage/simulation.hpp"
 
 namespace stage::analysis {
 namespace {
@@ -441,11 +440,3 @@ TransientResult integrate(NewtonSolver& newton, const TransientOptions& options,
 }
 
 }  // namespace stage::analysis
-
-namespace stage {
-
-TransientResult run_transient(const Circuit& circuit, const TransientOptions& options) {
-  return Simulation(circuit).transient(options);
-}
-
-}  // namespace stage

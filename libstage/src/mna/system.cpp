@@ -5,18 +5,16 @@
 #include <cmath>
 #include <numeric>
 
-#include "devices/factory.hpp"
 #include "mna/topology_check.hpp"
 #include "stage/errors.hpp"
 
 namespace stage::mna {
 
-System::System(const Circuit& circuit) : System(circuit, {}) {}
-
-System::System(const Circuit& circuit, const std::vector<DeviceMaker>& extra)
+System::System(const Circuit& circuit, const ElementMaker& make,
+               const std::vector<DeviceMaker>& extra)
     : temperature_(circuit.temperature) {
   for (const Element& element : circuit.elements()) {
-    devices_.push_back(devices::make_device(element, circuit, topology_));
+    devices_.push_back(make(element, circuit, topology_));
   }
   for (const auto& make : extra) devices_.push_back(make(topology_));
   for (const auto& d : devices_) nonlinear_ = nonlinear_ || d->nonlinear();

@@ -25,13 +25,18 @@ struct Workspace {
 
 class System {
  public:
-  // Builds one device per element; throws NumericalError if the graph is
-  // singular at DC (floating node, voltage loop, current cut-set).
-  explicit System(const Circuit& circuit);
-  // Devices made outside the element factory (tests add model devices this
-  // way); each maker numbers its nodes in the topology it is given.
+  // Makes the device of one element, numbering its nodes in the topology.
+  using ElementMaker =
+      std::function<std::unique_ptr<Device>(const Element&, const Circuit&, Topology&)>;
+  // Makes a device that no element describes (tests add model devices this
+  // way), numbering its nodes in the topology it is given.
   using DeviceMaker = std::function<std::unique_ptr<Device>(Topology&)>;
-  System(const Circuit& circuit, const std::vector<DeviceMaker>& extra);
+  // One device per element from `make`, then the extra ones; throws a
+  // topology Error if the graph is singular at DC (floating node, voltage
+  // loop, current cut-set). The element factory lives above this layer:
+  // stage::assemble (simulation/assemble.hpp) passes it in.
+  System(const Circuit& circuit, const ElementMaker& make,
+         const std::vector<DeviceMaker>& extra = {});
 
   int size() const { return topology_.size(); }
   const Topology& topology() const { return topology_; }

@@ -1,5 +1,5 @@
-// Shared pieces of every readable report: engineering notation with SI
-// prefixes, and aligned text tables.
+// Shared pieces of every readable report: aligned text tables and the JSON
+// type, with the engineering notation of common/si_format.hpp.
 #pragma once
 
 #include <nlohmann/json.hpp>
@@ -8,21 +8,17 @@
 #include <string_view>
 #include <vector>
 
+#include "common/si_format.hpp"
+
 namespace stage::report {
+
+using text::fixed;
+using text::percent;
+using text::si;
 
 // The JSON document keeps keys in the order written (spec section 7 puts
 // "kind" first), so every report builds ordered objects.
 using Json = nlohmann::ordered_json;
-
-// 0.0047 -> "4.70 m" + unit; keeps `digits` significant digits; "inf" for
-// infinity. A unit of "" gives a bare number with prefix.
-std::string si(double value, std::string_view unit, int digits = 4);
-
-// Decibels, degrees and percentages read best without an SI prefix
-// ("1.2 m°" would only confuse): fixed point, and a ratio as a percentage
-// with four significant digits.
-std::string fixed(double value, std::string_view unit, int decimals = 2);
-std::string percent(double ratio);
 
 // A table printed with columns aligned; the first column left-aligned, the
 // rest right-aligned.

@@ -14,6 +14,7 @@
 #include "analysis/transient.hpp"
 #include "devices/sources.hpp"
 #include "mna/system.hpp"
+#include "simulation/assemble.hpp"
 #include "simulation/simulation_access.hpp"
 #include "stage/errors.hpp"
 #include "stage/validate.hpp"
@@ -79,7 +80,7 @@ void check_request(const Circuit& circuit, const AnalysisOptions& options) {
 
 struct Simulation::State {
   explicit State(const Circuit& c)
-      : circuit(validated(c)), system(circuit), newton(system, circuit.solver) {
+      : circuit(validated(c)), system(assemble(circuit)), newton(system, circuit.solver) {
     solution.assign(static_cast<std::size_t>(system.size()) + 1, 0.0);
     counters.systems_built = 1;
   }

@@ -1,5 +1,5 @@
 // Small-signal drive and supply rails of a stage.
-#include "analysis/drive_setup.hpp"
+#include "large_signal/drive_setup.hpp"
 
 #include <cmath>
 

@@ -1,5 +1,5 @@
 // Energy taken by each element over a window of a transient.
-#include "analysis/energy_ledger.hpp"
+#include "large_signal/energy_ledger.hpp"
 
 #include <algorithm>
 

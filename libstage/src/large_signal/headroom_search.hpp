@@ -4,7 +4,7 @@
 // and build one system.
 #pragma once
 
-#include "analysis/sine_drive.hpp"
+#include "large_signal/sine_drive.hpp"
 #include "stage/headroom.hpp"
 
 namespace stage::analysis {

@@ -7,11 +7,11 @@
 #include <cmath>
 #include <limits>
 
-#include "analysis/drive_setup.hpp"
-#include "analysis/headroom_search.hpp"
-#include "analysis/sine_drive.hpp"
 #include "analysis/step_interpolant.hpp"
-#include "report/format.hpp"
+#include "common/si_format.hpp"
+#include "large_signal/drive_setup.hpp"
+#include "large_signal/headroom_search.hpp"
+#include "large_signal/sine_drive.hpp"
 #include "stage/errors.hpp"
 #include "stage/validate.hpp"
 
@@ -93,15 +93,14 @@ SwingPower swing_power(const Circuit& circuit, const analysis::SineDrive& drive,
   s.energy_residual = imbalance / std::max(std::abs(s.supply_power) + std::abs(s.drive_power),
                                            std::numeric_limits<double>::min());
   const auto figures = [&] {
-    return "supplies " + report::si(s.supply_power, "W") + ", drive " +
-           report::si(s.drive_power, "W") + ", load " + report::si(s.load_power, "W") +
-           ", dissipated " + report::si(s.dissipation, "W") + ", stored " +
-           report::si(s.stored_power, "W");
+    return "supplies " + text::si(s.supply_power, "W") + ", drive " + text::si(s.drive_power, "W") +
+           ", load " + text::si(s.load_power, "W") + ", dissipated " +
+           text::si(s.dissipation, "W") + ", stored " + text::si(s.stored_power, "W");
   };
   if (!(std::abs(s.energy_residual) <= kBalanceTolerance)) {
     throw NumericalError(ErrorKind::energy_imbalance,
                          "the " + row + " swing's powers do not balance (" + figures() +
-                             ", off by " + report::si(imbalance, "W") + ")",
+                             ", off by " + text::si(imbalance, "W") + ")",
                          {});
   }
   if (!(s.supply_power > 0)) {

@@ -1,5 +1,5 @@
 // Driving a stage with a sine and reading its last period.
-#include "analysis/sine_drive.hpp"
+#include "large_signal/sine_drive.hpp"
 
 #include <spdlog/spdlog.h>
 
@@ -7,9 +7,9 @@
 #include <limits>
 #include <optional>
 
-#include "analysis/energy_ledger.hpp"
 #include "analysis/step_interpolant.hpp"
 #include "analysis/transient.hpp"
+#include "large_signal/energy_ledger.hpp"
 #include "mna/system.hpp"
 #include "simulation/simulation_access.hpp"
 #include "stage/errors.hpp"

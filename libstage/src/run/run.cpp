@@ -7,6 +7,7 @@
 #include <algorithm>
 
 #include "mna/system.hpp"
+#include "simulation/assemble.hpp"
 #include "stage/errors.hpp"
 #include "stage/simulation.hpp"
 #include "stage/validate.hpp"
@@ -40,7 +41,7 @@ void check_deck(const Deck& deck) {
   }
   // The circuit's graph: floating nodes, loops of voltage sources, cut-sets
   // of current sources, found before anything runs (NumericalError).
-  const mna::System topology_checked(deck.circuit);
+  const mna::System topology_checked = stage::assemble(deck.circuit);
 }
 
 SweepResult run_parameter_sweep(const Deck& deck, const SweepOptions& options,

@@ -7,7 +7,7 @@
 #include <cmath>
 #include <complex>
 
-#include "analysis/drive_setup.hpp"
+#include "large_signal/drive_setup.hpp"
 #include "stage/errors.hpp"
 #include "stage/headroom.hpp"
 

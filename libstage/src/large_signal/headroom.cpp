@@ -15,11 +15,11 @@
 #include <set>
 #include <stdexcept>
 
-#include "analysis/drive_setup.hpp"
-#include "analysis/headroom_search.hpp"
-#include "analysis/sine_drive.hpp"
+#include "common/si_format.hpp"
+#include "large_signal/drive_setup.hpp"
+#include "large_signal/headroom_search.hpp"
+#include "large_signal/sine_drive.hpp"
 #include "mna/system.hpp"
-#include "report/format.hpp"
 #include "simulation/simulation_access.hpp"
 #include "stage/errors.hpp"
 #include "stage/frequency.hpp"
@@ -66,7 +66,7 @@ class Search {
     if (it != runs_.end()) return it->second;
     if (progress_) {
       progress_("headroom: run " + std::to_string(runs_.size() + 1) + ", input amplitude " +
-                report::si(amplitude, "V"));
+                text::si(amplitude, "V"));
     }
     if (static_cast<int>(runs_.size()) >= kMaxRuns) {
       throw NumericalError(
@@ -241,8 +241,8 @@ LimitCause classify(const mna::System& system, const BiasResult& bias, const Sta
     if (faded == nullptr || ratio(q) < ratio(*faded)) faded = &q;
   }
   const auto currents = [&](const BipolarOperatingPoint& q) {
-    return q.name + " collector current " + report::si(std::abs(q.collector_current), "A") +
-           " at the peak, " + report::si(std::abs(bias.bipolar(q.name).collector_current), "A") +
+    return q.name + " collector current " + text::si(std::abs(q.collector_current), "A") +
+           " at the peak, " + text::si(std::abs(bias.bipolar(q.name).collector_current), "A") +
            " at the bias point";
   };
   const std::string detail = blamed == nullptr ? "" : currents(*blamed);
@@ -262,8 +262,8 @@ LimitCause classify(const mna::System& system, const BiasResult& bias, const Sta
     const double biased = bias.diode(d.name).current;
     if (biased > 0 && d.current < kStarvedFraction * biased) {
       return {"current_limit", d.name,
-              d.name + " carries " + report::si(d.current, "A") + " at the peak, " +
-                  report::si(biased, "A") + " at the bias point"};
+              d.name + " carries " + text::si(d.current, "A") + " at the peak, " +
+                  text::si(biased, "A") + " at the bias point"};
     }
   }
   if (!taken_over) {
@@ -286,7 +286,7 @@ LimitCause classify(const mna::System& system, const BiasResult& bias, const Sta
   }
   if (blamed != nullptr && !taken_over) {
     return {"distortion", blamed->name,
-            detail + "; its incremental gain " + report::percent(std::expm1(blamed_score)) +
+            detail + "; its incremental gain " + text::percent(std::expm1(blamed_score)) +
                 " away from its small-signal value"};
   }
   return {"distortion", blamed == nullptr ? "" : blamed->name, detail};
@@ -472,12 +472,12 @@ HeadroomResult headroom_search(const Circuit& circuit, const SineDrive& drive,
       s.clip = {side_peak(positive, largest),
                 largest.amplitude,
                 {"drive_limit", options.input,
-                 "still growing at " + report::si(largest.amplitude, "V") +
+                 "still growing at " + text::si(largest.amplitude, "V") +
                      " of drive, the largest allowed"},
                 false};
       result.notes.push_back(
           std::string(name) + " side: still growing at the largest drive allowed (" +
-          report::si(largest.amplitude, "V") +
+          text::si(largest.amplitude, "V") +
           (rail_bound && largest.amplitude >= *rail_bound * (1 - 1e-9)
                ? ", what a driver on these rails can deliver: half the span between the lowest "
                  "and highest rail"
@@ -487,7 +487,7 @@ HeadroomResult headroom_search(const Circuit& circuit, const SineDrive& drive,
     const analysis::DriveMeasurement& clipped = search.runs().at(s.clip.input_amplitude);
     if (!clipped.settled) {
       result.notes.push_back(std::string(name) + " side: its clip level is approximate: at " +
-                             report::si(clipped.amplitude, "V") + " of drive, after " +
+                             text::si(clipped.amplitude, "V") + " of drive, after " +
                              std::to_string(clipped.periods) + " periods, " + clipped.unsettled);
     }
     if (const auto [ok, bad] = search.bracket(compression); ok != nullptr && bad != nullptr) {

@@ -1,0 +1,21 @@
+// Engineering notation for every message and report: SI prefixes, fixed
+// point and percentages. At the bottom of the layers, so that an analysis
+// can word a note with figures without reaching up into the reports.
+#pragma once
+
+#include <string>
+#include <string_view>
+
+namespace stage::text {
+
+// 0.0047 -> "4.70 m" + unit; keeps `digits` significant digits; "inf" for
+// infinity. A unit of "" gives a bare number with prefix.
+std::string si(double value, std::string_view unit, int digits = 4);
+
+// Decibels, degrees and percentages read best without an SI prefix
+// ("1.2 m°" would only confuse): fixed point, and a ratio as a percentage
+// with four significant digits.
+std::string fixed(double value, std::string_view unit, int decimals = 2);
+std::string percent(double ratio);
+
+}  // namespace stage::text

@@ -1,0 +1,25 @@
+// The one-shot analyses (run_bias, run_sweep, run_frequency, run_transient):
+// each a prepared simulation built for one call.
+#include "stage/bias.hpp"
+#include "stage/frequency.hpp"
+#include "stage/simulation.hpp"
+#include "stage/transient.hpp"
+
+namespace stage {
+
+BiasResult run_bias(const Circuit& circuit) { return Simulation(circuit).bias(); }
+
+SweepResult run_sweep(const Circuit& circuit, const SweepOptions& options,
+                      const ProgressCallback& progress) {
+  return Simulation(circuit).sweep(options, progress);
+}
+
+FrequencyResult run_frequency(const Circuit& circuit, const FrequencyOptions& options) {
+  return Simulation(circuit).frequency(options);
+}
+
+TransientResult run_transient(const Circuit& circuit, const TransientOptions& options) {
+  return Simulation(circuit).transient(options);
+}
+
+}  // namespace stage
