@@ -21,6 +21,7 @@ struct SignalRef {
   }
   // "out", "(p, n)" or "q1.current" as in the language.
   std::string label() const;
+  bool operator==(const SignalRef&) const = default;
 };
 
 }  // namespace stage

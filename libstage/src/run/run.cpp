@@ -6,6 +6,7 @@
 
 #include <algorithm>
 
+#include "common/si_format.hpp"
 #include "mna/system.hpp"
 #include "simulation/assemble.hpp"
 #include "stage/errors.hpp"
@@ -13,6 +14,30 @@
 #include "stage/validate.hpp"
 
 namespace stage {
+namespace {
+
+// Why a spectrum cannot read the transient before it, or nothing.
+std::optional<std::string> spectrum_error(const SpectrumOptions& spectrum,
+                                          const TransientOptions* transient) {
+  if (transient == nullptr) {
+    return "a spectrum analyses the transient before it: put an `analyze transient(...)` "
+           "statement first";
+  }
+  if (transient->stop - transient->from < 1 / spectrum.fundamental) {
+    return "the transient before it keeps less than one period of the fundamental: make its "
+           "stop at least " +
+           text::si(transient->from + 1 / spectrum.fundamental, "s");
+  }
+  const auto& kept = transient->signals;
+  if (!kept.empty() && std::find(kept.begin(), kept.end(), spectrum.signal) == kept.end()) {
+    return "the transient before it does not keep " + spectrum.signal.label() +
+           ": add it to its signals";
+  }
+  return std::nullopt;
+}
+
+}  // namespace
+
 void check_deck(const Deck& deck) {
   if (deck.analyses.empty()) {
     throw InputError({deck.file.string(), 0, 0},
@@ -25,19 +50,18 @@ void check_deck(const Deck& deck) {
         place != deck.places.end() ? place->second : SourceLocation{deck.file.string(), 0, 0};
     throw InputError(where, p->message, deck.line_text(where));
   }
-  bool transient_before = false;
+  const TransientOptions* transient_before = nullptr;
   for (const auto& statement : deck.analyses) {
-    if (std::holds_alternative<SpectrumOptions>(statement.options) && !transient_before) {
-      throw InputError(statement.where,
-                       "a spectrum analyses the transient before it: put an "
-                       "`analyze transient(...)` statement first",
-                       deck.line_text(statement.where));
+    const auto fail = [&](const std::string& message) {
+      throw InputError(statement.where, message, deck.line_text(statement.where));
+    };
+    if (auto p = validate(deck.circuit, statement.options)) fail(p->message);
+    if (const auto* spectrum = std::get_if<SpectrumOptions>(&statement.options)) {
+      if (auto why = spectrum_error(*spectrum, transient_before)) fail(*why);
     }
-    if (auto p = validate(deck.circuit, statement.options)) {
-      throw InputError(statement.where, p->message, deck.line_text(statement.where));
+    if (const auto* transient = std::get_if<TransientOptions>(&statement.options)) {
+      transient_before = transient;
     }
-    transient_before =
-        transient_before || std::holds_alternative<TransientOptions>(statement.options);
   }
   // The circuit's graph: floating nodes, loops of voltage sources, cut-sets
   // of current sources, found before anything runs (NumericalError).
