@@ -85,6 +85,12 @@ TEST(Validate, AnalysisOptionsAreCheckedForEveryRun) {
   stage::TransientOptions t;
   t.stop = kInf;
   EXPECT_EQ(stage::validate(c, t)->subject, "stop");
+  t.stop = 1.0;
+  t.max_step = 1e-12;  // 1e12 steps: bounded before it runs for days
+  EXPECT_EQ(stage::validate(c, t)->subject, "max_step");
+  t.max_step = 1e-6;
+  EXPECT_FALSE(stage::validate(c, t).has_value());
+  t.stop = kInf;
   EXPECT_THROW(stage::Simulation(c).transient(t), stage::Error);
   stage::SpectrumOptions s;
   s.harmonics = 100000;  // bounded: every harmonic costs a pass over the waveform

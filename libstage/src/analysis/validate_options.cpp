@@ -12,6 +12,7 @@ namespace {
 // run without end or exhaust memory (our own limits, written into the spec).
 constexpr double kMaxSweepPoints = 1e6;
 constexpr double kMaxResampledPoints = 1e7;
+constexpr double kMaxSteps = 1e8;  // stop / max_step: a run the step bound alone makes endless
 constexpr int kMaxHarmonics = 1000;
 
 std::optional<Problem> problem(std::string subject, std::string message) {
@@ -72,6 +73,9 @@ std::optional<Problem> check(const Circuit&, const TransientOptions& o) {
   }
   if (!(std::isfinite(o.max_step) && o.max_step >= 0)) {
     return problem("max_step", "max_step must be zero (chosen for you) or positive, and finite");
+  }
+  if (o.max_step > 0 && o.stop / o.max_step > kMaxSteps) {
+    return problem("max_step", "max_step asks for more than 100000000 steps up to stop");
   }
   if (o.resample_step) {
     if (!positive_finite(*o.resample_step)) {
