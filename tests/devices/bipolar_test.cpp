@@ -191,4 +191,12 @@ TEST(BipolarClosedForm, ReportInForwardActivity) {
   EXPECT_EQ(report(BipolarModel{}, -5, 0.65).region, stage::Region::reverse_active);
 }
 
+// The names every report writes for the regions are those of spec section 7.
+TEST(BipolarRegion, NamesOfTheSpec) {
+  EXPECT_EQ(to_string(stage::Region::forward_active), "forward_active");
+  EXPECT_EQ(to_string(stage::Region::saturation), "saturation");
+  EXPECT_EQ(to_string(stage::Region::cutoff), "cutoff");
+  EXPECT_EQ(to_string(stage::Region::reverse_active), "reverse_active");
+}
+
 }  // namespace
