@@ -22,7 +22,7 @@ int main() {
   const auto& q1 = bias.bipolar("q1");
   std::cout << follower.title << "\n"
             << "  v(out)        " << bias.voltage("out") << " V\n"
-            << "  q1 region     " << q1.region << "\n"
+            << "  q1 region     " << to_string(q1.region) << "\n"
             << "  q1 collector  " << q1.collector_current * 1e3 << " mA\n"
             << "  q1 gm         " << q1.gm * 1e3 << " mS\n"
             << "  q1 power      " << q1.power * 1e3 << " mW\n"

@@ -175,7 +175,7 @@ TEST(BipolarClosedForm, PnpMirrorsNpnExactly) {
   EXPECT_LT(op.collector_current, 0);
   EXPECT_LT(op.vbe, 0);
   EXPECT_GT(op.gm, 0);
-  EXPECT_EQ(op.region, "forward_active");
+  EXPECT_EQ(op.region, stage::Region::forward_active);
 }
 
 // Small-signal figures of the Ebers–Moll model in forward activity:
@@ -185,10 +185,18 @@ TEST(BipolarClosedForm, ReportInForwardActivity) {
   EXPECT_NEAR(op.gm, op.collector_current / kVt, 1e-9 * op.gm);
   EXPECT_NEAR(op.r_pi, 100 / op.gm, 1e-9 * op.r_pi);
   EXPECT_NEAR(op.power, op.collector_current * 5.65 + op.base_current * 0.65, 1e-12 * op.power);
-  EXPECT_EQ(op.region, "forward_active");
-  EXPECT_EQ(report(BipolarModel{}, 0.7, 0.6).region, "saturation");
-  EXPECT_EQ(report(BipolarModel{}, 0.1, -5).region, "cutoff");
-  EXPECT_EQ(report(BipolarModel{}, -5, 0.65).region, "reverse_active");
+  EXPECT_EQ(op.region, stage::Region::forward_active);
+  EXPECT_EQ(report(BipolarModel{}, 0.7, 0.6).region, stage::Region::saturation);
+  EXPECT_EQ(report(BipolarModel{}, 0.1, -5).region, stage::Region::cutoff);
+  EXPECT_EQ(report(BipolarModel{}, -5, 0.65).region, stage::Region::reverse_active);
+}
+
+// The names every report writes for the regions are those of spec section 7.
+TEST(BipolarRegion, NamesOfTheSpec) {
+  EXPECT_EQ(to_string(stage::Region::forward_active), "forward_active");
+  EXPECT_EQ(to_string(stage::Region::saturation), "saturation");
+  EXPECT_EQ(to_string(stage::Region::cutoff), "cutoff");
+  EXPECT_EQ(to_string(stage::Region::reverse_active), "reverse_active");
 }
 
 }  // namespace

@@ -62,7 +62,7 @@ TEST(BipolarCircuit, SaturationVoltageAgainstForcedBeta) {
     const auto bias = stage::run_bias(c);
     const double vce = kVt * std::log((1 + (forced + 1) / 2) / (1 - forced / 100));
     EXPECT_NEAR(bias.voltage("c"), vce, 1e-6) << forced;
-    EXPECT_EQ(bias.bipolar("q1").region, "saturation");
+    EXPECT_EQ(bias.bipolar("q1").region, stage::Region::saturation);
   }
 }
 
@@ -91,7 +91,7 @@ TEST(BipolarCircuit, EmitterFollowerByHand) {
   // moves IC by IC * 1 uV / VT ~ 4e-5 relative at most.
   EXPECT_NEAR(op.collector_current, ie * 100 / 101, 4e-5 * ie);
   EXPECT_NEAR(op.gm, op.collector_current / kVt, 1e-6 * op.gm);
-  EXPECT_EQ(op.region, "forward_active");
+  EXPECT_EQ(op.region, stage::Region::forward_active);
   EXPECT_NEAR(op.power, op.collector_current * op.vce + op.base_current * op.vbe, 1e-9 * op.power);
 }
 

@@ -89,9 +89,9 @@ TEST(CommonEmitterHand, BiasPointAgainstThevenin) {
             << hand.ie << " A, IC " << hand.ic << " A, VC " << hand.vc << " V\n"
             << "simulated: VBE " << q.vbe << " V, IE " << ie << " A, IC " << q.collector_current
             << " A, VC " << bias.voltage("c") << " V, VB " << bias.voltage("b") << " V, VE "
-            << bias.voltage("e") << " V, region " << q.region << ", method "
+            << bias.voltage("e") << " V, region " << to_string(q.region) << ", method "
             << stage::to_string(bias.method) << ", " << bias.newton_iterations << " iterations\n";
-  ASSERT_EQ(q.region, "forward_active");
+  ASSERT_EQ(q.region, stage::Region::forward_active);
 
   // The hand analysis' one large error is VBE = 0.7 V against the model's
   // VT ln(IC / IS): at about 1.3 mA and IS = 1e-14 A that is 0.66 V, and the

@@ -122,10 +122,10 @@ TEST(Homotopy, LatchHeldSet) {
   const auto& q1 = r.bipolar("q1");
   const auto& q2 = r.bipolar("q2");
   std::cout << "latch: v(c1) " << r.voltage("c1") << " V, v(c2) " << r.voltage("c2") << " V, Q1 "
-            << q1.region << " IC " << q1.collector_current << " A IB " << q1.base_current
-            << " A, Q2 " << q2.region << "\n";
-  EXPECT_EQ(q1.region, "saturation");
-  EXPECT_EQ(q2.region, "cutoff");
+            << to_string(q1.region) << " IC " << q1.collector_current << " A IB " << q1.base_current
+            << " A, Q2 " << to_string(q2.region) << "\n";
+  EXPECT_EQ(q1.region, stage::Region::saturation);
+  EXPECT_EQ(q2.region, stage::Region::cutoff);
 
   // Q2 off, so RC2 carries only Q1's base current through RB1: by the
   // divider, v(c2) = (VCC RB + VBE1 RC) / (RB + RC) (hand analysis), with the
@@ -185,8 +185,8 @@ TEST(Homotopy, VeryLargeBaseResistor) {
   const auto& op = r.bipolar("q1");
   std::cout << "large base resistor: hand IC " << ic << " A, VBE " << vbe << " V, VC "
             << kVcc - ic * kRc << " V; simulated IC " << op.collector_current << " A, VBE "
-            << op.vbe << " V, VC " << r.voltage("c") << " V, " << op.region << "\n";
-  EXPECT_EQ(op.region, "forward_active");
+            << op.vbe << " V, VC " << r.voltage("c") << " V, " << to_string(op.region) << "\n";
+  EXPECT_EQ(op.region, stage::Region::forward_active);
   // The hand formulas leave out the reverse-junction terms, of order IS =
   // 1e-16 A against the 1.1 nA base current (1e-7 relative); with Newton's
   // stopping error as above, 1e-6.

@@ -49,8 +49,8 @@ TEST(ModelLibrary, ComplementaryPairBiasesAPushPullFollower) {
   c.add("r2", stage::Resistor{"out", "eb", 0.22});
   c.add("rl", stage::Resistor{"out", "gnd", 8});
   const auto bias = stage::run_bias(c);
-  EXPECT_EQ(bias.bipolar("q1").region, "forward_active");
-  EXPECT_EQ(bias.bipolar("q2").region, "forward_active");
+  EXPECT_EQ(bias.bipolar("q1").region, stage::Region::forward_active);
+  EXPECT_EQ(bias.bipolar("q2").region, stage::Region::forward_active);
   EXPECT_GT(bias.bipolar("q1").collector_current, 1e-3);
   EXPECT_LT(bias.bipolar("q2").collector_current, -1e-3);
   EXPECT_NEAR(bias.voltage("out"), 0, 0.05);

@@ -67,7 +67,7 @@ Circuit follower() {
 TEST(TransistorStages, EmitterFollower) {
   const auto r = stage::run_frequency(follower(), options("e", "rl"));
   const auto& q = r.bias.bipolar("q1");
-  ASSERT_EQ(q.region, "forward_active");
+  ASSERT_EQ(q.region, stage::Region::forward_active);
   const double gm = q.gm, rpi = q.r_pi, ro = q.r_out, beta = gm * rpi;
   const double re_load = parallel(parallel(kRe, kRl), ro);  // R'E, r_o to the AC-grounded collector
   // Hybrid-pi: looking into the base, r_pi + (1 + gm r_pi) R'E.
@@ -115,7 +115,7 @@ Circuit common_emitter(bool with_capacitances) {
 TEST(TransistorStages, CommonEmitterMidband) {
   const auto r = stage::run_frequency(common_emitter(false), options("c", "rl"));
   const auto& q = r.bias.bipolar("q1");
-  ASSERT_EQ(q.region, "forward_active");
+  ASSERT_EQ(q.region, stage::Region::forward_active);
   const double rb = parallel(150e3, 10e3);
   const double r_in_base = parallel(rb, q.r_pi);
   const double r_load = parallel(parallel(kRc, kRl), q.r_out);  // R'L

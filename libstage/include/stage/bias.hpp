@@ -2,7 +2,7 @@
 // options, results and the functions that run them.
 //
 //   stage::BiasResult op = stage::run_bias(circuit);
-//   for (const auto& q : op.bipolars) std::cout << q.name << " " << q.region;
+//   for (const auto& q : op.bipolars) std::cout << q.name << " " << to_string(q.region);
 #pragma once
 
 #include <map>
@@ -15,12 +15,17 @@
 
 namespace stage {
 
+// Where a bipolar transistor operates, by its internal junctions: only B-E
+// conducting (forward_active), both (saturation), only B-C (reverse_active),
+// neither (cutoff). to_string gives the names of spec section 7.
+enum class Region { forward_active, saturation, cutoff, reverse_active };
+
 // One transistor at the bias point. Currents flow into the device at that
 // terminal; voltages are terminal voltages (spec section 7).
 struct BipolarOperatingPoint {
   std::string name;
   Polarity polarity = Polarity::npn;
-  std::string region;  // forward_active, saturation, cutoff, reverse_active
+  Region region = Region::cutoff;
   double collector_current = 0, base_current = 0, emitter_current = 0;
   double vbe = 0, vce = 0, vbc = 0;
   double gm = 0;                        // dIC/dVBE (S)
@@ -93,5 +98,6 @@ SweepResult run_sweep(const Circuit& circuit, const SweepOptions& options,
                       const ProgressCallback& progress = {});
 
 std::string_view to_string(BiasMethod method);
+std::string_view to_string(Region region);
 
 }  // namespace stage

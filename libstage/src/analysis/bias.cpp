@@ -55,4 +55,18 @@ std::string_view to_string(BiasMethod method) {
   return "newton";
 }
 
+std::string_view to_string(Region region) {
+  switch (region) {
+    case Region::forward_active:
+      return "forward_active";
+    case Region::saturation:
+      return "saturation";
+    case Region::cutoff:
+      return "cutoff";
+    case Region::reverse_active:
+      return "reverse_active";
+  }
+  return "cutoff";
+}
+
 }  // namespace stage

@@ -13,7 +13,6 @@
 #include "analysis/frequency_figures.hpp"
 #include "analysis/frequency_response.hpp"
 #include "analysis/small_signal.hpp"
-#include "devices/sources.hpp"
 
 namespace stage {
 namespace {
@@ -97,13 +96,13 @@ Sweep::Sweep(const Circuit& circuit, const FrequencyOptions& options, SmallSigna
   // Every source with an AC value drives at once (superposition).
   std::vector<std::string> others;
   for (const auto& device : system_.devices()) {
-    const auto* source = dynamic_cast<const devices::IndependentSource*>(device.get());
+    const mna::SourceAccess* source = device->source();
     if (source == nullptr) continue;
-    source->ac_excitation(drive_.data());
-    if (source->name() == options.input) {
-      input_phasor_ = source->value().phasor();
-    } else if (source->value().phasor() != 0.0) {
-      others.push_back(source->name());
+    device->ac_excitation(drive_.data());
+    if (device->name() == options.input) {
+      input_phasor_ = source->phasor();
+    } else if (source->phasor() != 0.0) {
+      others.push_back(device->name());
     }
   }
   if (!others.empty()) {
@@ -114,16 +113,18 @@ Sweep::Sweep(const Circuit& circuit, const FrequencyOptions& options, SmallSigna
                     options.input);
   }
 
-  // The input alone at a unit phasor, for the impedance it sees.
-  mna::Device* input = system_.find_device(options.input);
-  if (const auto* v = dynamic_cast<const devices::VoltageSourceDevice*>(input)) {
-    input_unit_[v->branch()] = 1.0;
-    input_reading_.terms.push_back({v->branch(), 1.0, 0.0});
+  // The input alone at a unit phasor, for the impedance it sees: a voltage
+  // source's unit value on its branch row, read back as the current it
+  // delivers; a current source's unit current into `out`, read back as the
+  // voltage it sees. The options were checked: the input is a source.
+  const auto input = system_.find_device(options.input)->source()->ports();
+  if (input.drives == mna::SourceAccess::Drives::voltage) {
+    input_unit_[input.branch] = 1.0;
+    input_reading_.terms.push_back({input.branch, 1.0, 0.0});
   } else {
-    const auto* i = dynamic_cast<const devices::CurrentSourceDevice*>(input);
-    input_unit_[i->a()] -= 1.0;
-    input_unit_[i->b()] += 1.0;
-    input_reading_ = Probe::voltage(i->b(), i->a());  // the source pushes current into b
+    input_unit_[input.out] += 1.0;
+    input_unit_[input.back] -= 1.0;
+    input_reading_ = Probe::voltage(input.out, input.back);
     input_is_voltage_ = false;
   }
 

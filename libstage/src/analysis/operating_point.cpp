@@ -10,7 +10,6 @@
 #include <optional>
 
 #include "analysis/model_range.hpp"
-#include "devices/sources.hpp"
 #include "stage/errors.hpp"
 
 namespace stage::analysis {
@@ -268,12 +267,9 @@ BiasResult describe_operating_point(const mna::System& system, const std::vector
     if (const auto current = device->reported_current(at)) {
       result.element_currents.emplace_back(device->name() + ".current", *current);
     }
-    if (const auto* v = dynamic_cast<const devices::VoltageSourceDevice*>(device.get())) {
-      const double i = x[v->branch()];
-      result.supplies.push_back({v->name(), i, i * (x[v->p()] - x[v->n()])});
-    } else if (const auto* c = dynamic_cast<const devices::CurrentSourceDevice*>(device.get())) {
-      const double i = c->value().at(at);
-      result.supplies.push_back({c->name(), i, i * (x[c->b()] - x[c->a()])});
+    if (const mna::SourceAccess* source = device->source()) {
+      result.supplies.push_back(
+          {device->name(), source->delivered_current(at), source->delivered_power(at)});
     }
   }
   result.bipolars = std::move(report.bipolars);

@@ -3,8 +3,9 @@
 // start = bias: the DC operating point with sources at their DC (t = 0)
 // value; every charge is then constant, so q' = 0.
 //
-// start = zero: the wanted charges q0 are those of the zero state plus each
-// capacitor's initial voltage and each inductor's initial current. The other
+// start = zero: the wanted charges q0 are those of the zero state plus what
+// each device holds at its initial condition (Device::initial_condition: a
+// capacitor's initial voltage, an inductor's initial current). The other
 // unknowns (resistive node voltages, source currents) must still satisfy the
 // circuit at t = 0. Both come from one backward-Euler step of a very short
 // length tau from the charges q0:  f(x, 0) + (q(x) - q0) / tau = 0.
@@ -26,7 +27,6 @@
 #include "analysis/transient_start.hpp"
 
 #include "analysis/operating_point.hpp"
-#include "devices/passive.hpp"
 #include "stage/errors.hpp"
 
 namespace stage::analysis {
@@ -34,15 +34,15 @@ namespace {
 
 constexpr double kConsistencyFraction = 1e-9;  // tau over the run's length
 
-// Adds the charge of one element held at its initial value: the device
-// evaluated alone at a point where only its own terminals are set.
-void add_initial_charge(const mna::System& system, mna::Device& device, mna::Index a, mna::Index b,
-                        double value, std::vector<double>& q0) {
+// Adds the charge of one element held at its initial condition: the device
+// evaluated alone at a point where only that condition's unknowns are set.
+void add_initial_charge(const mna::System& system, mna::Device& device,
+                        const mna::InitialCondition& held, std::vector<double>& q0) {
   std::vector<double> x(q0.size(), 0.0);
-  if (a != mna::kGroundIndex) {
-    x[a] = value;
+  if (held.plus != mna::kGroundIndex) {
+    x[held.plus] = held.value;
   } else {
-    x[b] = -value;
+    x[held.minus] = -held.value;
   }
   mna::Workspace w = system.make_workspace();
   auto out = w.output();
@@ -56,12 +56,7 @@ std::vector<double> initial_charges(const mna::System& system) {
   system.evaluate(system.request(zero.data()), w);
   std::vector<double> q0 = w.q;
   for (const auto& d : system.devices()) {
-    if (auto* c = dynamic_cast<devices::CapacitorDevice*>(d.get()); c && c->initial_voltage()) {
-      add_initial_charge(system, *c, c->a(), c->b(), *c->initial_voltage(), q0);
-    } else if (auto* l = dynamic_cast<devices::InductorDevice*>(d.get());
-               l && l->initial_current()) {
-      add_initial_charge(system, *l, l->branch(), mna::kGroundIndex, *l->initial_current(), q0);
-    }
+    if (const auto held = d->initial_condition()) add_initial_charge(system, *d, *held, q0);
   }
   return q0;
 }

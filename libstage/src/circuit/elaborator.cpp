@@ -3,6 +3,7 @@
 // block instances, analyses; then the references that could point forward.
 #include "circuit/elaborator.hpp"
 
+#include <algorithm>
 #include <cmath>
 
 #include "reader/suggest.hpp"
@@ -14,9 +15,6 @@ namespace x3 = boost::spirit::x3;
 namespace {
 // Deeper block nesting than this is surely a mistake; it also bounds recursion.
 constexpr std::size_t kMaxBlockDepth = 50;
-const std::set<std::string> kElementKinds{"resistor", "capacitor", "inductor", "voltage",
-                                          "current",  "vcvs",      "vccs",     "cccs",
-                                          "ccvs",     "diode",     "npn",      "pnp"};
 }  // namespace
 
 Deck elaborate(std::shared_ptr<const SyntaxTree> tree, const ReadOptions& options) {
@@ -56,7 +54,8 @@ void Elaborator::collect_blocks(const File& file) {
   for (const ast::Statement& statement : file.ast.statements) {
     if (const auto* b = boost::get<x3::forward_ast<ast::Block>>(&statement)) {
       const ast::Block& block = b->get();
-      if (kElementKinds.count(block.name)) {
+      if (std::find(kElementKinds.begin(), kElementKinds.end(), block.name) !=
+          kElementKinds.end()) {
         file.source.fail(block.offset,
                          "a block cannot be named like the element kind '" + block.name + "'");
       }

@@ -6,9 +6,11 @@
 // InputErrors at the place in the text that caused them.
 #pragma once
 
+#include <array>
 #include <map>
 #include <set>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "circuit/arguments.hpp"
@@ -17,6 +19,12 @@
 #include "stage/reader.hpp"
 
 namespace stage::elaborate {
+
+// The language's element kinds (spec section 3): what an element statement
+// may call besides a block, and what a block may not be named.
+inline constexpr std::array<std::string_view, 12> kElementKinds{
+    "resistor", "capacitor", "inductor", "voltage", "current", "vcvs",
+    "vccs",     "cccs",      "ccvs",     "diode",   "npn",     "pnp"};
 
 Deck elaborate(std::shared_ptr<const SyntaxTree> tree, const ReadOptions& options);
 

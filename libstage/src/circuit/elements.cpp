@@ -161,9 +161,7 @@ void Elaborator::element(const ast::Instance& instance, const Frame& frame) {
     if (args.get("area")) q.area = positive(args, "area", Quantity::dimensionless, "");
     data = q;
   } else {
-    std::vector<std::string> kinds{"resistor", "capacitor", "inductor", "voltage",
-                                   "current",  "vcvs",      "vccs",     "cccs",
-                                   "ccvs",     "diode",     "npn",      "pnp"};
+    std::vector<std::string> kinds(kElementKinds.begin(), kElementKinds.end());
     for (const auto& [block, where] : blocks_) kinds.push_back(block);
     source.fail(instance.call.offset,
                 "unknown element kind or block '" + kind + "'" + reader::suggestion(kind, kinds));

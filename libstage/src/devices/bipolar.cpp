@@ -87,10 +87,10 @@ System local_system(const BipolarParameters& p, double pol, const std::array<dou
 
 // Region by the internal junctions: forward_active when only B-E conducts,
 // saturation when both do, reverse_active when only B-C does, else cutoff.
-std::string region(JunctionVoltages v) {
+Region region(JunctionVoltages v) {
   const bool be = v.vbe > kConductionEdge, bc = v.vbc > kConductionEdge;
-  if (be) return bc ? "saturation" : "forward_active";
-  return bc ? "reverse_active" : "cutoff";
+  if (be) return bc ? Region::saturation : Region::forward_active;
+  return bc ? Region::reverse_active : Region::cutoff;
 }
 
 class BipolarDevice final : public mna::Device {

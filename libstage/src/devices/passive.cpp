@@ -60,6 +60,11 @@ void CapacitorDevice::describe_topology(mna::TopologyCheck& check) const {
   check.capacitive(a_, b_, name());
 }
 
+std::optional<mna::InitialCondition> CapacitorDevice::initial_condition() const {
+  if (!initial_voltage_) return std::nullopt;
+  return mna::InitialCondition{a_, b_, *initial_voltage_};
+}
+
 InductorDevice::InductorDevice(std::string name, mna::Index a, mna::Index b, mna::Index branch,
                                double inductance, std::optional<double> initial_current)
     : Device(std::move(name)),
@@ -95,6 +100,11 @@ void InductorDevice::describe_topology(mna::TopologyCheck& check) const {
 
 std::optional<double> InductorDevice::reported_current(const mna::EvalRequest& at) const {
   return at.x[k_];
+}
+
+std::optional<mna::InitialCondition> InductorDevice::initial_condition() const {
+  if (!initial_current_) return std::nullopt;
+  return mna::InitialCondition{k_, mna::kGroundIndex, *initial_current_};
 }
 
 }  // namespace stage::devices

@@ -29,9 +29,8 @@ class CapacitorDevice final : public mna::Device {
   bool set_value(double capacitance) override;
   void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
   void describe_topology(mna::TopologyCheck& check) const override;
-  std::optional<double> initial_voltage() const { return initial_voltage_; }
-  mna::Index a() const { return a_; }
-  mna::Index b() const { return b_; }
+  // Its initial voltage, v(a) - v(b), when one was given.
+  std::optional<mna::InitialCondition> initial_condition() const override;
 
  private:
   mna::Index a_, b_;
@@ -52,7 +51,8 @@ class InductorDevice final : public mna::Device {
   void describe_topology(mna::TopologyCheck& check) const override;
   std::optional<double> reported_current(const mna::EvalRequest& at) const override;
   mna::Index branch() const override { return k_; }
-  std::optional<double> initial_current() const { return initial_current_; }
+  // Its initial current, a to b through it, on its branch row, when one was given.
+  std::optional<mna::InitialCondition> initial_condition() const override;
 
  private:
   mna::Index a_, b_, k_;

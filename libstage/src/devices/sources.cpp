@@ -22,6 +22,12 @@ void IndependentSource::corners(double from, double to, std::vector<double>& out
   if (value_.wave()) waveform_corners(*value_.wave(), from, to, out);
 }
 
+// Both kinds deliver their current out of `out` and take it back at `back`.
+double IndependentSource::delivered_power(const mna::EvalRequest& at) const {
+  const Ports where = ports();
+  return delivered_current(at) * (at.x[where.out] - at.x[where.back]);
+}
+
 VoltageSourceDevice::VoltageSourceDevice(std::string name, mna::Index p, mna::Index n,
                                          mna::Index branch, SourceValue value)
     : IndependentSource(std::move(name), std::move(value)), p_(p), n_(n), k_(branch) {}
@@ -44,10 +50,6 @@ void VoltageSourceDevice::describe_topology(mna::TopologyCheck& check) const {
   check.fixes_voltage(p_, n_, name());
 }
 
-std::optional<double> VoltageSourceDevice::reported_current(const mna::EvalRequest& at) const {
-  return at.x[k_];
-}
-
 CurrentSourceDevice::CurrentSourceDevice(std::string name, mna::Index a, mna::Index b,
                                          SourceValue value)
     : IndependentSource(std::move(name), std::move(value)), a_(a), b_(b) {}
@@ -65,10 +67,6 @@ void CurrentSourceDevice::ac_excitation(std::complex<double>* b) const {
 
 void CurrentSourceDevice::describe_topology(mna::TopologyCheck& check) const {
   check.forces_current(a_, b_, name());
-}
-
-std::optional<double> CurrentSourceDevice::reported_current(const mna::EvalRequest& at) const {
-  return value_.at(at);
 }
 
 }  // namespace stage::devices

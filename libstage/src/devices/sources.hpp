@@ -27,13 +27,12 @@ class SourceValue {
   std::complex<double> phasor_;
 };
 
-// Common face of both sources, for sweeps and drives that change their value.
-class IndependentSource : public mna::Device {
+// Common face of both sources: the value that set_value and set_waveform
+// change, and the source capability the analyses read (mna::SourceAccess).
+class IndependentSource : public mna::Device, public mna::SourceAccess {
  public:
   IndependentSource(std::string name, SourceValue value)
       : Device(std::move(name)), value_(std::move(value)) {}
-  SourceValue& value() { return value_; }
-  const SourceValue& value() const { return value_; }
   // A source's own value is its DC value.
   bool set_value(double dc) override {
     value_.set_dc(dc);
@@ -44,6 +43,13 @@ class IndependentSource : public mna::Device {
     return true;
   }
   void corners(double from, double to, std::vector<double>& out) const override;
+  const mna::SourceAccess* source() const override { return this; }
+  double value(const mna::EvalRequest& at) const override { return value_.at(at); }
+  std::complex<double> phasor() const override { return value_.phasor(); }
+  std::optional<double> reported_current(const mna::EvalRequest& at) const override {
+    return delivered_current(at);
+  }
+  double delivered_power(const mna::EvalRequest& at) const override;
 
  protected:
   SourceValue value_;
@@ -59,10 +65,9 @@ class VoltageSourceDevice final : public IndependentSource {
   void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
   void ac_excitation(std::complex<double>* b) const override;
   void describe_topology(mna::TopologyCheck& check) const override;
-  std::optional<double> reported_current(const mna::EvalRequest& at) const override;
   mna::Index branch() const override { return k_; }
-  mna::Index p() const { return p_; }
-  mna::Index n() const { return n_; }
+  Ports ports() const override { return {Drives::voltage, p_, n_, k_}; }
+  double delivered_current(const mna::EvalRequest& at) const override { return at.x[k_]; }
 
  private:
   mna::Index p_, n_, k_;
@@ -77,9 +82,8 @@ class CurrentSourceDevice final : public IndependentSource {
   void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
   void ac_excitation(std::complex<double>* b) const override;
   void describe_topology(mna::TopologyCheck& check) const override;
-  std::optional<double> reported_current(const mna::EvalRequest& at) const override;
-  mna::Index a() const { return a_; }
-  mna::Index b() const { return b_; }
+  Ports ports() const override { return {Drives::current, b_, a_, mna::kGroundIndex}; }
+  double delivered_current(const mna::EvalRequest& at) const override { return value_.at(at); }
 
  private:
   mna::Index a_, b_;

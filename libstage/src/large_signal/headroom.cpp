@@ -248,7 +248,7 @@ LimitCause classify(const mna::System& system, const BiasResult& bias, const Sta
   const std::string detail = blamed == nullptr ? "" : currents(*blamed);
 
   for (const auto& q : report.bipolars) {
-    if (q.region == "saturation" && bias.bipolar(q.name).region != "saturation") {
+    if (q.region == Region::saturation && bias.bipolar(q.name).region != Region::saturation) {
       return {"saturation", q.name, detail};
     }
   }
@@ -268,7 +268,7 @@ LimitCause classify(const mna::System& system, const BiasResult& bias, const Sta
   }
   if (!taken_over) {
     for (const auto& fading : report.bipolars) {
-      if (fading.region == "cutoff" || ratio(fading) >= 1) continue;
+      if (fading.region == Region::cutoff || ratio(fading) >= 1) continue;
       for (const auto& rising : report.bipolars) {
         if (ratio(rising) > 1 && facts.paired(fading.name, rising.name)) {
           return {"crossover", fading.name, currents(fading) + "; " + currents(rising)};
@@ -276,7 +276,7 @@ LimitCause classify(const mna::System& system, const BiasResult& bias, const Sta
       }
     }
     for (const auto& q : report.bipolars) {
-      if (q.region == "cutoff" && bias.bipolar(q.name).region != "cutoff") {
+      if (q.region == Region::cutoff && bias.bipolar(q.name).region != Region::cutoff) {
         return {"cutoff", q.name, currents(q)};
       }
     }

@@ -93,6 +93,55 @@ struct ModelRangeFindings {
   std::vector<ModelRangeFinding> extrapolated;
 };
 
+// What an independent source offers the analyses, so that none of them needs
+// its concrete class: the frequency response drives and reads its input
+// through it, the bias report takes the supply powers from it.
+//
+// Every source delivers its current out of one node (`ports().out`) into the
+// circuit and takes it back at another (`ports().back`): a voltage source's
+// positive and negative nodes, a current source's second and first
+// terminals (spec section 3). Power delivered is then the delivered current
+// times x[out] - x[back]; negative when the source absorbs.
+class SourceAccess {
+ public:
+  enum class Drives { voltage, current };
+  struct Ports {
+    Drives drives = Drives::voltage;
+    Index out = kGroundIndex;
+    Index back = kGroundIndex;
+    // The row of the delivered current for a voltage source (its branch
+    // unknown); kGroundIndex for a current source, whose current is its value.
+    Index branch = kGroundIndex;
+  };
+
+  virtual Ports ports() const = 0;
+  // Its own value (V or A) at an evaluation: the DC value, or the waveform
+  // at request.time, times request.source_scale; the same value evaluate()
+  // stamps.
+  virtual double value(const EvalRequest& at) const = 0;
+  // Its small-signal phasor (V or A); zero when it has no AC value.
+  virtual std::complex<double> phasor() const = 0;
+  // The current it delivers into the circuit at solution at.x (spec
+  // section 3's sign convention: its reported current).
+  virtual double delivered_current(const EvalRequest& at) const = 0;
+  // The power it delivers into the circuit at solution at.x (W).
+  virtual double delivered_power(const EvalRequest& at) const = 0;
+
+ protected:
+  ~SourceAccess() = default;
+};
+
+// A state an element holds at the start of a transient from given
+// conditions (`start = zero`): unknowns x[plus] - x[minus] equal to value.
+// A capacitor's initial voltage across its nodes; an inductor's initial
+// current on its branch row (minus is ground). The zero start evaluates the
+// device alone at such a point to learn the charge (or flux) it holds there.
+struct InitialCondition {
+  Index plus = kGroundIndex;
+  Index minus = kGroundIndex;
+  double value = 0;
+};
+
 class Device {
  public:
   explicit Device(std::string name) : name_(std::move(name)) {}
@@ -152,6 +201,14 @@ class Device {
   // Called once per accepted solution, so it may allocate when it finds
   // something, never otherwise.
   virtual void check_model_range(const EvalRequest& /*at*/, ModelRangeFindings& /*out*/) const {}
+
+  // The source capability of an independent source (see SourceAccess);
+  // nullptr for every other kind. Valid as long as the device lives.
+  virtual const SourceAccess* source() const { return nullptr; }
+
+  // The state this element was given for a transient that starts from
+  // given conditions; nothing for elements without one (or not given one).
+  virtual std::optional<InitialCondition> initial_condition() const { return std::nullopt; }
 
   // Row of the branch current this device owns, if it has one (voltage
   // sources and inductors; current-controlled sources sense it).

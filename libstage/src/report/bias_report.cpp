@@ -11,7 +11,7 @@ Json number(double value) { return std::isfinite(value) ? Json(value) : Json(nul
 
 Json bipolar_json(const BipolarOperatingPoint& q) {
   return Json{{"kind", q.polarity == Polarity::npn ? "npn" : "pnp"},
-              {"region", q.region},
+              {"region", std::string(to_string(q.region))},
               {"collector_current", q.collector_current},
               {"base_current", q.base_current},
               {"emitter_current", q.emitter_current},
@@ -88,10 +88,10 @@ void print_table(std::ostream& out, const BiasResult& r) {
     TextTable t(
         {"transistor", "type", "region", "IC", "IB", "VBE", "VCE", "gm", "r_pi", "r_out", "power"});
     for (const auto& q : r.bipolars) {
-      t.add_row({q.name, q.polarity == Polarity::npn ? "npn" : "pnp", q.region,
-                 si(q.collector_current, "A"), si(q.base_current, "A"), si(q.vbe, "V"),
-                 si(q.vce, "V"), si(q.gm, "S"), si(q.r_pi, "Ω"), si(q.r_out, "Ω"),
-                 si(q.power, "W")});
+      t.add_row({q.name, q.polarity == Polarity::npn ? "npn" : "pnp",
+                 std::string(to_string(q.region)), si(q.collector_current, "A"),
+                 si(q.base_current, "A"), si(q.vbe, "V"), si(q.vce, "V"), si(q.gm, "S"),
+                 si(q.r_pi, "Ω"), si(q.r_out, "Ω"), si(q.power, "W")});
     }
     t.print(out);
   }

@@ -12,7 +12,6 @@
 #include "analysis/newton.hpp"
 #include "analysis/operating_point.hpp"
 #include "analysis/transient.hpp"
-#include "devices/sources.hpp"
 #include "mna/system.hpp"
 #include "simulation/assemble.hpp"
 #include "simulation/simulation_access.hpp"
