@@ -125,6 +125,26 @@ TEST(Simulation, SweepLeavesTheSourceAsItWas) {
   EXPECT_EQ(simulation.counters().systems_built, 1);
 }
 
+// A sweep that fails part-way (1 mA forced backwards through a diode has no
+// solution: its reverse current cannot exceed IS, Shockley) still leaves the
+// source at its own value, so the simulation is the circuit it was given.
+TEST(Simulation, FailedSweepLeavesTheSourceAsItWas) {
+  Circuit c;
+  stage::DiodeModel d;
+  d.saturation_current = 1e-14;
+  c.add_model("d", d);
+  c.add("i1", stage::CurrentSource{"gnd", "a", 2e-3});
+  c.add("d1", stage::Diode{"a", "gnd", "d"});
+  stage::Simulation simulation(c);
+  stage::SweepOptions o;
+  o.target = stage::SweepOptions::Target::source;
+  o.name = "i1";
+  o.values = {1e-3, -1e-3};
+  EXPECT_THROW(simulation.sweep(o), stage::NumericalError);
+  EXPECT_EQ(std::get<stage::CurrentSource>(simulation.circuit().find("i1")->data).dc, 2e-3);
+  expect_same_voltages(simulation.bias(), stage::run_bias(c), 2 * (1e-6 + 1e-4 * 1.0));
+}
+
 TEST(Simulation, RefusesValuesAnElementCannotTake) {
   stage::Simulation simulation(stage::testing::follower_into_low_load());
   try {

@@ -6,6 +6,7 @@
 #include <spdlog/spdlog.h>
 
 #include <cmath>
+#include <functional>
 #include <optional>
 
 #include "analysis/frequency_response.hpp"
@@ -140,26 +141,29 @@ SweepResult Simulation::sweep(const SweepOptions& options, const ProgressCallbac
     }
     return v != nullptr ? v->dc : i->dc;
   }();
+  // The swept value goes back to what it was however the sweep ends (a
+  // point without a solution throws): the simulation stays the circuit given.
+  const auto set = [&](double value) {
+    if (temperature) {
+      set_temperature(value);
+    } else {
+      set_value(options.name, value);
+    }
+  };
+  struct Restore {
+    std::function<void()> undo;
+    ~Restore() { undo(); }
+  } restored{[&] { set(restore); }};
   SweepResult result{options, {}};
   for (double value : options.values) {
     if (progress) {
       progress("sweep: point " + std::to_string(result.points.size() + 1) + " of " +
                std::to_string(options.values.size()));
     }
-    // Each point starts from the one before.
-    if (temperature) {
-      set_temperature(value);
-    } else {
-      set_value(options.name, value);
-    }
+    set(value);  // each point starts from the one before
     result.points.push_back({value, bias()});
     spdlog::debug("sweep {} = {:.6g}: {} Newton iterations", options.name, value,
                   result.points.back().bias.newton_iterations);
-  }
-  if (temperature) {
-    set_temperature(restore);
-  } else {
-    set_value(options.name, restore);
   }
   return result;
 }
