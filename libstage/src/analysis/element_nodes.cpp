@@ -23,6 +23,11 @@ std::vector<std::string> element_nodes(const ElementData& data) {
           if (e.substrate) nodes.push_back(*e.substrate);
           return nodes;
         } else {
+          // The kinds whose terminals are `a` and `b`, listed so that a new
+          // kind fails to compile here until its terminals are named.
+          static_assert(std::is_same_v<E, Resistor> || std::is_same_v<E, Capacitor> ||
+                        std::is_same_v<E, Inductor> || std::is_same_v<E, CurrentSource> ||
+                        std::is_same_v<E, CurrentControlledCurrentSource>);
           return {e.a, e.b};
         }
       },

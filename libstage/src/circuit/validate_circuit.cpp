@@ -100,6 +100,11 @@ std::optional<Problem> model_reference(const std::map<std::string, Model>& model
                            std::string(kind) + " model of the circuit"};
 }
 
+// A new element kind must bring its own rules here (and its terminals to
+// analysis/element_nodes.cpp, which checks the same way).
+static_assert(std::variant_size_v<ElementData> == 11,
+              "a new element kind: add its rules to element_problem");
+
 std::optional<Problem> element_problem(const Circuit& circuit, const Element& element) {
   const std::string& name = element.name;
   return std::visit(
