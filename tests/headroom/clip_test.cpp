@@ -42,7 +42,7 @@ TEST(ClipLevel, FollowerNegativeSideClipsAtIcqTimesRac) {
   ASSERT_TRUE(h.load_line);
   const double cutoff_swing = h.load_line->quiescent_current * h.load_line->ac_load;
   EXPECT_TRUE(h.negative.clip.plateau);
-  EXPECT_EQ(h.negative.clip.cause.mechanism, "cutoff");
+  EXPECT_EQ(h.negative.clip.cause.mechanism, stage::Mechanism::cutoff);
   EXPECT_EQ(h.negative.clip.cause.device, "q1");
   EXPECT_NEAR(h.negative.clip.peak, cutoff_swing, 0.05 * cutoff_swing);  // ICQ·R'ac, textbook
   // The clip level lies beyond the 1 % shortfall and the 1 dB compression
@@ -73,8 +73,8 @@ TEST(ClipLevel, CommonEmitterClipsAtItsLoadLineSwings) {
   const double saturation_swing = (line.quiescent_vce - 0.2) * share;
   EXPECT_TRUE(h.positive.clip.plateau);
   EXPECT_TRUE(h.negative.clip.plateau);
-  EXPECT_EQ(h.positive.clip.cause.mechanism, "cutoff");
-  EXPECT_EQ(h.negative.clip.cause.mechanism, "saturation");
+  EXPECT_EQ(h.positive.clip.cause.mechanism, stage::Mechanism::cutoff);
+  EXPECT_EQ(h.negative.clip.cause.mechanism, stage::Mechanism::saturation);
   EXPECT_NEAR(h.positive.clip.peak, cutoff_swing, 0.10 * cutoff_swing);  // ICQ·R'ac
   EXPECT_NEAR(h.negative.clip.peak, saturation_swing,
               0.10 * saturation_swing);  // VCEQ − VCE(sat)
@@ -161,7 +161,7 @@ TEST(StageReportRegression, BarePairIdealSourceStaysWithinTheRails) {
   // π/4·Vp/VCC with a 5 % margin for the flattened peaks (Sedra and Smith).
   const double expected = std::numbers::pi / 4 * full.output_amplitude / 15.0;
   EXPECT_NEAR(full.efficiency, expected, 0.05 * expected);
-  EXPECT_EQ(r.headroom.positive.clip.cause.mechanism, "drive_limit");
+  EXPECT_EQ(r.headroom.positive.clip.cause.mechanism, stage::Mechanism::drive_limit);
   bool noted = false;
   for (const auto& note : r.headroom.notes) {
     noted = noted || note.find("what a driver on these rails can deliver") != std::string::npos;
@@ -187,7 +187,7 @@ TEST(StageReportRegression, ClassBExampleFullSwingIsTheClipLevel) {
 TEST(LimitCause, ClassBDistortionIsCrossover) {
   const auto h = stage::run_headroom(stage::testing::class_b_pair(), headroom_options());
   ASSERT_TRUE(h.thd_limit_cause);
-  EXPECT_EQ(h.thd_limit_cause->mechanism, "crossover");
+  EXPECT_EQ(h.thd_limit_cause->mechanism, stage::Mechanism::crossover);
 }
 
 // A class-AB pair with 10 ohm emitter resistors (about 7 mA each) held to
@@ -201,9 +201,9 @@ TEST(LimitCause, ClassAbHandOverIsCrossover) {
   const auto h = stage::run_headroom(stage::testing::class_ab_pair(0, 10.0), o);
   ASSERT_TRUE(h.positive.found);
   ASSERT_TRUE(h.negative.found);
-  EXPECT_EQ(h.positive.cause.mechanism, "crossover");
+  EXPECT_EQ(h.positive.cause.mechanism, stage::Mechanism::crossover);
   EXPECT_EQ(h.positive.cause.device, "qp");  // the half handing over on the positive peak
-  EXPECT_EQ(h.negative.cause.mechanism, "crossover");
+  EXPECT_EQ(h.negative.cause.mechanism, stage::Mechanism::crossover);
   EXPECT_EQ(h.negative.cause.device, "qn");
 }
 
@@ -215,7 +215,7 @@ TEST(LimitCause, DistortionIsBlamedOnTheCommonEmitterStage) {
   const auto h =
       stage::run_headroom(stage::testing::common_emitter_into_follower(), headroom_options());
   ASSERT_TRUE(h.positive.found);
-  EXPECT_EQ(h.positive.cause.mechanism, "distortion");
+  EXPECT_EQ(h.positive.cause.mechanism, stage::Mechanism::distortion);
   EXPECT_EQ(h.positive.cause.device, "q1");
 }
 

@@ -65,7 +65,7 @@ TEST(FollowerHeadroom, NegativeSideClipsFirstNearTheLoadLineCompliance) {
   EXPECT_NEAR(tight.symmetric_peak_to_peak, 2 * tight.negative.peak, 1e-12);
   // Past the limit the negative side ends in cutoff of q1.
   ASSERT_TRUE(tight.negative.at_largest_drive);
-  EXPECT_EQ(tight.negative.at_largest_drive->mechanism, "cutoff");
+  EXPECT_EQ(tight.negative.at_largest_drive->mechanism, stage::Mechanism::cutoff);
   EXPECT_EQ(tight.negative.at_largest_drive->device, "q1");
 
   const auto loose = stage::run_headroom(stage::testing::follower_into_low_load(), options(0.10));
@@ -102,8 +102,8 @@ TEST(CommonEmitterHeadroom, CutoffOnOneSideSaturationOnTheOther) {
   // left unbypassed (the 470 uF bypass is 0.34 ohm at 1 kHz).
   EXPECT_NEAR(line.ac_load, rc_rl + 270, 1.0);
 
-  EXPECT_EQ(h.positive.cause.mechanism, "cutoff");
-  EXPECT_EQ(h.negative.cause.mechanism, "saturation");
+  EXPECT_EQ(h.positive.cause.mechanism, stage::Mechanism::cutoff);
+  EXPECT_EQ(h.negative.cause.mechanism, stage::Mechanism::saturation);
   const double cutoff_swing = line.quiescent_current * rc_rl;
   const double saturation_swing = line.quiescent_vce * rc_rl / line.ac_load;
   EXPECT_LT(h.positive.peak, cutoff_swing);

@@ -7,7 +7,7 @@
 //   o.frequency = 1e3;
 //   o.distortion_limit = 0.01;
 //   stage::HeadroomResult h = stage::run_headroom(circuit, o);
-//   // h.positive.peak, h.negative.peak, h.negative.cause.mechanism ...
+//   // h.positive.peak, h.negative.peak, h.negative.cause.mechanism (stage::Mechanism) ...
 //
 // The input source is driven with a sine at `frequency` around its DC value.
 // For each amplitude a transient runs until the waveform repeats, and each
@@ -35,12 +35,21 @@
 
 namespace stage {
 
-// What stops one side: a transistor entering saturation, a transistor
-// reaching cutoff, the output reaching a supply rail, or smooth distortion
-// with no device changing region (spec section 7's mechanisms).
+// What stops a side (spec section 7's mechanisms; to_string gives the name
+// the JSON and the tables use).
+enum class Mechanism {
+  saturation,     // a transistor newly saturated
+  cutoff,         // a transistor turned off, none taking over
+  rail,           // the output at a supply rail
+  current_limit,  // the network biasing the drive has run out of current
+  crossover,      // a push-pull pair handing the output from one half to the other
+  drive_limit,    // still growing at the largest drive the rails allow
+  distortion,     // smooth distortion, no device changing region
+};
+std::string_view to_string(Mechanism mechanism);
+
 struct LimitCause {
-  // saturation, cutoff, rail, current_limit, crossover, drive_limit, distortion
-  std::string mechanism;
+  Mechanism mechanism = Mechanism::distortion;
   std::string device;  // the transistor or supply involved
   // For smooth distortion: the transistor whose collector current moved
   // furthest from its bias value at the peak, and both currents, so the

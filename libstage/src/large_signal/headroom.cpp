@@ -249,19 +249,19 @@ LimitCause classify(const mna::System& system, const BiasResult& bias, const Sta
 
   for (const auto& q : report.bipolars) {
     if (q.region == Region::saturation && bias.bipolar(q.name).region != Region::saturation) {
-      return {"saturation", q.name, detail};
+      return {Mechanism::saturation, q.name, detail};
     }
   }
   for (const analysis::Rail& r : rails) {
     const double margin = std::max(kRailMarginVolts, kRailMargin * std::abs(r.voltage));
     if (std::abs(extreme.value + output_reference - r.voltage) < margin) {
-      return {"rail", r.source, detail};
+      return {Mechanism::rail, r.source, detail};
     }
   }
   for (const auto& d : report.diodes) {
     const double biased = bias.diode(d.name).current;
     if (biased > 0 && d.current < kStarvedFraction * biased) {
-      return {"current_limit", d.name,
+      return {Mechanism::current_limit, d.name,
               d.name + " carries " + text::si(d.current, "A") + " at the peak, " +
                   text::si(biased, "A") + " at the bias point"};
     }
@@ -271,25 +271,25 @@ LimitCause classify(const mna::System& system, const BiasResult& bias, const Sta
       if (fading.region == Region::cutoff || ratio(fading) >= 1) continue;
       for (const auto& rising : report.bipolars) {
         if (ratio(rising) > 1 && facts.paired(fading.name, rising.name)) {
-          return {"crossover", fading.name, currents(fading) + "; " + currents(rising)};
+          return {Mechanism::crossover, fading.name, currents(fading) + "; " + currents(rising)};
         }
       }
     }
     for (const auto& q : report.bipolars) {
       if (q.region == Region::cutoff && bias.bipolar(q.name).region != Region::cutoff) {
-        return {"cutoff", q.name, currents(q)};
+        return {Mechanism::cutoff, q.name, currents(q)};
       }
     }
     if (faded != nullptr && ratio(*faded) < kCutoffFraction) {
-      return {"cutoff", faded->name, currents(*faded)};
+      return {Mechanism::cutoff, faded->name, currents(*faded)};
     }
   }
   if (blamed != nullptr && !taken_over) {
-    return {"distortion", blamed->name,
+    return {Mechanism::distortion, blamed->name,
             detail + "; its incremental gain " + text::percent(std::expm1(blamed_score)) +
                 " away from its small-signal value"};
   }
-  return {"distortion", blamed == nullptr ? "" : blamed->name, detail};
+  return {Mechanism::distortion, blamed == nullptr ? "" : blamed->name, detail};
 }
 
 // The transistor carrying the output at an extreme: the one whose current
@@ -471,7 +471,7 @@ HeadroomResult headroom_search(const Circuit& circuit, const SineDrive& drive,
     } else {
       s.clip = {side_peak(positive, largest),
                 largest.amplitude,
-                {"drive_limit", options.input,
+                {Mechanism::drive_limit, options.input,
                  "still growing at " + text::si(largest.amplitude, "V") +
                      " of drive, the largest allowed"},
                 false};
@@ -496,7 +496,7 @@ HeadroomResult headroom_search(const Circuit& circuit, const SineDrive& drive,
     }
     const auto [ok, bad] = search.bracket(c);
     if (ok == nullptr) {
-      s.cause = {"distortion", "", ""};
+      s.cause = {Mechanism::distortion, "", ""};
       result.notes.push_back(std::string(name) +
                              " side: beyond the limit at every amplitude tried");
       return s;
@@ -541,7 +541,7 @@ HeadroomResult headroom_search(const Circuit& circuit, const SineDrive& drive,
     const auto down = carrier(system, result.bias, largest.minimum);
     if (search.judged_large_signal() && up && down && facts.paired(up->name, down->name)) {
       result.thd_limit_cause = {
-          "crossover", up->name + " and " + down->name,
+          Mechanism::crossover, up->name + " and " + down->name,
           up->name + " carries the positive half, " + down->name + " the negative"};
     } else {
       const bool positive = search.value(kPositive, *past) >= search.value(kNegative, *past);
@@ -558,4 +558,25 @@ HeadroomResult headroom_search(const Circuit& circuit, const SineDrive& drive,
 }
 
 }  // namespace analysis
+
+std::string_view to_string(Mechanism mechanism) {
+  switch (mechanism) {
+    case Mechanism::saturation:
+      return "saturation";
+    case Mechanism::cutoff:
+      return "cutoff";
+    case Mechanism::rail:
+      return "rail";
+    case Mechanism::current_limit:
+      return "current_limit";
+    case Mechanism::crossover:
+      return "crossover";
+    case Mechanism::drive_limit:
+      return "drive_limit";
+    case Mechanism::distortion:
+      return "distortion";
+  }
+  return "distortion";
+}
+
 }  // namespace stage

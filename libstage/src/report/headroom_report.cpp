@@ -5,7 +5,7 @@ namespace stage::report {
 namespace {
 
 Json cause_json(const LimitCause& c) {
-  Json j{{"mechanism", c.mechanism}, {"device", c.device}};
+  Json j{{"mechanism", std::string(to_string(c.mechanism))}, {"device", c.device}};
   if (!c.detail.empty()) j["detail"] = c.detail;
   return j;
 }
@@ -31,7 +31,8 @@ Json side_json(const SideLimit& s) {
 }
 
 std::string cause_text(const LimitCause& c) {
-  return c.device.empty() ? c.mechanism : c.mechanism + " (" + c.device + ")";
+  const std::string mechanism(to_string(c.mechanism));
+  return c.device.empty() ? mechanism : mechanism + " (" + c.device + ")";
 }
 
 }  // namespace
