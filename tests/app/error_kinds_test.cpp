@@ -14,6 +14,7 @@
 #include "app/run_command.hpp"
 #include "exit_status.hpp"
 #include "stage/errors.hpp"
+#include "stage/headroom.hpp"
 #include "stage/simulation.hpp"
 
 namespace {
@@ -135,6 +136,34 @@ TEST(ErrorKinds, ARequestTheLibraryCannotHonourIsInvalidRequest) {
   } catch (const stage::Error& e) {
     EXPECT_EQ(e.kind(), ErrorKind::invalid_request) << e.what();
     EXPECT_EQ(exit_status(e.kind()), documented_status(ErrorKind::invalid_request));
+  }
+}
+
+// A headroom search allowed two transient runs cannot bracket a follower's
+// limits (it needs at least one run each side of every limit): it gives up
+// with search_exhausted, a numerical failure.
+TEST(ErrorKinds, AHeadroomSearchOutOfRunsIsSearchExhausted) {
+  stage::Circuit c;
+  stage::BipolarModel npn;  // generic textbook-typical values (not a real part)
+  npn.saturation_current = 1e-14;
+  npn.beta_forward = 150;
+  c.add_model("npn", npn);
+  c.add("vcc", stage::VoltageSource{"vcc", "gnd", 12.0});
+  c.add("vin", stage::VoltageSource{"in", "gnd", 0.0, 1.0});
+  c.add("cin", stage::Capacitor{"in", "base", 10e-6});
+  c.add("rb", stage::Resistor{"vcc", "base", 220e3});
+  c.add("q1", stage::Bipolar{stage::Polarity::npn, "vcc", "base", "out", {}, "npn"});
+  c.add("re", stage::Resistor{"out", "gnd", 1e3});
+  stage::HeadroomOptions h;
+  h.input = "vin";
+  h.output = stage::SignalRef::node("out");
+  h.max_runs = 2;
+  try {
+    stage::run_headroom(c, h);
+    ADD_FAILURE() << "a search of two runs found every limit";
+  } catch (const stage::Error& e) {
+    EXPECT_EQ(e.kind(), ErrorKind::search_exhausted) << e.what();
+    EXPECT_EQ(exit_status(e.kind()), documented_status(ErrorKind::search_exhausted));
   }
 }
 

@@ -60,6 +60,9 @@ struct HeadroomOptions {
   // Input amplitude of the search's first run; by default the one the
   // small-signal gain predicts gives a 50 mV output peak.
   std::optional<double> first_input_amplitude;
+  // Transient runs the search may take (each one settles the stage at one
+  // drive level) before it gives up with a search_exhausted error.
+  int max_runs = 100;
 };
 
 struct CharacterizeOptions {

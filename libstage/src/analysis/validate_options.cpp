@@ -14,6 +14,7 @@ constexpr double kMaxSweepPoints = 1e6;
 constexpr double kMaxResampledPoints = 1e7;
 constexpr double kMaxSteps = 1e8;  // stop / max_step: a run the step bound alone makes endless
 constexpr int kMaxHarmonics = 1000;
+constexpr int kMaxHeadroomRuns = 1000;
 
 std::optional<Problem> problem(std::string subject, std::string message) {
   return Problem{std::move(subject), std::move(message)};
@@ -105,6 +106,9 @@ std::optional<Problem> check(const Circuit& circuit, const HeadroomOptions& o) {
   }
   if (o.first_input_amplitude && !positive_finite(*o.first_input_amplitude)) {
     return problem("first_input_amplitude", "the first input amplitude must be positive");
+  }
+  if (o.max_runs < 1 || o.max_runs > kMaxHeadroomRuns) {
+    return problem("max_runs", "a headroom search takes from 1 to 1000 transient runs");
   }
   if (auto p = independent_source(circuit, o.input)) return p;
   if (auto p = large_signal_output(o.output)) return p;

@@ -31,7 +31,6 @@ namespace {
 constexpr double kTolerance = 0.01;         // each limit's input amplitude to 1 %
 constexpr double kFirstOutputSwing = 0.05;  // V: the first run's predicted output peak
 constexpr int kMaxDownSteps = 4;
-constexpr int kMaxRuns = 100;
 // A side has clipped where its peak's incremental gain against the drive
 // falls below this fraction of its largest (-14 dB): a common-emitter stage
 // that saturates keeps following its input through the emitter at about a
@@ -57,9 +56,13 @@ double side_peak(bool positive, const analysis::DriveMeasurement& m) {
 // The search state: every measurement so far, sorted by amplitude.
 class Search {
  public:
-  Search(const analysis::SineDrive& drive, double limit, double gain,
+  Search(const analysis::SineDrive& drive, double limit, double gain, int max_runs,
          const ProgressCallback& progress)
-      : drive_(drive), limit_(limit), small_signal_gain_(gain), progress_(progress) {}
+      : drive_(drive),
+        limit_(limit),
+        small_signal_gain_(gain),
+        max_runs_(max_runs),
+        progress_(progress) {}
 
   const analysis::DriveMeasurement& at(double amplitude) {
     auto it = runs_.find(amplitude);
@@ -68,11 +71,11 @@ class Search {
       progress_("headroom: run " + std::to_string(runs_.size() + 1) + ", input amplitude " +
                 text::si(amplitude, "V"));
     }
-    if (static_cast<int>(runs_.size()) >= kMaxRuns) {
-      throw NumericalError(
-          ErrorKind::search_exhausted,
-          "the headroom search did not converge in " + std::to_string(kMaxRuns) + " transient runs",
-          {});
+    if (static_cast<int>(runs_.size()) >= max_runs_) {
+      throw NumericalError(ErrorKind::search_exhausted,
+                           "the headroom search did not converge in " + std::to_string(max_runs_) +
+                               " transient runs",
+                           {});
     }
     const auto& m = runs_.emplace(amplitude, drive_.measure(amplitude)).first->second;
     large_signal_gain_ = std::max(large_signal_gain_, m.fundamental / amplitude);
@@ -165,6 +168,7 @@ class Search {
   const analysis::SineDrive& drive_;
   double limit_;
   double small_signal_gain_;
+  int max_runs_;
   double large_signal_gain_ = 0;
   const ProgressCallback& progress_;
   std::map<double, analysis::DriveMeasurement> runs_;
@@ -392,7 +396,8 @@ HeadroomResult headroom_search(const Circuit& circuit, const SineDrive& drive,
       (options.output.kind == SignalRef::Kind::node_pair ? node(options.output.b) : 0.0);
   result.small_signal_gain = analysis::small_signal_gain(drive.simulation(), options.input,
                                                          options.output, options.frequency);
-  Search search(drive, options.distortion_limit, result.small_signal_gain, progress);
+  Search search(drive, options.distortion_limit, result.small_signal_gain, options.max_runs,
+                progress);
 
   const StageFacts facts = stage_facts(circuit, options.input, options.frequency);
   const auto& rails = facts.rails;
