@@ -92,6 +92,13 @@ TEST(Validate, AnalysisOptionsAreCheckedForEveryRun) {
   EXPECT_FALSE(stage::validate(c, t).has_value());
   t.stop = kInf;
   EXPECT_THROW(stage::Simulation(c).transient(t), stage::Error);
+  stage::FrequencyOptions f;
+  f.input = "vin";
+  f.output = stage::SignalRef::node("out");
+  f.per_decade = 1000000;  // 5 decades (10 Hz to 1 MHz): 5e6 points, past the bound
+  EXPECT_EQ(stage::validate(c, f)->subject, "per_decade");
+  f.per_decade = 20;
+  EXPECT_FALSE(stage::validate(c, f).has_value());
   stage::SpectrumOptions s;
   s.harmonics = 100000;  // bounded: every harmonic costs a pass over the waveform
   EXPECT_EQ(stage::validate(c, s)->subject, "harmonics");

@@ -11,6 +11,7 @@ namespace {
 // Bounds on what a request may ask for, so that no input makes the program
 // run without end or exhaust memory (our own limits, written into the spec).
 constexpr double kMaxSweepPoints = 1e6;
+constexpr double kMaxFrequencyPoints = 1e6;
 constexpr double kMaxResampledPoints = 1e7;
 constexpr double kMaxSteps = 1e8;  // stop / max_step: a run the step bound alone makes endless
 constexpr int kMaxHarmonics = 1000;
@@ -63,6 +64,9 @@ std::optional<Problem> check(const Circuit& circuit, const SweepOptions& o) {
 
 std::optional<Problem> check(const Circuit& circuit, const FrequencyOptions& o) {
   if (auto why = frequency_options_error(circuit, o)) return problem("frequency", *why);
+  if (std::log10(o.to / o.from) * o.per_decade > kMaxFrequencyPoints) {
+    return problem("per_decade", "the frequency sweep would take more than 1000000 points");
+  }
   return std::nullopt;
 }
 
