@@ -10,6 +10,7 @@
 #include <optional>
 
 #include "analysis/model_range.hpp"
+#include "common/si_format.hpp"
 #include "stage/errors.hpp"
 
 namespace stage::analysis {
@@ -122,12 +123,6 @@ mna::Index runaway_unknown(const FailedAttempt& attempt) {
   return worst;
 }
 
-std::string joined(const std::vector<std::string>& names) {
-  std::string list;
-  for (const auto& n : names) list += (list.empty() ? "" : ", ") + n;
-  return list;
-}
-
 [[noreturn]] void fail(const mna::System& system, const FailedAttempt& attempt,
                        double source_fraction) {
   const auto& topology = system.topology();
@@ -155,7 +150,7 @@ std::string joined(const std::vector<std::string>& names) {
         fmt::format(" (the circuit solves with its sources at up to {:.3g} % of their values)",
                     100 * source_fraction);
   }
-  message += ". Elements at '" + name + "': " + joined(elements) +
+  message += ". Elements at '" + name + "': " + text::joined(elements) +
              " (does a source force a current or voltage that nothing in the circuit can carry?)";
   std::vector<std::string> involved{name};
   involved.insert(involved.end(), elements.begin(), elements.end());

@@ -47,4 +47,10 @@ std::string percent(double ratio) {
   return buffer;
 }
 
+std::string joined(const std::vector<std::string>& names, std::string_view separator) {
+  std::string list;
+  for (const auto& n : names) list += (list.empty() ? "" : std::string(separator)) + n;
+  return list;
+}
+
 }  // namespace stage::text

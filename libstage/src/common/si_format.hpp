@@ -1,10 +1,11 @@
 // Engineering notation for every message and report: SI prefixes, fixed
-// point and percentages. At the bottom of the layers, so that an analysis
+// point and percentages, and lists of names. At the bottom of the layers, so that an analysis
 // can word a note with figures without reaching up into the reports.
 #pragma once
 
 #include <string>
 #include <string_view>
+#include <vector>
 
 namespace stage::text {
 
@@ -17,5 +18,8 @@ std::string si(double value, std::string_view unit, int digits = 4);
 // with four significant digits.
 std::string fixed(double value, std::string_view unit, int decimals = 2);
 std::string percent(double ratio);
+
+// Names in a list for a message: "a, b, c" (or another separator).
+std::string joined(const std::vector<std::string>& names, std::string_view separator = ", ");
 
 }  // namespace stage::text

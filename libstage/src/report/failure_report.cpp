@@ -4,12 +4,6 @@
 namespace stage::report {
 namespace {
 
-std::string joined(const std::vector<std::string>& names, std::string_view separator) {
-  std::string list;
-  for (const auto& n : names) list += (list.empty() ? "" : std::string(separator)) + n;
-  return list;
-}
-
 // A CSV cell holding text: quoted, inner quotes doubled (RFC 4180).
 std::string csv_text(const std::string& text) {
   std::string cell = "\"";
@@ -35,7 +29,7 @@ void print_table(std::ostream& out, const AnalysisFailure& f) {
 void write_csv(std::ostream& out, const AnalysisFailure& f) {
   out << "error_kind,error,involved\n"
       << to_string(f.error_kind) << ',' << csv_text(f.message) << ','
-      << csv_text(joined(f.involved, " ")) << '\n';
+      << csv_text(text::joined(f.involved, " ")) << '\n';
 }
 
 }  // namespace stage::report
