@@ -7,7 +7,7 @@
 #include <fstream>
 #include <sstream>
 
-#include "circuit/elaborator.hpp"
+#include "reader/elaborator.hpp"
 #include "reader/grammar.hpp"
 
 namespace stage {

@@ -3,7 +3,7 @@
 // the tables in model_parameters.cpp, `form = ebers_moll` rejects the
 // Gummel–Poon extras, and `base_resistance_min` left unset follows
 // `base_resistance` of the final model.
-#include "circuit/elaborator.hpp"
+#include "reader/elaborator.hpp"
 #include "reader/suggest.hpp"
 
 namespace stage::elaborate {

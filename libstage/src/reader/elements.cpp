@@ -3,7 +3,7 @@
 // range, waveforms and controlling references are read.
 #include <cmath>
 
-#include "circuit/elaborator.hpp"
+#include "reader/elaborator.hpp"
 #include "reader/suggest.hpp"
 
 namespace stage::elaborate {

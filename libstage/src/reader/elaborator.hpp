@@ -13,7 +13,7 @@
 #include <string_view>
 #include <vector>
 
-#include "circuit/arguments.hpp"
+#include "reader/arguments.hpp"
 #include "reader/expression.hpp"
 #include "reader/syntax_tree.hpp"
 #include "stage/reader.hpp"

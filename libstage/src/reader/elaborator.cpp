@@ -1,7 +1,7 @@
 // The walk over a deck's statements in file order: titles, lets (with
 // overrides), includes, temperature, solver settings, models, element and
 // block instances, analyses; then the references that could point forward.
-#include "circuit/elaborator.hpp"
+#include "reader/elaborator.hpp"
 
 #include <algorithm>
 #include <cmath>

@@ -3,7 +3,7 @@
 // the sources, loads and nodes they name are checked against the circuit.
 #include <cmath>
 
-#include "circuit/elaborator.hpp"
+#include "reader/elaborator.hpp"
 #include "reader/suggest.hpp"
 
 namespace stage::elaborate {

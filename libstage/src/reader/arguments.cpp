@@ -1,6 +1,6 @@
 // Argument binding and name reading shared by elements, waveforms, models,
 // blocks, solver settings and analyses.
-#include "circuit/arguments.hpp"
+#include "reader/arguments.hpp"
 
 #include "reader/suggest.hpp"
 
