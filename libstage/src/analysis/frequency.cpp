@@ -9,10 +9,10 @@
 #include <numbers>
 #include <stdexcept>
 
-#include "analysis/element_nodes.hpp"
 #include "analysis/frequency_figures.hpp"
 #include "analysis/frequency_response.hpp"
 #include "analysis/small_signal.hpp"
+#include "circuit/element_kinds.hpp"
 
 namespace stage {
 namespace {
@@ -134,7 +134,7 @@ Sweep::Sweep(const Circuit& circuit, const FrequencyOptions& options, SmallSigna
     if (device->branch() != mna::kGroundIndex) {
       output_.terms.push_back({device->branch(), 1.0, 0.0});
     } else {
-      const auto names = analysis::element_nodes(circuit.find(out.a)->data);
+      const auto names = kinds::nodes(circuit.find(out.a)->data);
       output_ = linear_.current_through(*device, node(names[0]), node(names[1]));
     }
     notes.push_back("the output is a current: output impedance is not defined and is omitted");

@@ -3,7 +3,7 @@
 #include <algorithm>
 #include <cmath>
 
-#include "analysis/element_nodes.hpp"
+#include "circuit/element_kinds.hpp"
 #include "stage/frequency.hpp"
 
 namespace stage {
@@ -12,7 +12,7 @@ namespace {
 bool has_node(const Circuit& circuit, const std::string& node) {
   if (node == kGround) return true;
   return std::any_of(circuit.elements().begin(), circuit.elements().end(), [&](const Element& e) {
-    const auto nodes = analysis::element_nodes(e.data);
+    const auto nodes = kinds::nodes(e.data);
     return std::find(nodes.begin(), nodes.end(), node) != nodes.end();
   });
 }
@@ -20,15 +20,10 @@ bool has_node(const Circuit& circuit, const std::string& node) {
 std::optional<std::string> input_error(const Circuit& circuit, const std::string& input) {
   const Element* e = circuit.find(input);
   if (e == nullptr) return "the input '" + input + "' is not an element of the circuit";
-  double ac = 0;
-  if (const auto* v = std::get_if<VoltageSource>(&e->data)) {
-    ac = v->ac_magnitude;
-  } else if (const auto* i = std::get_if<CurrentSource>(&e->data)) {
-    ac = i->ac_magnitude;
-  } else {
+  if (!kinds::has_role(e->data, kinds::Role::independent_source)) {
     return "the input '" + input + "' must be an independent voltage or current source";
   }
-  if (ac == 0.0) {
+  if (kinds::field_value(e->data, "ac").value_or(0.0) == 0.0) {
     return "the input '" + input + "' has no AC value: give it ac = <magnitude> (the gain is " +
            "relative to it)";
   }
@@ -50,10 +45,12 @@ std::optional<std::string> output_error(const Circuit& circuit, const SignalRef&
     case SignalRef::Kind::element_current: {
       const Element* e = circuit.find(output.a);
       if (e == nullptr) return "the output element '" + output.a + "' does not exist";
-      if (std::holds_alternative<Bipolar>(e->data)) {
-        return "the output '" + output.a + ".current': a transistor has no single current";
+      if (!kinds::has_role(e->data, kinds::Role::single_current)) {
+        return "the output '" + output.a + ".current': a " + std::string(kinds::keyword(e->data)) +
+               " has no single current";
       }
-      if (std::holds_alternative<CurrentSource>(e->data)) {
+      if (kinds::has_role(e->data, kinds::Role::independent_source) &&
+          !kinds::has_role(e->data, kinds::Role::holds_voltage)) {
         return "the output '" + output.a + ".current' is a current source's own value";
       }
       return std::nullopt;
@@ -72,17 +69,14 @@ std::optional<std::string> load_error(const Circuit& circuit, const FrequencyOpt
   const std::string& load = *options.load;
   const Element* e = circuit.find(load);
   if (e == nullptr) return "the load '" + load + "' is not an element of the circuit";
-  if (std::holds_alternative<VoltageSource>(e->data)) {
-    return "the load '" + load + "' is a voltage source: it shorts the output for small " +
+  if (kinds::has_role(e->data, kinds::Role::holds_voltage)) {
+    return "the load '" + load + "' holds a voltage: it shorts the output for small " +
            "signals, so the output impedance without it cannot be read from this circuit";
   }
-  const bool two_terminal =
-      std::holds_alternative<Resistor>(e->data) || std::holds_alternative<Capacitor>(e->data) ||
-      std::holds_alternative<Inductor>(e->data) || std::holds_alternative<Diode>(e->data) ||
-      std::holds_alternative<CurrentSource>(e->data);
-  if (!two_terminal) return "the load '" + load + "' must be a two-terminal element";
+  if (!kinds::has_role(e->data, kinds::Role::one_port))
+    return "the load '" + load + "' must be a two-terminal element";
   if (options.output.kind == SignalRef::Kind::element_current) return std::nullopt;
-  auto nodes = analysis::element_nodes(e->data);
+  auto nodes = kinds::nodes(e->data);
   auto wanted = output_nodes(options.output);
   std::sort(nodes.begin(), nodes.end());
   if (wanted.first > wanted.second) std::swap(wanted.first, wanted.second);

@@ -2,6 +2,7 @@
 // stage/validate.hpp for each analysis request, one function per kind.
 #include <cmath>
 
+#include "circuit/element_kinds.hpp"
 #include "stage/frequency.hpp"
 #include "stage/validate.hpp"
 
@@ -25,8 +26,7 @@ bool positive_finite(double v) { return std::isfinite(v) && v > 0; }
 
 std::optional<Problem> independent_source(const Circuit& circuit, const std::string& input) {
   const Element* e = circuit.find(input);
-  if (e != nullptr && (std::holds_alternative<VoltageSource>(e->data) ||
-                       std::holds_alternative<CurrentSource>(e->data))) {
+  if (e != nullptr && kinds::has_role(e->data, kinds::Role::independent_source)) {
     return std::nullopt;
   }
   return problem("input",

@@ -3,24 +3,13 @@
 #include <cmath>
 #include <string>
 
+#include "circuit/element_kinds.hpp"
 #include "stage/validate.hpp"
 
 namespace stage {
 namespace {
 
 std::string number(double value) { return std::to_string(value); }
-
-std::optional<Problem> finite(const std::string& subject, std::string_view what, double value) {
-  if (std::isfinite(value)) return std::nullopt;
-  return Problem{subject, "'" + subject + "': its " + std::string(what) + " must be finite, not " +
-                              number(value)};
-}
-
-std::optional<Problem> positive(const std::string& subject, std::string_view what, double value) {
-  if (std::isfinite(value) && value > 0) return std::nullopt;
-  return Problem{subject, "'" + subject + "': its " + std::string(what) +
-                              " must be positive and finite, not " + number(value)};
-}
 
 std::optional<Problem> waveform_problem(const std::string& subject, const Waveform& wave) {
   const auto bad = [&](const std::string& why) {
@@ -56,15 +45,6 @@ std::optional<Problem> waveform_problem(const std::string& subject, const Wavefo
   return std::nullopt;
 }
 
-template <class Source>
-std::optional<Problem> source_problem(const std::string& name, const Source& s) {
-  if (auto p = finite(name, "DC value", s.dc)) return p;
-  if (auto p = finite(name, "AC magnitude", s.ac_magnitude)) return p;
-  if (auto p = finite(name, "AC phase", s.ac_phase_deg)) return p;
-  if (s.wave) return waveform_problem(name, *s.wave);
-  return std::nullopt;
-}
-
 template <class Model>
 std::optional<Problem> model_problem(const std::string& name, const Model& model,
                                      std::span<const ModelParameter<Model>> table) {
@@ -78,71 +58,64 @@ std::optional<Problem> model_problem(const std::string& name, const Model& model
   return std::nullopt;
 }
 
-// A sensed element must carry a branch current: a voltage source or an
-// inductor (spec section 3).
+// A sensed element must carry a branch current (spec section 3).
 std::optional<Problem> sense_problem(const Circuit& circuit, const std::string& name,
                                      const std::string& sense) {
   const Element* e = circuit.find(sense);
-  if (e != nullptr && (std::holds_alternative<VoltageSource>(e->data) ||
-                       std::holds_alternative<Inductor>(e->data))) {
-    return std::nullopt;
-  }
+  if (e != nullptr && kinds::has_role(e->data, kinds::Role::sensed_current)) return std::nullopt;
   return Problem{name, "'" + name + "' senses '" + sense +
                            "', which is not a voltage source or an inductor of the circuit"};
 }
 
-template <class Model>
-std::optional<Problem> model_reference(const std::map<std::string, Model>& models,
-                                       const std::string& name, const std::string& model,
-                                       std::string_view kind) {
-  if (models.count(model)) return std::nullopt;
-  return Problem{name, "'" + name + "' uses model '" + model + "', which is not a " +
-                           std::string(kind) + " model of the circuit"};
+bool model_exists(const Circuit& circuit, std::string_view model_kind, const std::string& model) {
+  if (model_kind == "diode") return circuit.diode_models().count(model) != 0;
+  return circuit.bipolar_models().count(model) != 0;
 }
 
-// A new element kind must bring its own rules here (and its terminals to
-// analysis/element_nodes.cpp, which checks the same way).
-static_assert(std::variant_size_v<ElementData> == 11,
-              "a new element kind: add its rules to element_problem");
+// One argument of an element against its field's rules.
+template <class E>
+std::optional<Problem> field_problem(const Circuit& circuit, const std::string& name, const E& e,
+                                     const kinds::Descriptor<E>& kind,
+                                     const kinds::Field<E>& field) {
+  const auto out_of_range = [&](double v) -> std::optional<Problem> {
+    const auto why = range_error(field.range, v);
+    if (!why) return std::nullopt;
+    return Problem{name, "'" + name + "': its " + std::string(field.name) + " " +
+                             std::string(*why) + ", not " + number(v)};
+  };
+  switch (field.kind) {
+    case kinds::FieldKind::value:
+      return out_of_range(e.*field.number);
+    case kinds::FieldKind::optional_value:
+      if (const auto& v = e.*field.optional_number) return out_of_range(*v);
+      return std::nullopt;
+    case kinds::FieldKind::waveform:
+      if (const auto& w = e.*field.wave) return waveform_problem(name, *w);
+      return std::nullopt;
+    case kinds::FieldKind::sensed_element:
+      return sense_problem(circuit, name, e.*field.text);
+    case kinds::FieldKind::model: {
+      const std::string_view model_kind = kind.model_kind(e);
+      if (model_exists(circuit, model_kind, e.*field.text)) return std::nullopt;
+      return Problem{name, "'" + name + "' uses model '" + e.*field.text + "', which is not a " +
+                               std::string(model_kind) + " model of the circuit"};
+    }
+    case kinds::FieldKind::terminal:
+    case kinds::FieldKind::optional_terminal:
+    case kinds::FieldKind::control_pair:
+      return std::nullopt;
+  }
+  return std::nullopt;
+}
 
 std::optional<Problem> element_problem(const Circuit& circuit, const Element& element) {
-  const std::string& name = element.name;
-  return std::visit(
-      [&](const auto& e) -> std::optional<Problem> {
-        using T = std::decay_t<decltype(e)>;
-        if constexpr (std::is_same_v<T, Resistor>)
-          return positive(name, "resistance", e.resistance);
-        if constexpr (std::is_same_v<T, Capacitor>) {
-          if (auto p = positive(name, "capacitance", e.capacitance)) return p;
-          if (e.initial_voltage) return finite(name, "initial voltage", *e.initial_voltage);
-        }
-        if constexpr (std::is_same_v<T, Inductor>) {
-          if (auto p = positive(name, "inductance", e.inductance)) return p;
-          if (e.initial_current) return finite(name, "initial current", *e.initial_current);
-        }
-        if constexpr (std::is_same_v<T, VoltageSource> || std::is_same_v<T, CurrentSource>) {
-          return source_problem(name, e);
-        }
-        if constexpr (std::is_same_v<T, VoltageControlledVoltageSource> ||
-                      std::is_same_v<T, VoltageControlledCurrentSource>) {
-          return finite(name, "gain", e.gain);
-        }
-        if constexpr (std::is_same_v<T, CurrentControlledCurrentSource> ||
-                      std::is_same_v<T, CurrentControlledVoltageSource>) {
-          if (auto p = finite(name, "gain", e.gain)) return p;
-          return sense_problem(circuit, name, e.sense);
-        }
-        if constexpr (std::is_same_v<T, Diode>) {
-          if (auto p = positive(name, "area", e.area)) return p;
-          return model_reference(circuit.diode_models(), name, e.model, "diode");
-        }
-        if constexpr (std::is_same_v<T, Bipolar>) {
-          if (auto p = positive(name, "area", e.area)) return p;
-          return model_reference(circuit.bipolar_models(), name, e.model, "bipolar");
+  return kinds::with_descriptor(
+      element.data, [&](const auto& e, const auto& kind) -> std::optional<Problem> {
+        for (const auto& field : kind.fields) {
+          if (auto p = field_problem(circuit, element.name, e, kind, field)) return p;
         }
         return std::nullopt;
-      },
-      element.data);
+      });
 }
 
 std::optional<Problem> solver_problem(const SolverOptions& s) {

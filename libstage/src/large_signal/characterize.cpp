@@ -8,6 +8,7 @@
 #include <limits>
 
 #include "analysis/step_interpolant.hpp"
+#include "circuit/element_kinds.hpp"
 #include "common/si_format.hpp"
 #include "large_signal/drive_setup.hpp"
 #include "large_signal/headroom_search.hpp"
@@ -68,10 +69,9 @@ SwingPower swing_power(const Circuit& circuit, const analysis::SineDrive& drive,
     const ElementData& data = element != nullptr ? element->data : ElementData{Resistor{}};
     if (name == input) {
       s.drive_power -= absorbed;
-    } else if (std::holds_alternative<VoltageSource>(data) ||
-               std::holds_alternative<CurrentSource>(data)) {
+    } else if (kinds::has_role(data, kinds::Role::independent_source)) {
       s.supply_power -= absorbed;
-    } else if (std::holds_alternative<Capacitor>(data) || std::holds_alternative<Inductor>(data)) {
+    } else if (kinds::has_role(data, kinds::Role::stores_energy)) {
       s.stored_power += absorbed;
     } else if (name == load.load) {
       // Signal power only: a load that also carries the bias current (class A

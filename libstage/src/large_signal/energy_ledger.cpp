@@ -3,7 +3,7 @@
 
 #include <algorithm>
 
-#include "analysis/element_nodes.hpp"
+#include "circuit/element_kinds.hpp"
 #include "stage/errors.hpp"
 
 namespace stage::analysis {
@@ -16,7 +16,7 @@ EnergyLedger::EnergyLedger(const Circuit& circuit, const mna::System& system)
     const Element* element = circuit.find(device->name());
     const std::size_t first = terminals_.size();
     for (const std::string& name :
-         element == nullptr ? std::vector<std::string>{} : element_nodes(element->data)) {
+         element == nullptr ? std::vector<std::string>{} : kinds::nodes(element->data)) {
       const auto index = name == kGround ? std::optional<mna::Index>(0) : topology.find_node(name);
       if (!index) throw Error(ErrorKind::invalid_request, "no node named '" + name + "'", {name});
       // A terminal shared with another of the same device (base tied to

@@ -54,8 +54,8 @@ void Elaborator::collect_blocks(const File& file) {
   for (const ast::Statement& statement : file.ast.statements) {
     if (const auto* b = boost::get<x3::forward_ast<ast::Block>>(&statement)) {
       const ast::Block& block = b->get();
-      if (std::find(kElementKinds.begin(), kElementKinds.end(), block.name) !=
-          kElementKinds.end()) {
+      const std::vector<std::string> keywords = kinds::keywords();
+      if (std::find(keywords.begin(), keywords.end(), block.name) != keywords.end()) {
         file.source.fail(block.offset,
                          "a block cannot be named like the element kind '" + block.name + "'");
       }
@@ -249,14 +249,15 @@ void Elaborator::check_references() {
     const auto fail_here = [&](const std::string& message) {
       r.file->source.fail(r.offset, message);
     };
-    if (r.kind == Reference::Kind::sense_source) {
+    if (r.model_kind.empty()) {
       const auto it = element_kinds_.find(r.name);
       if (it == element_kinds_.end()) {
         std::vector<std::string> names;
         for (const auto& [name, kind] : element_kinds_) names.push_back(name);
         fail_here("no element named '" + r.name + "'" + reader::suggestion(r.name, names));
       }
-      if (it->second != "voltage" && it->second != "inductor") {
+      const Element* sensed = deck_.circuit.find(r.name);
+      if (sensed == nullptr || !kinds::has_role(sensed->data, kinds::Role::sensed_current)) {
         fail_here("'" + r.name + "' is a " + it->second +
                   "; sense = needs a voltage source or an inductor");
       }
@@ -268,9 +269,7 @@ void Elaborator::check_references() {
       for (const auto& [name, entry] : models_) names.push_back(name);
       fail_here("no model named '" + r.name + "'" + reader::suggestion(r.name, names));
     }
-    const std::string wanted = r.kind == Reference::Kind::diode_model ? "diode"
-                               : r.kind == Reference::Kind::npn_model ? "npn"
-                                                                      : "pnp";
+    const std::string& wanted = r.model_kind;
     if (model->second.kind != wanted) {
       fail_here("'" + r.name + "' is a " + model->second.kind + " model; expected a " + wanted +
                 " model");

@@ -6,25 +6,19 @@
 // InputErrors at the place in the text that caused them.
 #pragma once
 
-#include <array>
 #include <map>
 #include <set>
 #include <string>
 #include <string_view>
 #include <vector>
 
+#include "circuit/element_kinds.hpp"
 #include "reader/arguments.hpp"
 #include "reader/expression.hpp"
 #include "reader/syntax_tree.hpp"
 #include "stage/reader.hpp"
 
 namespace stage::elaborate {
-
-// The language's element kinds (spec section 3): what an element statement
-// may call besides a block, and what a block may not be named.
-inline constexpr std::array<std::string_view, 12> kElementKinds{
-    "resistor", "capacitor", "inductor", "voltage", "current", "vcvs",
-    "vccs",     "cccs",      "ccvs",     "diode",   "npn",     "pnp"};
 
 Deck elaborate(std::shared_ptr<const SyntaxTree> tree, const ReadOptions& options);
 
@@ -53,13 +47,13 @@ class Elaborator {
     std::map<std::string, std::pair<const File*, int>> set;
   };
 
-  // A reference checked once every statement is read (models and sense
-  // sources may be defined after their use).
+  // A reference checked once every statement is read (models and sensed
+  // elements may be defined after their use).
   struct Reference {
     const File* file;
     int offset;
     std::string name;
-    enum class Kind { diode_model, npn_model, pnp_model, sense_source } kind;
+    std::string model_kind;  // the model kind it must be; empty: a sensed element
   };
 
   // elaborator.cpp: the walk over statements.
@@ -73,8 +67,12 @@ class Elaborator {
   std::string element_name(const std::string& local, const Frame& frame) const;
   [[noreturn]] void fail(const Frame& frame, int offset, const std::string& message) const;
 
-  // elements.cpp
+  // elements.cpp: element statements, read through their kind's descriptor.
   void element(const ast::Instance& instance, const Frame& frame);
+  template <class E>
+  E read_element(const kinds::Descriptor<E>& kind, const kinds::Spelling<E>& spelling,
+                 const ast::Instance& instance, const Frame& frame);
+  std::pair<std::string, std::string> node_pair(const ast::Expr& e, int offset, const Frame& frame);
   Waveform waveform(const ast::Expr& e, Quantity level, const Frame& frame);
   double value(const BoundArguments& args, std::string_view name, Quantity q, const Frame& frame,
                double fallback = 0, bool allow_infinity = false);

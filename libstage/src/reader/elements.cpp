@@ -10,23 +10,6 @@ namespace stage::elaborate {
 
 namespace x3 = boost::spirit::x3;
 
-namespace {
-
-constexpr Slot kTwoTerminal[] = {{"a", true, true}, {"b", true, true}};
-
-// Terminal slots first, then the kind's own.
-template <std::size_t N>
-std::vector<Slot> with_terminals(const Slot (&terminals)[2], const Slot (&own)[N]) {
-  std::vector<Slot> slots(std::begin(terminals), std::end(terminals));
-  slots.insert(slots.end(), std::begin(own), std::end(own));
-  return slots;
-}
-
-constexpr Slot kPositiveNegative[] = {{"p", true, true}, {"n", true, true}};
-constexpr Slot kDiodeTerminals[] = {{"anode", true, true}, {"cathode", true, true}};
-
-}  // namespace
-
 double Elaborator::value(const BoundArguments& args, std::string_view name, Quantity q,
                          const Frame& frame, double fallback, bool allow_infinity) {
   const ast::Expr* e = args.get(name);
@@ -35,143 +18,99 @@ double Elaborator::value(const BoundArguments& args, std::string_view name, Quan
 }
 
 void Elaborator::element(const ast::Instance& instance, const Frame& frame) {
-  const std::string& kind = instance.call.name;
-  const reader::SourceText& source = frame.file->source;
+  const std::string& keyword = instance.call.name;
   const std::string name = element_name(instance.name, frame);
-  const auto bind = [&](const std::vector<Slot>& slots) {
-    return BoundArguments(instance.call, slots, kind, source);
-  };
-  const auto terminal = [&](const BoundArguments& args, std::string_view slot) {
-    return node(*args.get(slot), frame);
-  };
-  const auto positive = [&](const BoundArguments& args, std::string_view slot, Quantity q,
-                            const char* hint) {
-    const double v = value(args, slot, q, frame);
-    if (v <= 0) {
-      source.fail(args.offset(slot), kind + " " + std::string(slot) + " must be positive" + hint);
+  std::optional<ElementData> data;
+  kinds::for_each_kind([&](const auto& kind) {
+    for (const auto& spelling : kind.spellings) {
+      if (spelling.keyword == keyword) data = read_element(kind, spelling, instance, frame);
     }
-    return v;
-  };
-  const auto controlled_pair = [&](const BoundArguments& args) {
-    const ast::Expr& e = ast::unwrap(*args.get("control"));
-    const auto* tuple = boost::get<x3::forward_ast<ast::Tuple>>(&e);
-    if (!tuple || tuple->get().items.size() != 2) {
-      source.fail(args.offset("control"), "expected control = (node, node)");
-    }
-    return std::make_pair(node(tuple->get().items[0], frame), node(tuple->get().items[1], frame));
-  };
-  const auto sense = [&](const BoundArguments& args) {
-    const std::string local = require_name(*args.get("sense"), "an element name", source);
-    references_.push_back({frame.file, args.offset("sense"), element_name(local, frame),
-                           Reference::Kind::sense_source});
-    return element_name(local, frame);
-  };
-
-  ElementData data;
-  if (kind == "resistor") {
-    static constexpr Slot own[] = {{"resistance", true, true}};
-    const BoundArguments args = bind(with_terminals(kTwoTerminal, own));
-    data = Resistor{terminal(args, "a"), terminal(args, "b"),
-                    positive(args, "resistance", Quantity::resistance,
-                             " (for a short, give both ends the same node name)")};
-  } else if (kind == "capacitor" || kind == "inductor") {
-    const bool capacitor = kind == "capacitor";
-    static constexpr Slot c_own[] = {{"capacitance", true, true}, {"initial"}};
-    static constexpr Slot l_own[] = {{"inductance", true, true}, {"initial"}};
-    const BoundArguments args =
-        bind(capacitor ? with_terminals(kTwoTerminal, c_own) : with_terminals(kTwoTerminal, l_own));
-    const std::string a = terminal(args, "a"), b = terminal(args, "b");
-    std::optional<double> initial;
-    if (args.get("initial")) {
-      initial = value(args, "initial", capacitor ? Quantity::voltage : Quantity::current, frame);
-    }
-    if (capacitor) {
-      data = Capacitor{a, b, positive(args, "capacitance", Quantity::capacitance, ""), initial};
-    } else {
-      data = Inductor{a, b, positive(args, "inductance", Quantity::inductance, ""), initial};
-    }
-  } else if (kind == "voltage" || kind == "current") {
-    const bool voltage = kind == "voltage";
-    static constexpr Slot own[] = {{"dc", true}, {"ac"}, {"ac_phase"}, {"wave"}};
-    const BoundArguments args =
-        bind(voltage ? with_terminals(kPositiveNegative, own) : with_terminals(kTwoTerminal, own));
-    const Quantity level = voltage ? Quantity::voltage : Quantity::current;
-    std::optional<Waveform> wave;
-    if (const ast::Expr* e = args.get("wave")) wave = waveform(*e, level, frame);
-    const double dc = args.get("dc") ? value(args, "dc", level, frame)
-                      : wave         ? waveform_value(*wave, 0.0)
-                                     : 0.0;
-    const double ac = value(args, "ac", level, frame);
-    const double phase = value(args, "ac_phase", Quantity::angle, frame);
-    if (voltage) {
-      data = VoltageSource{terminal(args, "p"), terminal(args, "n"), dc, ac, phase, wave};
-    } else {
-      data = CurrentSource{terminal(args, "a"), terminal(args, "b"), dc, ac, phase, wave};
-    }
-  } else if (kind == "vcvs" || kind == "vccs") {
-    static constexpr Slot own[] = {{"control", false, true}, {"gain", false, true}};
-    const bool vcvs = kind == "vcvs";
-    const BoundArguments args =
-        bind(vcvs ? with_terminals(kPositiveNegative, own) : with_terminals(kTwoTerminal, own));
-    const auto [cp, cn] = controlled_pair(args);
-    if (vcvs) {
-      data = VoltageControlledVoltageSource{terminal(args, "p"), terminal(args, "n"), cp, cn,
-                                            value(args, "gain", Quantity::dimensionless, frame)};
-    } else {
-      data = VoltageControlledCurrentSource{terminal(args, "a"), terminal(args, "b"), cp, cn,
-                                            value(args, "gain", Quantity::conductance, frame)};
-    }
-  } else if (kind == "cccs" || kind == "ccvs") {
-    static constexpr Slot own[] = {{"sense", false, true}, {"gain", false, true}};
-    const bool cccs = kind == "cccs";
-    const BoundArguments args =
-        bind(cccs ? with_terminals(kTwoTerminal, own) : with_terminals(kPositiveNegative, own));
-    if (cccs) {
-      data = CurrentControlledCurrentSource{terminal(args, "a"), terminal(args, "b"), sense(args),
-                                            value(args, "gain", Quantity::dimensionless, frame)};
-    } else {
-      data = CurrentControlledVoltageSource{terminal(args, "p"), terminal(args, "n"), sense(args),
-                                            value(args, "gain", Quantity::resistance, frame)};
-    }
-  } else if (kind == "diode") {
-    static constexpr Slot own[] = {{"model", false, true}, {"area"}};
-    const BoundArguments args = bind(with_terminals(kDiodeTerminals, own));
-    const std::string model = require_name(*args.get("model"), "a model name", source);
-    references_.push_back({frame.file, args.offset("model"), model, Reference::Kind::diode_model});
-    Diode diode{terminal(args, "anode"), terminal(args, "cathode"), model, 1};
-    if (args.get("area")) diode.area = positive(args, "area", Quantity::dimensionless, "");
-    data = diode;
-  } else if (kind == "npn" || kind == "pnp") {
-    static constexpr Slot slots[] = {{"collector", true, true}, {"base", true, true},
-                                     {"emitter", true, true},   {"substrate"},
-                                     {"model", false, true},    {"area"}};
-    const BoundArguments args(instance.call, slots, kind, source);
-    const std::string model = require_name(*args.get("model"), "a model name", source);
-    references_.push_back(
-        {frame.file, args.offset("model"), model,
-         kind == "npn" ? Reference::Kind::npn_model : Reference::Kind::pnp_model});
-    Bipolar q{kind == "npn" ? Polarity::npn : Polarity::pnp,
-              terminal(args, "collector"),
-              terminal(args, "base"),
-              terminal(args, "emitter"),
-              std::nullopt,
-              model,
-              1};
-    if (args.get("substrate")) q.substrate = terminal(args, "substrate");
-    if (args.get("area")) q.area = positive(args, "area", Quantity::dimensionless, "");
-    data = q;
-  } else {
-    std::vector<std::string> kinds(kElementKinds.begin(), kElementKinds.end());
-    for (const auto& [block, where] : blocks_) kinds.push_back(block);
-    source.fail(instance.call.offset,
-                "unknown element kind or block '" + kind + "'" + reader::suggestion(kind, kinds));
+  });
+  const reader::SourceText& source = frame.file->source;
+  if (!data) {
+    std::vector<std::string> names = kinds::keywords();
+    for (const auto& [block, where] : blocks_) names.push_back(block);
+    source.fail(instance.call.offset, "unknown element kind or block '" + keyword + "'" +
+                                          reader::suggestion(keyword, names));
   }
   if (element_kinds_.count(name)) {
     source.fail(instance.offset, "an element named '" + name + "' already exists");
   }
-  element_kinds_[name] = kind;
+  element_kinds_[name] = keyword;
   deck_.places[name] = source.location(instance.offset);
-  deck_.circuit.add(name, std::move(data));
+  deck_.circuit.add(name, std::move(*data));
+}
+
+// Reads each argument into its field, checking a value against its field's
+// range where it is written.
+template <class E>
+E Elaborator::read_element(const kinds::Descriptor<E>& kind, const kinds::Spelling<E>& spelling,
+                           const ast::Instance& instance, const Frame& frame) {
+  const reader::SourceText& source = frame.file->source;
+  std::vector<Slot> slots;
+  for (const auto& f : kind.fields) slots.push_back({f.name, f.is_positional, f.is_required});
+  const BoundArguments args(instance.call, slots, spelling.keyword, source);
+  E e{};
+  if (spelling.preset != nullptr) spelling.preset(e);
+  const auto checked = [&](const kinds::Field<E>& f, double v) {
+    if (auto why = range_error(f.range, v)) {
+      source.fail(args.offset(f.name), std::string(spelling.keyword) + " " + std::string(f.name) +
+                                           " " + std::string(*why) + std::string(f.hint));
+    }
+    return v;
+  };
+  for (const auto& f : kind.fields) {
+    const ast::Expr* given = args.get(f.name);
+    if (given == nullptr) continue;
+    switch (f.kind) {
+      case kinds::FieldKind::terminal:
+        e.*f.text = node(*given, frame);
+        break;
+      case kinds::FieldKind::optional_terminal:
+        e.*f.optional_text = node(*given, frame);
+        break;
+      case kinds::FieldKind::value:
+        e.*f.number = checked(f, value(args, f.name, f.quantity, frame));
+        break;
+      case kinds::FieldKind::optional_value:
+        e.*f.optional_number = checked(f, value(args, f.name, f.quantity, frame));
+        break;
+      case kinds::FieldKind::waveform:
+        e.*f.wave = waveform(*given, f.quantity, frame);
+        break;
+      case kinds::FieldKind::control_pair:
+        std::tie(e.*f.text, e.*f.second) = node_pair(*given, args.offset(f.name), frame);
+        break;
+      case kinds::FieldKind::sensed_element:
+        e.*f.text = element_name(require_name(*given, "an element name", source), frame);
+        references_.push_back({frame.file, args.offset(f.name), e.*f.text, {}});
+        break;
+      case kinds::FieldKind::model:
+        e.*f.text = require_name(*given, "a model name", source);
+        references_.push_back(
+            {frame.file, args.offset(f.name), e.*f.text, std::string(kind.model_kind(e))});
+        break;
+    }
+  }
+  for (const auto& f : kind.fields) {
+    if (f.defaults_to_wave_start && args.get(f.name) == nullptr) {
+      for (const auto& w : kind.fields) {
+        if (w.kind == kinds::FieldKind::waveform && (e.*w.wave)) {
+          e.*f.number = waveform_value(*(e.*w.wave), 0.0);
+        }
+      }
+    }
+  }
+  return e;
+}
+
+std::pair<std::string, std::string> Elaborator::node_pair(const ast::Expr& e, int offset,
+                                                          const Frame& frame) {
+  const auto* tuple = boost::get<x3::forward_ast<ast::Tuple>>(&ast::unwrap(e));
+  if (!tuple || tuple->get().items.size() != 2) {
+    frame.file->source.fail(offset, "expected control = (node, node)");
+  }
+  return {node(tuple->get().items[0], frame), node(tuple->get().items[1], frame)};
 }
 
 Waveform Elaborator::waveform(const ast::Expr& e, Quantity level, const Frame& frame) {

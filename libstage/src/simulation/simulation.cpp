@@ -13,6 +13,7 @@
 #include "analysis/newton.hpp"
 #include "analysis/operating_point.hpp"
 #include "analysis/transient.hpp"
+#include "circuit/element_kinds.hpp"
 #include "mna/system.hpp"
 #include "simulation/assemble.hpp"
 #include "simulation/simulation_access.hpp"
@@ -20,51 +21,6 @@
 #include "stage/validate.hpp"
 
 namespace stage {
-namespace {
-
-// Why `value` cannot be the value of `data`, or nothing.
-std::optional<std::string> value_error(const ElementData& data, double value) {
-  if (!std::isfinite(value)) return "a value must be finite";
-  const bool positive_only = std::holds_alternative<Resistor>(data) ||
-                             std::holds_alternative<Capacitor>(data) ||
-                             std::holds_alternative<Inductor>(data);
-  if (positive_only && !(value > 0))
-    return "a resistance, capacitance or inductance must be positive";
-  return std::nullopt;
-}
-
-// The element's own value (resistance, capacitance, inductance, DC value).
-std::optional<double> value_of(const ElementData& data) {
-  return std::visit(
-      [](const auto& e) -> std::optional<double> {
-        using T = std::decay_t<decltype(e)>;
-        if constexpr (std::is_same_v<T, Resistor>) return e.resistance;
-        if constexpr (std::is_same_v<T, Capacitor>) return e.capacitance;
-        if constexpr (std::is_same_v<T, Inductor>) return e.inductance;
-        if constexpr (std::is_same_v<T, VoltageSource> || std::is_same_v<T, CurrentSource>) {
-          return e.dc;
-        }
-        return std::nullopt;
-      },
-      data);
-}
-
-// Writes `value` into the element's description, where its own value lives.
-void store_value(ElementData& data, double value) {
-  std::visit(
-      [&](auto& e) {
-        using T = std::decay_t<decltype(e)>;
-        if constexpr (std::is_same_v<T, Resistor>) e.resistance = value;
-        if constexpr (std::is_same_v<T, Capacitor>) e.capacitance = value;
-        if constexpr (std::is_same_v<T, Inductor>) e.inductance = value;
-        if constexpr (std::is_same_v<T, VoltageSource> || std::is_same_v<T, CurrentSource>) {
-          e.dc = value;
-        }
-      },
-      data);
-}
-
-}  // namespace
 
 // The circuit itself, checked before anything is built from it.
 const Circuit& validated(const Circuit& circuit) {
@@ -204,14 +160,14 @@ void Simulation::set_value(const std::string& element, double value) {
   if (e == nullptr || device == nullptr) {
     throw Error(ErrorKind::invalid_request, "no element named '" + element + "'", {element});
   }
-  if (auto why = value_error(e->data, value)) {
+  if (auto why = kinds::own_value_error(e->data, value)) {
     throw Error(ErrorKind::invalid_request, "'" + element + "': " + *why, {element});
   }
   if (!device->set_value(value)) {
     throw Error(ErrorKind::invalid_request, "'" + element + "' has no single value to set",
                 {element});
   }
-  store_value(e->data, value);
+  kinds::set_own_value(e->data, value);
   state_->bias.reset();
 }
 
@@ -225,12 +181,14 @@ bool Simulation::take_values_from(const Circuit& other) {
   for (std::size_t k = 0; k < mine.elements().size(); ++k) {
     Element same = mine.elements()[k];
     const Element& theirs = other.elements()[k];
-    if (const auto value = value_of(theirs.data)) store_value(same.data, *value);
+    if (const auto value = kinds::own_value(theirs.data)) kinds::set_own_value(same.data, *value);
     if (!(same == theirs)) return false;
   }
   for (const Element& e : other.elements()) {
-    const auto value = value_of(e.data);
-    if (value && value != value_of(state_->circuit.find(e.name)->data)) set_value(e.name, *value);
+    const auto value = kinds::own_value(e.data);
+    if (value && value != kinds::own_value(state_->circuit.find(e.name)->data)) {
+      set_value(e.name, *value);
+    }
   }
   return true;
 }
@@ -238,13 +196,12 @@ bool Simulation::take_values_from(const Circuit& other) {
 void Simulation::set_waveform(const std::string& source, const std::optional<Waveform>& wave) {
   Element* e = state_->circuit.find(source);
   mna::Device* device = state_->system.find_device(source);
-  auto* voltage = e == nullptr ? nullptr : std::get_if<VoltageSource>(&e->data);
-  auto* current = e == nullptr ? nullptr : std::get_if<CurrentSource>(&e->data);
-  if (device == nullptr || (voltage == nullptr && current == nullptr)) {
+  std::optional<Waveform>* field = e == nullptr ? nullptr : kinds::waveform_of(e->data);
+  if (device == nullptr || field == nullptr) {
     throw Error(ErrorKind::invalid_request, "'" + source + "' is not an independent source",
                 {source});
   }
-  auto& stored = voltage != nullptr ? voltage->wave : current->wave;
+  std::optional<Waveform>& stored = *field;
   const std::optional<Waveform> before = stored;
   stored = wave;
   if (auto p = validate(state_->circuit)) {

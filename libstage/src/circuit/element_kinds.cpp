@@ -1,0 +1,107 @@
+// The questions asked of an element, answered from its kind's descriptor.
+#include "circuit/element_kinds.hpp"
+
+namespace stage::kinds {
+namespace {
+
+template <class E>
+const Field<E>* own_field(const Descriptor<E>& d) {
+  if (d.own_value.empty()) return nullptr;
+  for (const Field<E>& f : d.fields) {
+    if (f.name == d.own_value) return &f;
+  }
+  return nullptr;
+}
+
+}  // namespace
+
+std::vector<std::string> keywords() {
+  std::vector<std::string> out;
+  for_each_kind([&](const auto& d) {
+    for (const auto& s : d.spellings) out.emplace_back(s.keyword);
+  });
+  return out;
+}
+
+std::string_view keyword(const ElementData& data) {
+  return with_descriptor(data, [](const auto& e, const auto& d) {
+    for (const auto& s : d.spellings) {
+      if (s.preset == nullptr) return s.keyword;
+      auto preset = e;
+      s.preset(preset);
+      if (preset == e) return s.keyword;
+    }
+    return d.spellings.front().keyword;
+  });
+}
+
+std::vector<std::string> nodes(const ElementData& data) {
+  return with_descriptor(data, [](const auto& e, const auto& d) {
+    std::vector<std::string> out;
+    for (const auto& f : d.fields) {
+      if (f.kind == FieldKind::terminal) out.push_back(e.*f.text);
+      if (f.kind == FieldKind::optional_terminal && (e.*f.optional_text)) {
+        out.push_back(*(e.*f.optional_text));
+      }
+      if (f.kind == FieldKind::control_pair) {
+        out.push_back(e.*f.text);
+        out.push_back(e.*f.second);
+      }
+    }
+    return out;
+  });
+}
+
+bool has_role(const ElementData& data, Role role) {
+  return with_descriptor(data, [&](const auto&, const auto& d) { return has(d.roles, role); });
+}
+
+std::optional<double> field_value(const ElementData& data, std::string_view name) {
+  return with_descriptor(data, [&](const auto& e, const auto& d) -> std::optional<double> {
+    for (const auto& f : d.fields) {
+      if (f.name == name && f.kind == FieldKind::value) return e.*(f.number);
+    }
+    return std::nullopt;
+  });
+}
+
+std::optional<Waveform>* waveform_of(ElementData& data) {
+  return with_descriptor(data, [](auto& e, const auto& d) -> std::optional<Waveform>* {
+    for (const auto& f : d.fields) {
+      if (f.kind == FieldKind::waveform) return &(e.*(f.wave));
+    }
+    return nullptr;
+  });
+}
+
+std::optional<double> own_value(const ElementData& data) {
+  return with_descriptor(data, [](const auto& e, const auto& d) -> std::optional<double> {
+    const auto* f = own_field(d);
+    if (f == nullptr) return std::nullopt;
+    return e.*(f->number);
+  });
+}
+
+std::optional<std::string> own_value_error(const ElementData& data, double value) {
+  return with_descriptor(data, [&](const auto&, const auto& d) -> std::optional<std::string> {
+    const auto* f = own_field(d);
+    if (f == nullptr) {
+      return "a " + std::string(d.spellings.front().keyword) + " has no value of its own to set";
+    }
+    if (auto why = range_error(f->range, value)) {
+      return "its " + std::string(f->name) + " " + std::string(*why);
+    }
+    return std::nullopt;
+  });
+}
+
+bool set_own_value(ElementData& data, double value) {
+  return with_descriptor(data, [&](auto& e, const auto& d) {
+    const auto* f = own_field(d);
+    if (f == nullptr) return false;
+    e.*(f->number) = value;
+    return true;
+  });
+}
+
+}  // namespace stage::kinds
