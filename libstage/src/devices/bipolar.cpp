@@ -249,4 +249,9 @@ std::unique_ptr<mna::Device> make_bipolar(const std::string& name, const Bipolar
   return std::make_unique<BipolarDevice>(name, element, model, topology);
 }
 
+std::unique_ptr<mna::Device> make_device(const std::string& name, const Bipolar& e,
+                                         const Circuit& circuit, mna::Topology& t) {
+  return make_bipolar(name, e, find_model(circuit.bipolar_models(), e.model, name), t);
+}
+
 }  // namespace stage::devices

@@ -1,6 +1,7 @@
 // Stamps of the controlled sources.
 #include "devices/controlled.hpp"
 
+#include "mna/topology.hpp"
 #include "mna/topology_check.hpp"
 #include "stage/errors.hpp"
 
@@ -119,6 +120,36 @@ void CcvsDevice::describe_topology(mna::TopologyCheck& check) const {
 
 std::optional<double> CcvsDevice::reported_current(const mna::EvalRequest& at) const {
   return at.x[k_];
+}
+
+std::unique_ptr<mna::Device> make_device(const std::string& name,
+                                         const VoltageControlledVoltageSource& e, const Circuit&,
+                                         mna::Topology& t) {
+  const auto p = t.node(e.p), n = t.node(e.n);
+  const auto cp = t.node(e.control_p), cn = t.node(e.control_n);
+  return std::make_unique<VcvsDevice>(name, p, n, cp, cn, t.branch(name), e.gain);
+}
+
+std::unique_ptr<mna::Device> make_device(const std::string& name,
+                                         const VoltageControlledCurrentSource& e, const Circuit&,
+                                         mna::Topology& t) {
+  const auto a = t.node(e.a), b = t.node(e.b);
+  const auto cp = t.node(e.control_p), cn = t.node(e.control_n);
+  return std::make_unique<VccsDevice>(name, a, b, cp, cn, e.gain);
+}
+
+std::unique_ptr<mna::Device> make_device(const std::string& name,
+                                         const CurrentControlledCurrentSource& e, const Circuit&,
+                                         mna::Topology& t) {
+  const auto a = t.node(e.a), b = t.node(e.b);
+  return std::make_unique<CccsDevice>(name, a, b, e.sense, e.gain);
+}
+
+std::unique_ptr<mna::Device> make_device(const std::string& name,
+                                         const CurrentControlledVoltageSource& e, const Circuit&,
+                                         mna::Topology& t) {
+  const auto p = t.node(e.p), n = t.node(e.n);
+  return std::make_unique<CcvsDevice>(name, p, n, t.branch(name), e.sense, e.gain);
 }
 
 }  // namespace stage::devices

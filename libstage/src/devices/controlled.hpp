@@ -4,7 +4,13 @@
 // which is resolved in declare() once every device exists.
 #pragma once
 
+#include <memory>
+
 #include "devices/stamp.hpp"
+
+namespace stage::mna {
+class Topology;
+}
 
 namespace stage::devices {
 
@@ -80,5 +86,19 @@ class CcvsDevice final : public mna::Device {
 // The branch unknown of the element a current-controlled source senses.
 mna::Index sensed_branch(mna::PatternBuilder& pattern, const std::string& device,
                          const std::string& sense);
+
+// The factory's overloads (see devices/passive.hpp).
+std::unique_ptr<mna::Device> make_device(const std::string& name,
+                                         const VoltageControlledVoltageSource& e,
+                                         const Circuit& circuit, mna::Topology& topology);
+std::unique_ptr<mna::Device> make_device(const std::string& name,
+                                         const VoltageControlledCurrentSource& e,
+                                         const Circuit& circuit, mna::Topology& topology);
+std::unique_ptr<mna::Device> make_device(const std::string& name,
+                                         const CurrentControlledCurrentSource& e,
+                                         const Circuit& circuit, mna::Topology& topology);
+std::unique_ptr<mna::Device> make_device(const std::string& name,
+                                         const CurrentControlledVoltageSource& e,
+                                         const Circuit& circuit, mna::Topology& topology);
 
 }  // namespace stage::devices

@@ -1,6 +1,7 @@
 // Stamps of the resistor, capacitor and inductor.
 #include "devices/passive.hpp"
 
+#include "mna/topology.hpp"
 #include "mna/topology_check.hpp"
 
 namespace stage::devices {
@@ -105,6 +106,24 @@ std::optional<double> InductorDevice::reported_current(const mna::EvalRequest& a
 std::optional<mna::InitialCondition> InductorDevice::initial_condition() const {
   if (!initial_current_) return std::nullopt;
   return mna::InitialCondition{k_, mna::kGroundIndex, *initial_current_};
+}
+
+std::unique_ptr<mna::Device> make_device(const std::string& name, const Resistor& e, const Circuit&,
+                                         mna::Topology& t) {
+  return std::make_unique<ResistorDevice>(name, t.node(e.a), t.node(e.b), e.resistance);
+}
+
+std::unique_ptr<mna::Device> make_device(const std::string& name, const Capacitor& e,
+                                         const Circuit&, mna::Topology& t) {
+  return std::make_unique<CapacitorDevice>(name, t.node(e.a), t.node(e.b), e.capacitance,
+                                           e.initial_voltage);
+}
+
+std::unique_ptr<mna::Device> make_device(const std::string& name, const Inductor& e, const Circuit&,
+                                         mna::Topology& t) {
+  const auto a = t.node(e.a), b = t.node(e.b);
+  return std::make_unique<InductorDevice>(name, a, b, t.branch(name), e.inductance,
+                                          e.initial_current);
 }
 
 }  // namespace stage::devices

@@ -1,7 +1,13 @@
 // Resistor, capacitor and inductor.
 #pragma once
 
+#include <memory>
+
 #include "devices/stamp.hpp"
+
+namespace stage::mna {
+class Topology;
+}
 
 namespace stage::devices {
 
@@ -61,5 +67,14 @@ class InductorDevice final : public mna::Device {
   BranchSlots slots_;
   mna::Slot kk_ = 0;
 };
+
+// Makes the device of one element: numbers its nodes and branch unknowns in
+// `topology`. One overload per element kind; devices/factory.cpp picks it.
+std::unique_ptr<mna::Device> make_device(const std::string& name, const Resistor& e,
+                                         const Circuit& circuit, mna::Topology& topology);
+std::unique_ptr<mna::Device> make_device(const std::string& name, const Capacitor& e,
+                                         const Circuit& circuit, mna::Topology& topology);
+std::unique_ptr<mna::Device> make_device(const std::string& name, const Inductor& e,
+                                         const Circuit& circuit, mna::Topology& topology);
 
 }  // namespace stage::devices

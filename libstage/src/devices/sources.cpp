@@ -3,6 +3,7 @@
 
 #include <numbers>
 
+#include "mna/topology.hpp"
 #include "mna/topology_check.hpp"
 
 namespace stage::devices {
@@ -67,6 +68,20 @@ void CurrentSourceDevice::ac_excitation(std::complex<double>* b) const {
 
 void CurrentSourceDevice::describe_topology(mna::TopologyCheck& check) const {
   check.forces_current(a_, b_, name());
+}
+
+std::unique_ptr<mna::Device> make_device(const std::string& name, const VoltageSource& e,
+                                         const Circuit&, mna::Topology& t) {
+  const auto p = t.node(e.p), n = t.node(e.n);
+  return std::make_unique<VoltageSourceDevice>(
+      name, p, n, t.branch(name), SourceValue(e.dc, e.wave, e.ac_magnitude, e.ac_phase_deg));
+}
+
+std::unique_ptr<mna::Device> make_device(const std::string& name, const CurrentSource& e,
+                                         const Circuit&, mna::Topology& t) {
+  const auto a = t.node(e.a), b = t.node(e.b);
+  return std::make_unique<CurrentSourceDevice>(
+      name, a, b, SourceValue(e.dc, e.wave, e.ac_magnitude, e.ac_phase_deg));
 }
 
 }  // namespace stage::devices

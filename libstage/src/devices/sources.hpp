@@ -2,9 +2,14 @@
 // for transients and a small-signal (AC) phasor.
 #pragma once
 
+#include <memory>
 #include <optional>
 
 #include "devices/stamp.hpp"
+
+namespace stage::mna {
+class Topology;
+}
 
 namespace stage::devices {
 
@@ -88,5 +93,11 @@ class CurrentSourceDevice final : public IndependentSource {
  private:
   mna::Index a_, b_;
 };
+
+// The factory's overloads (see devices/passive.hpp).
+std::unique_ptr<mna::Device> make_device(const std::string& name, const VoltageSource& e,
+                                         const Circuit& circuit, mna::Topology& topology);
+std::unique_ptr<mna::Device> make_device(const std::string& name, const CurrentSource& e,
+                                         const Circuit& circuit, mna::Topology& topology);
 
 }  // namespace stage::devices
