@@ -18,6 +18,7 @@
 #include "common/si_format.hpp"
 #include "large_signal/drive_setup.hpp"
 #include "large_signal/headroom_search.hpp"
+#include "large_signal/limit_classifier.hpp"
 #include "large_signal/sine_drive.hpp"
 #include "mna/system.hpp"
 #include "simulation/simulation_access.hpp"
@@ -39,11 +40,6 @@ constexpr double kPlateauFraction = 0.2;
 constexpr double kClipTolerance = 0.05;  // the clip level's drive to 5 %
 // 1 dB compression: the peak falls short of the prediction by 10^(-1/20).
 const double kOneDbShortfall = 1.0 - std::pow(10.0, -1.0 / 20.0);
-constexpr double kRailMargin = 0.02;  // of the rail voltage, at least kRailMarginVolts
-constexpr double kRailMarginVolts = 0.05;
-constexpr double kCutoffFraction = 0.5;   // of the bias current: turning off
-constexpr double kTakeOver = 2.0;         // of the bias current: carrying the side
-constexpr double kStarvedFraction = 0.1;  // of a bias diode's current: starved
 
 enum Criterion { kPositive, kNegative, kThd, kPositive1dB, kNegative1dB, kCriteria };
 
@@ -174,182 +170,6 @@ class Search {
   std::map<double, analysis::DriveMeasurement> runs_;
 };
 
-// What stops a side, read from the devices at the waveform's extreme, in
-// this order: a transistor newly in saturation; the output at a supply rail;
-// a diode that conducted at the bias point carrying less than
-// kStarvedFraction of that current (the network that biases the drive has run
-// out of current: current_limit); unless another transistor has taken over
-// (more than kTakeOver times its bias current, as in a push-pull pair at a
-// large swing, where the idle half turning off is normal): a push-pull pair
-// handing over (one half above its bias current while the other, still
-// conducting, is below its own: crossover), then a transistor newly in
-// cutoff or carrying less than kCutoffFraction of its bias current;
-// otherwise smooth distortion, blamed on the transistor that carries the
-// side after a take-over, else on the one whose incremental gain departs
-// most from its small-signal value.
-mna::OperatingPointReport devices_at(const mna::System& system, const analysis::Extreme& extreme) {
-  mna::EvalRequest at = system.request(extreme.state.data());
-  at.dc = false;
-  at.time = extreme.time;
-  mna::OperatingPointReport report;
-  for (const auto& d : system.devices()) d->report(at, report);
-  return report;
-}
-
-// |IC| at the peak over |IC| at the bias point.
-double current_ratio(const BiasResult& bias, const BipolarOperatingPoint& q) {
-  const double biased = std::abs(bias.bipolar(q.name).collector_current);
-  return biased > 0 ? std::max(std::abs(q.collector_current), 1e-300) / biased : 1.0;
-}
-
-// What classify needs to know of the circuit, found once per search.
-struct StageFacts {
-  std::vector<analysis::Rail> rails;
-  std::map<std::string, double> emitter_impedance;  // per transistor, ohm
-  // Push-pull pairs: an npn and a pnp whose emitters share a node or reach
-  // one node through one resistor each (emitter resistors).
-  std::set<std::pair<std::string, std::string>> pairs;
-
-  bool paired(const std::string& a, const std::string& b) const {
-    return pairs.count({a, b}) > 0 || pairs.count({b, a}) > 0;
-  }
-};
-
-LimitCause classify(const mna::System& system, const BiasResult& bias, const StageFacts& facts,
-                    const analysis::Extreme& extreme, double output_reference) {
-  const auto& rails = facts.rails;
-  const auto& emitter_impedance = facts.emitter_impedance;
-  const mna::OperatingPointReport report = devices_at(system, extreme);
-  const auto ratio = [&](const BipolarOperatingPoint& q) { return current_ratio(bias, q); };
-  // A transistor's share of its stage's gain goes as gm / (1 + gm Ze), Ze
-  // the impedance its emitter sees (degeneration, or a follower's load):
-  // a follower whose current swings widely keeps its gain, a common-emitter
-  // stage whose current swings less does not.
-  const auto gain_departure = [&](const BipolarOperatingPoint& q) {
-    const auto ze = emitter_impedance.find(q.name);
-    const double z = ze == emitter_impedance.end() ? 0.0 : ze->second;
-    const auto share = [&](double gm) { return std::max(gm / (1 + gm * z), 1e-300); };
-    return std::abs(std::log(share(q.gm) / share(bias.bipolar(q.name).gm)));
-  };
-  bool taken_over = false;
-  for (const auto& q : report.bipolars) taken_over = taken_over || ratio(q) > kTakeOver;
-  const BipolarOperatingPoint* blamed = nullptr;
-  const BipolarOperatingPoint* faded = nullptr;
-  double blamed_score = 0;
-  for (const auto& q : report.bipolars) {
-    const double score = taken_over ? ratio(q) : gain_departure(q);
-    if (blamed == nullptr || score > blamed_score) {
-      blamed = &q;
-      blamed_score = score;
-    }
-    if (faded == nullptr || ratio(q) < ratio(*faded)) faded = &q;
-  }
-  const auto currents = [&](const BipolarOperatingPoint& q) {
-    return q.name + " collector current " + text::si(std::abs(q.collector_current), "A") +
-           " at the peak, " + text::si(std::abs(bias.bipolar(q.name).collector_current), "A") +
-           " at the bias point";
-  };
-  const std::string detail = blamed == nullptr ? "" : currents(*blamed);
-
-  for (const auto& q : report.bipolars) {
-    if (q.region == Region::saturation && bias.bipolar(q.name).region != Region::saturation) {
-      return {Mechanism::saturation, q.name, detail};
-    }
-  }
-  for (const analysis::Rail& r : rails) {
-    const double margin = std::max(kRailMarginVolts, kRailMargin * std::abs(r.voltage));
-    if (std::abs(extreme.value + output_reference - r.voltage) < margin) {
-      return {Mechanism::rail, r.source, detail};
-    }
-  }
-  for (const auto& d : report.diodes) {
-    const double biased = bias.diode(d.name).current;
-    if (biased > 0 && d.current < kStarvedFraction * biased) {
-      return {Mechanism::current_limit, d.name,
-              d.name + " carries " + text::si(d.current, "A") + " at the peak, " +
-                  text::si(biased, "A") + " at the bias point"};
-    }
-  }
-  if (!taken_over) {
-    for (const auto& fading : report.bipolars) {
-      if (fading.region == Region::cutoff || ratio(fading) >= 1) continue;
-      for (const auto& rising : report.bipolars) {
-        if (ratio(rising) > 1 && facts.paired(fading.name, rising.name)) {
-          return {Mechanism::crossover, fading.name, currents(fading) + "; " + currents(rising)};
-        }
-      }
-    }
-    for (const auto& q : report.bipolars) {
-      if (q.region == Region::cutoff && bias.bipolar(q.name).region != Region::cutoff) {
-        return {Mechanism::cutoff, q.name, currents(q)};
-      }
-    }
-    if (faded != nullptr && ratio(*faded) < kCutoffFraction) {
-      return {Mechanism::cutoff, faded->name, currents(*faded)};
-    }
-  }
-  if (blamed != nullptr && !taken_over) {
-    return {Mechanism::distortion, blamed->name,
-            detail + "; its incremental gain " + text::percent(std::expm1(blamed_score)) +
-                " away from its small-signal value"};
-  }
-  return {Mechanism::distortion, blamed == nullptr ? "" : blamed->name, detail};
-}
-
-// The transistor carrying the output at an extreme: the one whose current
-// rose furthest above its bias.
-std::optional<BipolarOperatingPoint> carrier(const mna::System& system, const BiasResult& bias,
-                                             const analysis::Extreme& extreme) {
-  std::optional<BipolarOperatingPoint> best;
-  for (const auto& q : devices_at(system, extreme).bipolars) {
-    if (!best || current_ratio(bias, q) > current_ratio(bias, *best)) best = q;
-  }
-  return best;
-}
-
-StageFacts stage_facts(const Circuit& circuit, const std::string& input, double frequency) {
-  StageFacts facts;
-  facts.rails = analysis::supply_rails(circuit, input);
-  // Nodes one resistor away from each node, for emitter resistors.
-  std::multimap<std::string, std::string> through_resistor;
-  for (const Element& e : circuit.elements()) {
-    if (const auto* r = std::get_if<Resistor>(&e.data)) {
-      through_resistor.emplace(r->a, r->b);
-      through_resistor.emplace(r->b, r->a);
-    }
-  }
-  const auto share_output = [&](const std::string& a, const std::string& b) {
-    if (a == b) return true;
-    for (auto [from_a, end_a] = through_resistor.equal_range(a); from_a != end_a; ++from_a) {
-      for (auto [from_b, end_b] = through_resistor.equal_range(b); from_b != end_b; ++from_b) {
-        if (from_a->second == from_b->second) return true;
-      }
-    }
-    return false;
-  };
-  for (const Element& e : circuit.elements()) {
-    const auto* q = std::get_if<Bipolar>(&e.data);
-    if (q == nullptr) continue;
-    // The impedance its emitter sees with it taken out (zero where it is
-    // grounded or taking it out floats a node).
-    try {
-      facts.emitter_impedance[e.name] =
-          analysis::impedance_without(circuit, e.name, q->emitter, kGround, frequency)
-              .value_or(0.0);
-    } catch (const NumericalError&) {
-      facts.emitter_impedance[e.name] = 0;
-    }
-    for (const Element& other : circuit.elements()) {
-      const auto* p = std::get_if<Bipolar>(&other.data);
-      if (p != nullptr && q->polarity == Polarity::npn && p->polarity == Polarity::pnp &&
-          share_output(q->emitter, p->emitter)) {
-        facts.pairs.emplace(e.name, other.name);
-      }
-    }
-  }
-  return facts;
-}
-
 // The largest input amplitude a driver on the circuit's rails can deliver:
 // half the span between the lowest and the highest rail (ground counts as
 // one). An ideal voltage source driven past the rails only forces junctions
@@ -399,8 +219,12 @@ HeadroomResult headroom_search(const Circuit& circuit, const SineDrive& drive,
   Search search(drive, options.distortion_limit, result.small_signal_gain, options.max_runs,
                 progress);
 
-  const StageFacts facts = stage_facts(circuit, options.input, options.frequency);
-  const auto& rails = facts.rails;
+  const mna::System& system = SimulationAccess::system(drive.simulation());
+  const double reference =
+      options.output.kind == SignalRef::Kind::node_pair ? node(options.output.b) : 0.0;
+  const LimitClassifier classifier(circuit, system, result.bias, options.input, options.frequency,
+                                   reference);
+  const std::vector<Rail> rails = supply_rails(circuit, options.input);
   double largest_rail = 1.0;
   for (const analysis::Rail& r : rails) largest_rail = std::max(largest_rail, std::abs(r.voltage));
   const std::optional<double> rail_bound = rail_drive_bound(circuit, rails, options.input);
@@ -458,16 +282,13 @@ HeadroomResult headroom_search(const Circuit& circuit, const SineDrive& drive,
     }
   }
 
-  const mna::System& system = SimulationAccess::system(drive.simulation());
-  const double reference =
-      options.output.kind == SignalRef::Kind::node_pair ? node(options.output.b) : 0.0;
   const auto& largest = search.runs().rbegin()->second;
   result.largest_drive_allowed = largest_amplitude();
   auto side = [&](Criterion c, Criterion compression) {
     const bool positive = positive_side(c);
     const char* name = positive ? "positive" : "negative";
     auto cause_in = [&](const analysis::DriveMeasurement& m) {
-      return classify(system, result.bias, facts, positive ? m.maximum : m.minimum, reference);
+      return classifier.classify(positive ? m.maximum : m.minimum);
     };
     SideLimit s;
     if (const auto flat = search.plateau(positive)) {
@@ -542,16 +363,15 @@ HeadroomResult headroom_search(const Circuit& circuit, const SineDrive& drive,
     // Which halves carry is read at the largest drive, where the currents
     // stand clear of the leakage. Otherwise the THD is blamed like the side
     // that falls shorter.
-    const auto up = carrier(system, result.bias, largest.maximum);
-    const auto down = carrier(system, result.bias, largest.minimum);
-    if (search.judged_large_signal() && up && down && facts.paired(up->name, down->name)) {
-      result.thd_limit_cause = {
-          Mechanism::crossover, up->name + " and " + down->name,
-          up->name + " carries the positive half, " + down->name + " the negative"};
+    std::optional<LimitCause> crossover;
+    if (search.judged_large_signal()) {
+      crossover = classifier.pair_handing_over(largest.maximum, largest.minimum);
+    }
+    if (crossover) {
+      result.thd_limit_cause = crossover;
     } else {
       const bool positive = search.value(kPositive, *past) >= search.value(kNegative, *past);
-      result.thd_limit_cause =
-          classify(system, result.bias, facts, positive ? past->maximum : past->minimum, reference);
+      result.thd_limit_cause = classifier.classify(positive ? past->maximum : past->minimum);
     }
   }
   result.symmetric_peak_to_peak = 2 * symmetric;
