@@ -51,6 +51,69 @@ double rms_period_change(const TransientResult& tr, const TransientSignal& signa
   return std::sqrt(sum / period);
 }
 
+// The whole periods the transient holds (a rounding short of one counts).
+int whole_periods(const TransientResult& tr, double period) {
+  const double length = tr.time.empty() ? 0.0 : tr.time.back() - tr.time.front();
+  return static_cast<int>(std::floor(length / period * (1.0 + 1e-9)));
+}
+
+// The analysed stretch of a signal: from t0 to the transient's end, in
+// quadrature panels of at most max_panel.
+struct Stretch {
+  const TransientResult& tr;
+  const TransientSignal& signal;
+  double t0 = 0;
+  double length = 0;
+  double max_panel = 0;
+  double omega = 0;  // rad/s of the fundamental
+
+  template <typename F>
+  void integrate(F&& at_node) const {
+    analysis::for_each_quadrature_node(
+        tr.time, t0, tr.time.back(), max_panel, [&](double t, double weight, std::size_t k) {
+          at_node(t, weight, analysis::step_piece(tr, signal, k).value(t));
+        });
+  }
+};
+
+// The DC, each harmonic's amplitude and phase (cosine and sine parts of the
+// interpolant's Fourier integrals), and the THD.
+void fourier_series(const Stretch& s, int harmonics, SpectrumResult& result) {
+  std::vector<double> a(static_cast<std::size_t>(harmonics) + 1, 0.0), b(a.size(), 0.0);
+  double dc = 0;
+  s.integrate([&](double t, double weight, double value) {
+    const double v = value * weight;
+    dc += v;
+    for (int n = 1; n <= harmonics; ++n) {
+      a[n] += v * std::cos(n * s.omega * t);
+      b[n] += v * std::sin(n * s.omega * t);
+    }
+  });
+  result.dc = dc / s.length;
+  double harmonic_power = 0;
+  for (int n = 1; n <= harmonics; ++n) {
+    const double cosine = 2.0 * a[n] / s.length, sine = 2.0 * b[n] / s.length;
+    const double amplitude = std::hypot(cosine, sine);
+    result.harmonics.push_back({n, amplitude, std::atan2(cosine, sine) * 180.0 / std::numbers::pi});
+    if (n > 1) harmonic_power += amplitude * amplitude;
+  }
+  const Harmonic& first = result.harmonics.front();
+  result.thd = first.amplitude > 0 ? std::sqrt(harmonic_power) / first.amplitude : 0.0;
+}
+
+// The RMS of what is left once the DC and the fundamental are taken away,
+// over the fundamental's RMS.
+double thd_plus_noise(const Stretch& s, const SpectrumResult& result, double rms_fundamental) {
+  const Harmonic& first = result.harmonics.front();
+  double residual = 0;
+  const double phi = first.phase_deg * std::numbers::pi / 180.0;
+  s.integrate([&](double t, double weight, double value) {
+    const double r = value - result.dc - first.amplitude * std::sin(s.omega * t + phi);
+    residual += weight * r * r;
+  });
+  return rms_fundamental > 0 ? std::sqrt(residual / s.length) / rms_fundamental : 0.0;
+}
+
 }  // namespace
 
 SpectrumResult run_spectrum(const TransientResult& tr, const SpectrumOptions& options,
@@ -65,8 +128,7 @@ SpectrumResult run_spectrum(const TransientResult& tr, const SpectrumOptions& op
   result.fundamental = options.fundamental;
   const TransientSignal& signal = analysis::signal_named(tr, result.signal);
   const double period = 1.0 / options.fundamental;
-  const double length = tr.time.empty() ? 0.0 : tr.time.back() - tr.time.front();
-  const auto whole = static_cast<int>(std::floor(length / period * (1.0 + 1e-9)));
+  const int whole = whole_periods(tr, period);
   if (whole < 1) {
     throw Error(ErrorKind::invalid_request,
                 "the transient is shorter than one period of the fundamental",
@@ -80,49 +142,16 @@ SpectrumResult run_spectrum(const TransientResult& tr, const SpectrumOptions& op
                      " are needed to analyse the last and check it has settled";
   }
 
-  const double t0 = tr.time.back() - result.periods * period;
-  const double length_analysed = result.periods * period;
-  const double w = 2.0 * std::numbers::pi * options.fundamental;
-  const double max_panel = kPanelPhase / (w * options.harmonics);
-  // Cosine and sine parts of each harmonic, and the DC: integrals of the
-  // interpolant, k being the step that holds t.
-  std::vector<double> a(static_cast<std::size_t>(options.harmonics) + 1, 0.0), b(a.size(), 0.0);
-  double dc = 0;
-  const auto value_at = [&](double t, std::size_t k) {
-    return analysis::step_piece(tr, signal, k).value(t);
-  };
-  analysis::for_each_quadrature_node(tr.time, t0, tr.time.back(), max_panel,
-                                     [&](double t, double weight, std::size_t k) {
-                                       const double v = value_at(t, k) * weight;
-                                       dc += v;
-                                       for (int n = 1; n <= options.harmonics; ++n) {
-                                         a[n] += v * std::cos(n * w * t);
-                                         b[n] += v * std::sin(n * w * t);
-                                       }
-                                     });
-  result.dc = dc / length_analysed;
-  double harmonic_power = 0;
-  for (int n = 1; n <= options.harmonics; ++n) {
-    const double cosine = 2.0 * a[n] / length_analysed, sine = 2.0 * b[n] / length_analysed;
-    const double amplitude = std::hypot(cosine, sine);
-    result.harmonics.push_back({n, amplitude, std::atan2(cosine, sine) * 180.0 / std::numbers::pi});
-    if (n > 1) harmonic_power += amplitude * amplitude;
-  }
-  const Harmonic& first = result.harmonics.front();
-  result.thd = first.amplitude > 0 ? std::sqrt(harmonic_power) / first.amplitude : 0.0;
-  const double rms_fundamental = first.amplitude / std::numbers::sqrt2;
-
-  if (options.with_noise) {
-    double residual = 0;
-    const double phi = first.phase_deg * std::numbers::pi / 180.0;
-    analysis::for_each_quadrature_node(
-        tr.time, t0, tr.time.back(), max_panel, [&](double t, double weight, std::size_t k) {
-          const double r = value_at(t, k) - result.dc - first.amplitude * std::sin(w * t + phi);
-          residual += weight * r * r;
-        });
-    result.thd_plus_noise =
-        rms_fundamental > 0 ? std::sqrt(residual / length_analysed) / rms_fundamental : 0.0;
-  }
+  const double omega = 2.0 * std::numbers::pi * options.fundamental;
+  const Stretch stretch{tr,
+                        signal,
+                        tr.time.back() - result.periods * period,
+                        result.periods * period,
+                        kPanelPhase / (omega * options.harmonics),
+                        omega};
+  fourier_series(stretch, options.harmonics, result);
+  const double rms_fundamental = result.harmonics.front().amplitude / std::numbers::sqrt2;
+  if (options.with_noise) result.thd_plus_noise = thd_plus_noise(stretch, result, rms_fundamental);
 
   if (whole >= 2) {
     const double change = rms_period_change(tr, signal, tr.time.back(), period);

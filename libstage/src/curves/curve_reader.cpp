@@ -7,6 +7,7 @@
 #include <fstream>
 #include <sstream>
 
+#include "common/si_format.hpp"
 #include "curves/curve_kinds.hpp"
 #include "curves/units.hpp"
 #include "stage/errors.hpp"
@@ -137,71 +138,21 @@ class CurveParser {
   void header(const std::vector<Field>& fields) {
     const std::string& key = fields[0].text;
     if (key == "curve") {
-      expect_count(fields, 2, "curve, KIND");
-      if (kind_seen_) fail(fields[0], "`curve` is given twice");
-      const auto kind = curves::kind_named(fields[1].text);
-      if (!kind) {
-        std::string names;
-        for (const auto& r : curves::all_kinds())
-          names += std::string(names.empty() ? "" : ", ") + std::string(r.name);
-        fail(fields[1], "unknown curve kind '" + fields[1].text + "'; known: " + names);
-      }
-      curve_.kind = *kind;
-      curve_.swept = curves::rule(*kind).swept;
-      kind_seen_ = true;
+      kind_line(fields);
       return;
     }
     require_kind(fields[0]);
-    const curves::KindRule& r = curves::rule(curve_.kind);
     if (key == "name" || key == "model") {
       expect_count(fields, 2, (key + ", TEXT").c_str());
       (key == "name" ? curve_.name : curve_.model) = fields[1].text;
     } else if (key == "sweep") {
-      expect_count(fields, 3, "sweep, QUANTITY, UNIT");
-      const CurveQuantity q = quantity(fields[1]);
-      if (q != r.swept) {
-        fail(fields[1],
-             "a " + std::string(r.name) + " curve sweeps " + std::string(info(r.swept).name));
-      }
-      swept_scale_ = unit(fields[2], q);
-      sweep_seen_ = true;
+      sweep_line(fields);
     } else if (key == "measure") {
-      expect_count(fields, 3, "measure, QUANTITY, UNIT");
-      const CurveQuantity q = quantity(fields[1]);
-      if (std::find(r.measurable.begin(), r.measurable.end(), q) == r.measurable.end()) {
-        fail(fields[1], "a " + std::string(r.name) + " curve does not measure " + fields[1].text);
-      }
-      if (std::count(curve_.measured.begin(), curve_.measured.end(), q)) {
-        fail(fields[1], fields[1].text + " is measured twice");
-      }
-      if (r.measure_exactly_one && !curve_.measured.empty()) {
-        fail(fields[1], "a " + std::string(r.name) + " curve measures one quantity");
-      }
-      curve_.measured.push_back(q);
-      measured_scale_.push_back(unit(fields[2], q));
+      measure_line(fields);
     } else if (key == "step") {
-      expect_count(fields, 3, "step, QUANTITY, UNIT");
-      const CurveQuantity q = quantity(fields[1]);
-      if (r.steppable != q)
-        fail(fields[1], "a " + std::string(r.name) + " curve cannot step " + fields[1].text);
-      if (curve_.stepped || curve_.condition(q))
-        fail(fields[0], fields[1].text + " is given twice");
-      curve_.stepped = q;
-      step_scale_ = unit(fields[2], q);
+      step_line(fields);
     } else if (key == "hold") {
-      expect_count(fields, 4, "hold, QUANTITY, VALUE, UNIT");
-      const CurveQuantity q = quantity(fields[1]);
-      const bool allowed = std::count(r.required.begin(), r.required.end(), q) +
-                           std::count(r.optional.begin(), r.optional.end(), q);
-      if (!allowed)
-        fail(fields[1], "a " + std::string(r.name) + " curve does not hold " + fields[1].text);
-      if (curve_.condition(q) || curve_.stepped == q)
-        fail(fields[1], fields[1].text + " is given twice");
-      const double value = unit(fields[3], q).to_si(number(fields[2]));
-      if (q != CurveQuantity::collector_emitter_voltage && !(value > 0)) {
-        fail(fields[2], fields[1].text + " must be positive");
-      }
-      curve_.held.emplace_back(q, value);
+      hold_line(fields);
     } else if (key == "tolerance") {
       expect_count(fields, 4, "tolerance, QUANTITY, VALUE, UNIT");
       tolerance(fields);
@@ -213,6 +164,77 @@ class CurveParser {
                           "'; expected curve, name, model, sweep, measure, step, hold, tolerance "
                           "or points");
     }
+  }
+
+  void kind_line(const std::vector<Field>& fields) {
+    expect_count(fields, 2, "curve, KIND");
+    if (kind_seen_) fail(fields[0], "`curve` is given twice");
+    const auto kind = curves::kind_named(fields[1].text);
+    if (!kind) {
+      std::vector<std::string> names;
+      for (const auto& r : curves::all_kinds()) names.emplace_back(r.name);
+      fail(fields[1], "unknown curve kind '" + fields[1].text + "'; known: " + text::joined(names));
+    }
+    curve_.kind = *kind;
+    curve_.swept = curves::rule(*kind).swept;
+    kind_seen_ = true;
+  }
+
+  void sweep_line(const std::vector<Field>& fields) {
+    const curves::KindRule& r = curves::rule(curve_.kind);
+    expect_count(fields, 3, "sweep, QUANTITY, UNIT");
+    const CurveQuantity q = quantity(fields[1]);
+    if (q != r.swept) {
+      fail(fields[1],
+           "a " + std::string(r.name) + " curve sweeps " + std::string(info(r.swept).name));
+    }
+    swept_scale_ = unit(fields[2], q);
+    sweep_seen_ = true;
+  }
+
+  void measure_line(const std::vector<Field>& fields) {
+    const curves::KindRule& r = curves::rule(curve_.kind);
+    expect_count(fields, 3, "measure, QUANTITY, UNIT");
+    const CurveQuantity q = quantity(fields[1]);
+    if (std::find(r.measurable.begin(), r.measurable.end(), q) == r.measurable.end()) {
+      fail(fields[1], "a " + std::string(r.name) + " curve does not measure " + fields[1].text);
+    }
+    if (std::count(curve_.measured.begin(), curve_.measured.end(), q)) {
+      fail(fields[1], fields[1].text + " is measured twice");
+    }
+    if (r.measure_exactly_one && !curve_.measured.empty()) {
+      fail(fields[1], "a " + std::string(r.name) + " curve measures one quantity");
+    }
+    curve_.measured.push_back(q);
+    measured_scale_.push_back(unit(fields[2], q));
+  }
+
+  void step_line(const std::vector<Field>& fields) {
+    const curves::KindRule& r = curves::rule(curve_.kind);
+    expect_count(fields, 3, "step, QUANTITY, UNIT");
+    const CurveQuantity q = quantity(fields[1]);
+    if (r.steppable != q)
+      fail(fields[1], "a " + std::string(r.name) + " curve cannot step " + fields[1].text);
+    if (curve_.stepped || curve_.condition(q)) fail(fields[0], fields[1].text + " is given twice");
+    curve_.stepped = q;
+    step_scale_ = unit(fields[2], q);
+  }
+
+  void hold_line(const std::vector<Field>& fields) {
+    const curves::KindRule& r = curves::rule(curve_.kind);
+    expect_count(fields, 4, "hold, QUANTITY, VALUE, UNIT");
+    const CurveQuantity q = quantity(fields[1]);
+    const bool allowed = std::count(r.required.begin(), r.required.end(), q) +
+                         std::count(r.optional.begin(), r.optional.end(), q);
+    if (!allowed)
+      fail(fields[1], "a " + std::string(r.name) + " curve does not hold " + fields[1].text);
+    if (curve_.condition(q) || curve_.stepped == q)
+      fail(fields[1], fields[1].text + " is given twice");
+    const double value = unit(fields[3], q).to_si(number(fields[2]));
+    if (q != CurveQuantity::collector_emitter_voltage && !(value > 0)) {
+      fail(fields[2], fields[1].text + " must be positive");
+    }
+    curve_.held.emplace_back(q, value);
   }
 
   void finish_header(const Field& at) {
