@@ -141,9 +141,4 @@ struct HeadroomResult {
 HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& options,
                             const ProgressCallback& progress = {});
 
-// The load-line estimate of a circuit with exactly one bipolar transistor,
-// at `frequency`; nothing for other circuits.
-std::optional<LoadLineEstimate> estimate_load_line(const Circuit& circuit, const BiasResult& bias,
-                                                   double frequency);
-
 }  // namespace stage

@@ -56,6 +56,19 @@ bool has_role(const ElementData& data, Role role) {
   return with_descriptor(data, [&](const auto&, const auto& d) { return has(d.roles, role); });
 }
 
+std::optional<Amplifier> amplifier(const ElementData& data) {
+  return with_descriptor(data, [](const auto& e, const auto& d) -> std::optional<Amplifier> {
+    if (d.polarity == nullptr) return std::nullopt;
+    Amplifier a{{}, {}, d.amplifier.main, d.amplifier.common, d.polarity(e)};
+    for (const auto& f : d.fields) {
+      if (f.kind != FieldKind::terminal) continue;
+      if (f.name == a.main_terminal) a.main_node = e.*f.text;
+      if (f.name == a.common_terminal) a.common_node = e.*f.text;
+    }
+    return a;
+  });
+}
+
 std::optional<double> field_value(const ElementData& data, std::string_view name) {
   return with_descriptor(data, [&](const auto& e, const auto& d) -> std::optional<double> {
     for (const auto& f : d.fields) {

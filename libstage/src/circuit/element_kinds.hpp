@@ -48,6 +48,15 @@ std::vector<std::string> nodes(const ElementData& data);
 
 bool has_role(const ElementData& data, Role role);
 
+// The nodes of an amplifying element (a transistor) by its descriptor's
+// AmplifierTerminals, with the terminals' names and its polarity.
+struct Amplifier {
+  std::string main_node, common_node;
+  std::string_view main_terminal, common_terminal;
+  int polarity = 1;
+};
+std::optional<Amplifier> amplifier(const ElementData& data);
+
 // The number in its value field `name` ("ac"), if its kind has one.
 std::optional<double> field_value(const ElementData& data, std::string_view name);
 

@@ -150,6 +150,14 @@ struct Spelling {
   void (*preset)(E&) = nullptr;
 };
 
+// The terminals of a kind that amplifies (a transistor): the one its main
+// current flows into (collector) and the one its output is referred to
+// (emitter), as field names.
+struct AmplifierTerminals {
+  std::string_view main;
+  std::string_view common;
+};
+
 template <class E>
 struct Descriptor {
   std::span<const Spelling<E>> spellings;
@@ -161,6 +169,10 @@ struct Descriptor {
   // The model kind of the language (`npn`, `pnp`, `diode`) the element's
   // model must be, for kinds with a model field.
   std::string_view (*model_kind)(const E&) = nullptr;
+  // For a kind that amplifies: its terminals, and its polarity (+1 for an
+  // n type, -1 for a p type): a complementary pair is one of each.
+  AmplifierTerminals amplifier = {};
+  int (*polarity)(const E&) = nullptr;
 };
 
 // Specialised once per alternative of ElementData in circuit/kinds/, with a

@@ -171,6 +171,22 @@ class BipolarDevice final : public mna::Device {
     }
   }
 
+  std::optional<mna::Conduction> conduction(const mna::EvalRequest& at) const override {
+    mna::OperatingPointReport one;
+    report(at, one);
+    const BipolarOperatingPoint& op = one.bipolars.front();
+    mna::Conduction c;
+    c.state = op.region == Region::saturation       ? mna::Conduction::State::saturated
+              : op.region == Region::cutoff         ? mna::Conduction::State::cut_off
+              : op.region == Region::reverse_active ? mna::Conduction::State::reversed
+                                                    : mna::Conduction::State::conducting;
+    c.amplifies = true;
+    c.current = op.collector_current;
+    c.voltage = op.vce;
+    c.transconductance = op.gm;
+    return c;
+  }
+
   void report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const override {
     const BipolarParameters p = scale_bipolar(model_, area_, at.temperature);
     const auto x = scatter_.gather(at.x);

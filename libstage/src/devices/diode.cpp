@@ -144,6 +144,17 @@ class DiodeDevice final : public mna::Device {
     }
   }
 
+  std::optional<mna::Conduction> conduction(const mna::EvalRequest& at) const override {
+    mna::OperatingPointReport one;
+    report(at, one);
+    const DiodeOperatingPoint& op = one.diodes.front();
+    mna::Conduction c;
+    c.state = op.current > 0 ? mna::Conduction::State::conducting : mna::Conduction::State::cut_off;
+    c.current = op.current;
+    c.voltage = op.voltage;
+    return c;
+  }
+
   void report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const override {
     const DiodeParameters p = scale(model_, area_, at.temperature);
     const auto x = scatter_.gather(at.x);

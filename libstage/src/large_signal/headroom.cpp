@@ -20,6 +20,7 @@
 #include "large_signal/headroom_runs.hpp"
 #include "large_signal/headroom_search.hpp"
 #include "large_signal/limit_classifier.hpp"
+#include "large_signal/load_line.hpp"
 #include "large_signal/sine_drive.hpp"
 #include "simulation/simulation_access.hpp"
 #include "stage/errors.hpp"
@@ -335,7 +336,8 @@ HeadroomResult headroom_search(const Circuit& circuit, const SineDrive& drive,
   HeadroomRuns runs(drive, options.distortion_limit, result.small_signal_gain, options.max_runs,
                     progress);
   const LimitClassifier classifier(circuit, SimulationAccess::system(drive.simulation()),
-                                   result.bias, options.input, options.frequency,
+                                   SimulationAccess::bias_point(drive.simulation()), options.input,
+                                   options.frequency,
                                    output_reference(result.bias, options.output));
   const DriveBound bound(circuit, options.input);
 
@@ -355,7 +357,7 @@ HeadroomResult headroom_search(const Circuit& circuit, const SineDrive& drive,
   thd_limit(found, result);
   result.transient_runs = drive.runs();
   result.counters = drive.simulation().counters();
-  result.load_line = estimate_load_line(circuit, result.bias, options.frequency);
+  result.load_line = estimate_load_line(circuit, classifier.at_bias(), options.frequency);
   spdlog::debug("headroom: {} transient runs", result.transient_runs);
   return result;
 }

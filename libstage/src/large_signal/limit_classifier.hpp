@@ -13,27 +13,35 @@
 
 #include "large_signal/drive_setup.hpp"
 #include "large_signal/sine_drive.hpp"
-#include "stage/bias.hpp"
+#include "mna/device.hpp"
 #include "stage/circuit.hpp"
 #include "stage/headroom.hpp"
 
 namespace stage::mna {
 class System;
-struct OperatingPointReport;
 }  // namespace stage::mna
 
 namespace stage::analysis {
 
+// One device's conduction at a solution.
+struct Reading {
+  std::string name;
+  mna::Conduction at;
+};
+using Readings = std::vector<Reading>;
+
 class LimitClassifier {
  public:
   // Reads the circuit once: its supply rails (every one but `input`'s), the
-  // impedance each bipolar's emitter sees at `frequency`, and the
-  // complementary pairs. `system` is the assembled system whose solutions
-  // the extremes hold and `bias` its bias point; both must outlive the
-  // classifier. The output is measured from `output_reference` (node b of a
-  // node pair, else 0 V), so an extreme's value plus it is a node voltage.
-  LimitClassifier(const Circuit& circuit, const mna::System& system, const BiasResult& bias,
-                  const std::string& input, double frequency, double output_reference);
+  // impedance each transistor's emitter sees at `frequency`, and the
+  // complementary pairs; and every device's conduction at `bias_point`
+  // (the unknowns of the bias point). `system` is the assembled system whose
+  // solutions the extremes hold; it must outlive the classifier. The output is measured from
+  // `output_reference` (node b of a node pair, else 0 V), so an extreme's value plus it is a node
+  // voltage.
+  LimitClassifier(const Circuit& circuit, const mna::System& system,
+                  const std::vector<double>& bias_point, const std::string& input, double frequency,
+                  double output_reference);
 
   // What stops a side whose output peaks at `extreme`, in this order: a
   // transistor newly in saturation; the output at a supply rail; a diode
@@ -54,22 +62,29 @@ class LimitClassifier {
   // rose furthest above its bias) when they form a pair; nothing otherwise.
   std::optional<LimitCause> pair_handing_over(const Extreme& maximum, const Extreme& minimum) const;
 
+  // Every device's conduction at the bias point, by name.
+  const std::map<std::string, mna::Conduction>& at_bias() const { return at_bias_; }
+
  private:
   struct Suspects;
-  Suspects suspects(const mna::OperatingPointReport& report) const;
+  Suspects suspects(const Readings& readings) const;
   bool paired(const std::string& a, const std::string& b) const;
+  const mna::Conduction& biased(const Reading& r) const;
+  std::optional<LimitCause> newly_saturated(const Readings& readings,
+                                            const std::string& detail) const;
   std::optional<LimitCause> at_rail(const Extreme& extreme, const std::string& detail) const;
-  std::optional<LimitCause> turning_off(const mna::OperatingPointReport& report,
-                                        const Suspects& s) const;
-  std::string currents(const BipolarOperatingPoint& q) const;
-  double current_ratio(const BipolarOperatingPoint& q) const;
-  double gain_departure(const BipolarOperatingPoint& q) const;
+  std::optional<LimitCause> starved(const Readings& readings) const;
+  std::optional<LimitCause> turning_off(const Readings& readings, const Suspects& s) const;
+  std::string currents(const Reading& r) const;
+  double current_ratio(const Reading& r) const;
+  double gain_departure(const Reading& r) const;
 
   const mna::System& system_;
-  const BiasResult& bias_;
   double output_reference_;
   std::vector<Rail> rails_;
-  std::map<std::string, double> emitter_impedance_;  // per transistor, ohm
+  std::map<std::string, mna::Conduction> at_bias_;
+  std::map<std::string, std::string_view> main_terminal_;  // "collector", per transistor
+  std::map<std::string, double> common_impedance_;         // seen by each transistor's emitter, ohm
   // Push-pull pairs (npn, pnp): emitters that share a node or reach one
   // node through one resistor each (emitter resistors).
   std::set<std::pair<std::string, std::string>> pairs_;

@@ -4,20 +4,22 @@
 // that builds between them is the AC load the transistor's output sees
 // (RC || RL for a common-emitter stage, RE || RL for a follower, plus any
 // unbypassed emitter resistance).
+#include "large_signal/load_line.hpp"
+
 #include <cmath>
 #include <complex>
 
+#include "circuit/element_kinds.hpp"
 #include "large_signal/drive_setup.hpp"
 #include "stage/errors.hpp"
-#include "stage/headroom.hpp"
 
-namespace stage {
+namespace stage::analysis {
 namespace {
 
 const Element* only_transistor(const Circuit& circuit) {
   const Element* found = nullptr;
   for (const Element& e : circuit.elements()) {
-    if (!std::holds_alternative<Bipolar>(e.data)) continue;
+    if (!kinds::amplifier(e.data)) continue;
     if (found != nullptr) return nullptr;
     found = &e;
   }
@@ -26,26 +28,26 @@ const Element* only_transistor(const Circuit& circuit) {
 
 }  // namespace
 
-std::optional<LoadLineEstimate> estimate_load_line(const Circuit& circuit, const BiasResult& bias,
-                                                   double frequency) {
+std::optional<LoadLineEstimate> estimate_load_line(
+    const Circuit& circuit, const std::map<std::string, mna::Conduction>& at_bias,
+    double frequency) {
   const Element* transistor = only_transistor(circuit);
   if (transistor == nullptr) return std::nullopt;
-  const auto& q = std::get<Bipolar>(transistor->data);
-  const BipolarOperatingPoint& op = bias.bipolar(transistor->name);
+  const kinds::Amplifier q = *kinds::amplifier(transistor->data);
+  const mna::Conduction& op = at_bias.at(transistor->name);
 
   double ac_load = 0;
   try {
-    ac_load =
-        analysis::impedance_without(circuit, transistor->name, q.collector, q.emitter, frequency)
-            .value_or(0.0);
+    ac_load = impedance_without(circuit, transistor->name, q.main_node, q.common_node, frequency)
+                  .value_or(0.0);
   } catch (const NumericalError&) {
     return std::nullopt;  // without the transistor a node floats: no load line to draw
   }
 
   LoadLineEstimate e;
   e.device = transistor->name;
-  e.quiescent_current = std::abs(op.collector_current);
-  e.quiescent_vce = std::abs(op.vce);
+  e.quiescent_current = std::abs(op.current);
+  e.quiescent_vce = std::abs(op.voltage);
   e.ac_load = ac_load;
   e.saturation_current = e.quiescent_current + e.quiescent_vce / ac_load;
   e.cutoff_vce = e.quiescent_vce + e.quiescent_current * ac_load;
@@ -53,4 +55,4 @@ std::optional<LoadLineEstimate> estimate_load_line(const Circuit& circuit, const
   return e;
 }
 
-}  // namespace stage
+}  // namespace stage::analysis

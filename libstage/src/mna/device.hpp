@@ -131,6 +131,23 @@ class SourceAccess {
   ~SourceAccess() = default;
 };
 
+// How a device that carries or steers the signal stands at a solution, in
+// terms every kind can give, so that the large-signal analyses (the limit
+// classifier, the load line) read any kind without naming it.
+struct Conduction {
+  enum class State {
+    conducting,  // as biased: a transistor's control junction on, its output free
+    saturated,   // its output path has collapsed: the transistor no longer amplifies
+    cut_off,     // nothing flows: every junction off
+    reversed,    // a transistor conducting in its inverse direction
+  };
+  State state = State::conducting;
+  bool amplifies = false;       // a transistor; a diode only steers (a bias chain)
+  double current = 0;           // main path (A): into a collector; a diode's forward current
+  double voltage = 0;           // across the main path (V): VCE; a diode's forward voltage
+  double transconductance = 0;  // d current / d control voltage (S); 0 without a control
+};
+
 // A state an element holds at the start of a transient from given
 // conditions (`start = zero`): unknowns x[plus] - x[minus] equal to value.
 // A capacitor's initial voltage across its nodes; an inductor's initial
@@ -195,6 +212,12 @@ class Device {
 
   // A semiconductor's operating point at solution x, for bias reports.
   virtual void report(const EvalRequest& /*at*/, OperatingPointReport& /*out*/) const {}
+
+  // Its conduction at solution x (see Conduction); nothing for kinds that
+  // neither amplify nor steer the signal.
+  virtual std::optional<Conduction> conduction(const EvalRequest& /*at*/) const {
+    return std::nullopt;
+  }
 
   // Adds a message naming this device to `out` when solution x lies outside
   // its model's range (see ModelRangeFindings); adds nothing inside it.

@@ -34,9 +34,13 @@ struct KindOf<Bipolar> {
       model("model", &Bipolar::model),
       value("area", &Bipolar::area, Quantity::dimensionless, ParameterRange::positive)};
   static constexpr Descriptor<Bipolar> descriptor{
-      spellings, fields, Role::none, {}, [](const Bipolar& q) -> std::string_view {
+      .spellings = spellings,
+      .fields = fields,
+      .model_kind = [](const Bipolar& q) -> std::string_view {
         return q.polarity == Polarity::npn ? "npn" : "pnp";
-      }};
+      },
+      .amplifier = {"collector", "emitter"},
+      .polarity = [](const Bipolar& q) { return q.polarity == Polarity::npn ? 1 : -1; }};
 };
 
 }  // namespace stage::kinds
