@@ -147,6 +147,8 @@ class Circuit {
 
   // Adds an element; throws an invalid_request Error on a duplicate name.
   Circuit& add(std::string name, ElementData data);
+  // Takes an element out (the others keep their order); false if there is none.
+  bool remove(const std::string& name);
   Circuit& add_model(std::string name, BipolarModel model);
   Circuit& add_model(std::string name, DiodeModel model);
 

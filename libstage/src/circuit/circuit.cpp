@@ -14,6 +14,15 @@ Circuit& Circuit::add(std::string name, ElementData data) {
   return *this;
 }
 
+bool Circuit::remove(const std::string& name) {
+  const auto it = index_.find(name);
+  if (it == index_.end()) return false;
+  elements_.erase(elements_.begin() + static_cast<std::ptrdiff_t>(it->second));
+  index_.clear();
+  for (std::size_t k = 0; k < elements_.size(); ++k) index_.emplace(elements_[k].name, k);
+  return true;
+}
+
 Circuit& Circuit::add_model(std::string name, BipolarModel model) {
   bipolar_models_[std::move(name)] = model;
   return *this;

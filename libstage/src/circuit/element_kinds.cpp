@@ -87,6 +87,27 @@ std::optional<Waveform>* waveform_of(ElementData& data) {
   });
 }
 
+bool has_waveform(const ElementData& data) {
+  return with_descriptor(data, [](const auto& e, const auto& d) {
+    for (const auto& f : d.fields) {
+      if (f.kind == FieldKind::waveform && (e.*(f.wave)).has_value()) return true;
+    }
+    return false;
+  });
+}
+
+bool set_field_value(ElementData& data, std::string_view name, double value) {
+  return with_descriptor(data, [&](auto& e, const auto& d) {
+    for (const auto& f : d.fields) {
+      if (f.name == name && f.kind == FieldKind::value) {
+        e.*(f.number) = value;
+        return true;
+      }
+    }
+    return false;
+  });
+}
+
 std::optional<double> own_value(const ElementData& data) {
   return with_descriptor(data, [](const auto& e, const auto& d) -> std::optional<double> {
     const auto* f = own_field(d);

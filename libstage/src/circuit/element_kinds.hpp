@@ -62,6 +62,11 @@ std::optional<double> field_value(const ElementData& data, std::string_view name
 
 // Where its waveform is kept, if its kind has one (an independent source).
 std::optional<Waveform>* waveform_of(ElementData& data);
+// True when it has a waveform field and a waveform in it.
+bool has_waveform(const ElementData& data);
+
+// Writes `value` into its value field `name`; false if its kind has none.
+bool set_field_value(ElementData& data, std::string_view name, double value);
 
 // Its own value (a resistance, a source's DC value), if its kind has one.
 std::optional<double> own_value(const ElementData& data);

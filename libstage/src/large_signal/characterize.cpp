@@ -43,10 +43,11 @@ LoadProbes load_probes(const Circuit& circuit, const CharacterizeOptions& o) {
   LoadProbes p;
   if (o.load) {
     const Element* e = circuit.find(*o.load);
-    if (const auto* r = e ? std::get_if<Resistor>(&e->data) : nullptr) {
+    if (e != nullptr && kinds::has_role(e->data, kinds::Role::one_port)) {
+      const std::vector<std::string> ends = kinds::nodes(e->data);
       p.load = *o.load;
       p.current = SignalRef::current(*o.load);
-      p.voltage = SignalRef::pair(r->a, r->b);
+      p.voltage = SignalRef::pair(ends[0], ends[1]);
     }
   }
   return p;
@@ -66,12 +67,14 @@ SwingPower swing_power(const Circuit& circuit, const analysis::SineDrive& drive,
   s.unsettled = m.unsettled;
   for (const auto& [name, absorbed] : m.element_power) {
     const Element* element = circuit.find(name);
-    const ElementData& data = element != nullptr ? element->data : ElementData{Resistor{}};
+    const auto plays = [&](kinds::Role role) {
+      return element != nullptr && kinds::has_role(element->data, role);
+    };
     if (name == input) {
       s.drive_power -= absorbed;
-    } else if (kinds::has_role(data, kinds::Role::independent_source)) {
+    } else if (plays(kinds::Role::independent_source)) {
       s.supply_power -= absorbed;
-    } else if (kinds::has_role(data, kinds::Role::stores_energy)) {
+    } else if (plays(kinds::Role::stores_energy)) {
       s.stored_power += absorbed;
     } else if (name == load.load) {
       // Signal power only: a load that also carries the bias current (class A

@@ -3,37 +3,29 @@
 
 #include <cmath>
 
+#include "circuit/element_kinds.hpp"
 #include "stage/errors.hpp"
 #include "stage/frequency.hpp"
 
 namespace stage::analysis {
 namespace {
 
-template <class Visitor>
-void visit_sources(Circuit& circuit, Visitor&& visit) {
-  for (const Element& e : circuit.elements()) {
-    std::visit(
-        [&](auto& d) {
-          using T = std::decay_t<decltype(d)>;
-          if constexpr (std::is_same_v<T, VoltageSource> || std::is_same_v<T, CurrentSource>) {
-            visit(e.name, d);
-          }
-        },
-        circuit.find(e.name)->data);
-  }
-}
+// The language's names of a source's small-signal value and phase.
+constexpr std::string_view kSmallSignal = "ac", kSmallSignalPhase = "ac_phase";
 
 }  // namespace
 
 Circuit with_only_ac_input(const Circuit& circuit, const std::string& input) {
   Circuit c = circuit;
   bool found = false;
-  visit_sources(c, [&](const std::string& name, auto& source) {
-    const bool is_input = name == input;
+  for (const Element& e : circuit.elements()) {
+    if (!kinds::has_role(e.data, kinds::Role::independent_source)) continue;
+    const bool is_input = e.name == input;
     found = found || is_input;
-    source.ac_magnitude = is_input ? 1.0 : 0.0;
-    source.ac_phase_deg = 0.0;
-  });
+    ElementData& data = c.find(e.name)->data;
+    kinds::set_field_value(data, kSmallSignal, is_input ? 1.0 : 0.0);
+    kinds::set_field_value(data, kSmallSignalPhase, 0.0);
+  }
   if (!found) {
     throw Error(ErrorKind::invalid_request,
                 "'" + input + "' is not an independent voltage or current source", {input});
@@ -67,14 +59,8 @@ std::optional<double> impedance_without(const Circuit& circuit, const std::strin
   constexpr const char* kProbe = "impedance_probe";
   // A unit AC current driven from b to a: the voltage that builds between
   // them is the impedance (small_signal_gain zeroes every other AC source).
-  Circuit probe;
-  probe.temperature = circuit.temperature;
-  probe.solver = circuit.solver;
-  for (const auto& [name, model] : circuit.bipolar_models()) probe.add_model(name, model);
-  for (const auto& [name, model] : circuit.diode_models()) probe.add_model(name, model);
-  for (const Element& e : circuit.elements()) {
-    if (e.name != removed) probe.add(e.name, e.data);
-  }
+  Circuit probe = circuit;
+  probe.remove(removed);
   probe.add(kProbe, CurrentSource{b, a, 0.0, 1.0});
   return small_signal_gain(probe, kProbe, SignalRef::pair(a, b), frequency);
 }
@@ -82,10 +68,14 @@ std::optional<double> impedance_without(const Circuit& circuit, const std::strin
 std::vector<Rail> supply_rails(const Circuit& circuit, const std::string& input) {
   std::vector<Rail> rails;
   for (const Element& e : circuit.elements()) {
-    const auto* v = std::get_if<VoltageSource>(&e.data);
-    if (v == nullptr || v->wave || e.name == input) continue;
-    if (v->n == kGround) rails.push_back({e.name, v->p, v->dc, v->dc});
-    if (v->p == kGround) rails.push_back({e.name, v->n, -v->dc, v->dc});
+    const bool fixed_supply = kinds::has_role(e.data, kinds::Role::independent_source) &&
+                              kinds::has_role(e.data, kinds::Role::holds_voltage) &&
+                              !kinds::has_waveform(e.data);
+    if (!fixed_supply || e.name == input) continue;
+    const std::vector<std::string> ends = kinds::nodes(e.data);  // positive, negative
+    const double dc = *kinds::own_value(e.data);
+    if (ends[1] == kGround) rails.push_back({e.name, ends[0], dc, dc});
+    if (ends[0] == kGround) rails.push_back({e.name, ends[1], -dc, dc});
   }
   return rails;
 }

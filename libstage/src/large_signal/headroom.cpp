@@ -15,6 +15,7 @@
 #include <string>
 #include <vector>
 
+#include "circuit/element_kinds.hpp"
 #include "common/si_format.hpp"
 #include "large_signal/drive_setup.hpp"
 #include "large_signal/headroom_runs.hpp"
@@ -114,7 +115,10 @@ class DriveBound {
     // as one): an ideal voltage source driven past the rails only forces
     // junctions into them; a current input has no such bound.
     const Element* e = circuit.find(input);
-    if (e == nullptr || !std::holds_alternative<VoltageSource>(e->data)) return;
+    if (e == nullptr || !kinds::has_role(e->data, kinds::Role::independent_source) ||
+        !kinds::has_role(e->data, kinds::Role::holds_voltage)) {
+      return;
+    }
     double lowest = 0, highest = 0;
     for (const Rail& r : rails) {
       lowest = std::min(lowest, r.voltage);

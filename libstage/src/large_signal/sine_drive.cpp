@@ -9,6 +9,7 @@
 
 #include "analysis/step_interpolant.hpp"
 #include "analysis/transient.hpp"
+#include "circuit/element_kinds.hpp"
 #include "large_signal/energy_ledger.hpp"
 #include "mna/system.hpp"
 #include "simulation/simulation_access.hpp"
@@ -24,9 +25,7 @@ constexpr int kHarmonics = 9;
 
 // The DC value the sine rides on: the input source's own.
 double dc_of(const Circuit& circuit, const std::string& input) {
-  const Element& e = *circuit.find(input);
-  if (const auto* v = std::get_if<VoltageSource>(&e.data)) return v->dc;
-  return std::get<CurrentSource>(e.data).dc;
+  return *kinds::own_value(circuit.find(input)->data);
 }
 
 }  // namespace

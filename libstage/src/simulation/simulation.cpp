@@ -89,13 +89,11 @@ SweepResult Simulation::sweep(const SweepOptions& options, const ProgressCallbac
   const bool temperature = options.target == SweepOptions::Target::temperature;
   const double restore = temperature ? state_->system.temperature() : [&] {
     const Element* e = state_->circuit.find(options.name);
-    const auto* v = e == nullptr ? nullptr : std::get_if<VoltageSource>(&e->data);
-    const auto* i = e == nullptr ? nullptr : std::get_if<CurrentSource>(&e->data);
-    if (v == nullptr && i == nullptr) {
+    if (e == nullptr || !kinds::has_role(e->data, kinds::Role::independent_source)) {
       throw Error(ErrorKind::invalid_request, "'" + options.name + "' is not an independent source",
                   {options.name});
     }
-    return v != nullptr ? v->dc : i->dc;
+    return *kinds::own_value(e->data);
   }();
   // The swept value goes back to what it was however the sweep ends (a
   // point without a solution throws): the simulation stays the circuit given.
