@@ -6,6 +6,7 @@
 #include <cmath>
 #include <cstdio>
 
+#include "common/constants.hpp"
 #include "common/si_prefixes.hpp"
 
 namespace stage::text {
@@ -52,7 +53,7 @@ std::string fixed(double value, std::string_view unit, int decimals) {
 
 std::string percent(double ratio) {
   char buffer[32];
-  std::snprintf(buffer, sizeof buffer, "%.4g %%", 100.0 * ratio);
+  std::snprintf(buffer, sizeof buffer, "%.4g %%", in_percent(ratio));
   return buffer;
 }
 

@@ -2,6 +2,7 @@
 // (spec section 1), so a curve file reads like a circuit file.
 #include "curves/units.hpp"
 
+#include "common/constants.hpp"
 #include "common/si_prefixes.hpp"
 #include "curves/curve_kinds.hpp"
 
@@ -15,7 +16,7 @@ std::optional<UnitScale> parse_unit(std::string_view text, CurveQuantity quantit
   }
   if (quantity == CurveQuantity::temperature) {
     if (text == "K") return UnitScale{};
-    if (text == "degC" || text == "°C") return UnitScale{1, 273.15};
+    if (text == "degC" || text == "°C") return UnitScale{1, kZeroCelsius};
     return std::nullopt;
   }
   if (const auto factor = text::prefixed_unit_scale(text, unit)) return UnitScale{*factor, 0};
@@ -40,7 +41,7 @@ std::optional<double> parse_tolerance_unit(std::string_view text, CurveQuantity 
 namespace stage {
 
 std::optional<ToleranceUnit> tolerance_unit(std::string_view text) {
-  if (text == "%") return ToleranceUnit{true, 0.01};
+  if (text == "%") return ToleranceUnit{true, kPercent};
   if (const auto volts = text::prefixed_unit_scale(text, "V")) return ToleranceUnit{false, *volts};
   return std::nullopt;
 }

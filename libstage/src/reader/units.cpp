@@ -3,6 +3,7 @@
 // lists every unit symbol so that reading and printing cannot drift apart.
 #include <array>
 
+#include "common/constants.hpp"
 #include "common/si_prefixes.hpp"
 #include "reader/unit_table.hpp"
 
@@ -30,10 +31,10 @@ constexpr std::array kUnits{
     UnitSymbol{"Hz", Quantity::frequency, 1, 0, true},
     UnitSymbol{"W", Quantity::power, 1, 0, true},
     UnitSymbol{"K", Quantity::temperature, 1, 0, true},
-    UnitSymbol{"°C", Quantity::temperature, 1, 273.15, false},
-    UnitSymbol{"degC", Quantity::temperature, 1, 273.15, false},
+    UnitSymbol{"°C", Quantity::temperature, 1, kZeroCelsius, false},
+    UnitSymbol{"degC", Quantity::temperature, 1, kZeroCelsius, false},
     UnitSymbol{"eV", Quantity::energy, 1, 0, true},
-    UnitSymbol{"%", Quantity::ratio, 0.01, 0, false},
+    UnitSymbol{"%", Quantity::ratio, kPercent, 0, false},
     UnitSymbol{"dB", Quantity::decibel, 1, 0, false},
     UnitSymbol{"deg", Quantity::angle, 1, 0, false},
 };
