@@ -42,7 +42,8 @@ struct CurvesSettings {
   std::string output;
 };
 
-// "5%" for every ratio quantity, "20mV" or "0.02 V" for every voltage.
+// "5%" for every ratio quantity, "20mV" or "0.02 V" for every voltage: the
+// units of a curve file's `tolerance` line (stage::tolerance_unit).
 stage::ToleranceOverride parse_tolerances(const std::vector<std::string>& texts) {
   stage::ToleranceOverride o;
   for (const auto& text : texts) {
@@ -55,12 +56,12 @@ stage::ToleranceOverride parse_tolerances(const std::vector<std::string>& texts)
     }
     std::string unit = text.substr(used);
     unit.erase(0, unit.find_first_not_of(' '));
-    const double factor = unit == "%" ? 0.01 : unit == "V" ? 1 : unit == "mV" ? 1e-3 : 0;
-    if (used == 0 || factor == 0 || !(value > 0)) {
+    const auto scale = stage::tolerance_unit(unit);
+    if (used == 0 || !scale || !(value > 0)) {
       throw stage::InputError({"--tolerance", 0, 0},
                               "expected a percentage (5%) or a voltage (20mV), got '" + text + "'");
     }
-    (unit == "%" ? o.ratio : o.voltage) = value * factor;
+    (scale->ratio ? o.ratio : o.voltage) = value * scale->factor;
   }
   return o;
 }

@@ -5,6 +5,10 @@
 #include "stage/bias.hpp"
 #include "stage/circuit.hpp"
 
+// Figures are kept in SI units (A, S, W); printed here in thousandths of
+// them (mA, mS, mW). The library's own reports choose the prefix themselves.
+constexpr double kMilliPerUnit = 1e3;
+
 int main() {
   stage::Circuit follower;
   follower.title = "Emitter follower built in code";
@@ -23,9 +27,9 @@ int main() {
   std::cout << follower.title << "\n"
             << "  v(out)        " << bias.voltage("out") << " V\n"
             << "  q1 region     " << to_string(q1.region) << "\n"
-            << "  q1 collector  " << q1.collector_current * 1e3 << " mA\n"
-            << "  q1 gm         " << q1.gm * 1e3 << " mS\n"
-            << "  q1 power      " << q1.power * 1e3 << " mW\n"
-            << "  supply power  " << bias.supplies.front().power * 1e3 << " mW\n";
+            << "  q1 collector  " << q1.collector_current * kMilliPerUnit << " mA\n"
+            << "  q1 gm         " << q1.gm * kMilliPerUnit << " mS\n"
+            << "  q1 power      " << q1.power * kMilliPerUnit << " mW\n"
+            << "  supply power  " << bias.supplies.front().power * kMilliPerUnit << " mW\n";
   return 0;
 }

@@ -19,6 +19,7 @@
 #include <optional>
 #include <span>
 #include <string>
+#include <string_view>
 #include <variant>
 #include <vector>
 
@@ -153,6 +154,16 @@ struct ToleranceOverride {
   std::optional<double> ratio;
   std::optional<double> voltage;
 };
+
+// A tolerance's unit as a curve file's `tolerance` line and the command's
+// --tolerance write it: "%" for a ratio (factor 0.01), or volts with an
+// optional SI prefix of the language ("mV": factor 1e-3); nothing for any
+// other unit. The value times the factor is what ToleranceOverride holds.
+struct ToleranceUnit {
+  bool ratio = false;
+  double factor = 1;
+};
+std::optional<ToleranceUnit> tolerance_unit(std::string_view text);
 
 CurveCheckResult compare_curves(const Curve& reference, const Curve& computed);
 CurveCheckResult check_curve(const Curve& reference, const DeviceModel& model);

@@ -6,13 +6,13 @@
 
 #include <algorithm>
 #include <cmath>
-#include <numbers>
 #include <stdexcept>
 
 #include "analysis/frequency_figures.hpp"
 #include "analysis/frequency_response.hpp"
 #include "analysis/small_signal.hpp"
 #include "circuit/element_kinds.hpp"
+#include "common/constants.hpp"
 
 namespace stage {
 namespace {
@@ -21,7 +21,6 @@ using analysis::Complex;
 using analysis::Probe;
 using analysis::SmallSignalSystem;
 
-constexpr double kTwoPi = 2.0 * std::numbers::pi;
 const Complex kInfiniteImpedance(std::numeric_limits<double>::infinity(), 0.0);
 
 std::vector<double> frequency_grid(const FrequencyOptions& o) {
@@ -203,7 +202,7 @@ FrequencyResult frequency_response(const Circuit& circuit, const mna::System& sy
     const Complex h = sweep.response();
     const double previous = result.phase_deg.empty() ? 0.0 : result.phase_deg.back();
     result.response.push_back(h);
-    result.gain_dB.push_back(20.0 * std::log10(std::abs(h)));
+    result.gain_dB.push_back(db_from_amplitude_ratio(std::abs(h)));
     result.phase_deg.push_back(analysis::unwrapped_phase_deg(h, previous));
     result.input_impedance.push_back(sweep.input_impedance());
     if (sweep.has_output_impedance()) result.output_impedance.push_back(sweep.output_impedance());
@@ -212,7 +211,7 @@ FrequencyResult frequency_response(const Circuit& circuit, const mna::System& sy
 
   const auto gain_dB_at = [&](double f) {
     sweep.solve_at(f);
-    return 20.0 * std::log10(std::abs(sweep.response()));
+    return db_from_amplitude_ratio(std::abs(sweep.response()));
   };
   result.figures = analysis::find_figures(result.frequencies, result.gain_dB, gain_dB_at);
   if (options.at) {
@@ -223,7 +222,7 @@ FrequencyResult frequency_response(const Circuit& circuit, const mna::System& sy
         });
     const double reference = result.phase_deg[nearest - result.frequencies.begin()];
     sweep.solve_at(*options.at);
-    result.figures.gain_at_dB = 20.0 * std::log10(std::abs(sweep.response()));
+    result.figures.gain_at_dB = db_from_amplitude_ratio(std::abs(sweep.response()));
     result.figures.phase_at_deg = analysis::unwrapped_phase_deg(sweep.response(), reference);
   }
   return result;

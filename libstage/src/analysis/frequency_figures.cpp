@@ -3,7 +3,8 @@
 
 #include <algorithm>
 #include <cmath>
-#include <numbers>
+
+#include "common/constants.hpp"
 
 namespace stage::analysis {
 namespace {
@@ -77,7 +78,7 @@ FrequencyFigures find_figures(const std::vector<double>& frequencies,
 }
 
 double unwrapped_phase_deg(std::complex<double> z, double reference_deg) {
-  const double phase = std::arg(z) * 180.0 / std::numbers::pi;
+  const double phase = degrees_from_radians(std::arg(z));
   return phase - 360.0 * std::round((phase - reference_deg) / 360.0);
 }
 

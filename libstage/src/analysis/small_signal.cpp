@@ -1,9 +1,9 @@
 // Linearisation at the bias point and the complex solves built on it.
 #include "analysis/small_signal.hpp"
 
-#include <numbers>
 #include <string>
 
+#include "common/constants.hpp"
 #include "stage/errors.hpp"
 
 namespace stage::analysis {
@@ -48,8 +48,8 @@ void SmallSignalSystem::factor(double omega) {
   if (lu_.factor(values_.data())) return;
   const std::string name = system_.topology().name(lu_.singular_column() + 1);
   throw NumericalError(ErrorKind::singular,
-                       "the small-signal system is singular at " +
-                           std::to_string(omega / (2 * std::numbers::pi)) + " Hz near '" + name +
+                       "the small-signal system is singular at " + std::to_string(omega / kTwoPi) +
+                           " Hz near '" + name +
                            "' (a lossless resonance or a node held only by reactances)",
                        {name});
 }

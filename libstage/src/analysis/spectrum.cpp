@@ -20,6 +20,7 @@
 #include <numbers>
 
 #include "analysis/step_interpolant.hpp"
+#include "common/constants.hpp"
 #include "stage/errors.hpp"
 
 namespace stage {
@@ -94,7 +95,7 @@ void fourier_series(const Stretch& s, int harmonics, SpectrumResult& result) {
   for (int n = 1; n <= harmonics; ++n) {
     const double cosine = 2.0 * a[n] / s.length, sine = 2.0 * b[n] / s.length;
     const double amplitude = std::hypot(cosine, sine);
-    result.harmonics.push_back({n, amplitude, std::atan2(cosine, sine) * 180.0 / std::numbers::pi});
+    result.harmonics.push_back({n, amplitude, degrees_from_radians(std::atan2(cosine, sine))});
     if (n > 1) harmonic_power += amplitude * amplitude;
   }
   const Harmonic& first = result.harmonics.front();
@@ -106,7 +107,7 @@ void fourier_series(const Stretch& s, int harmonics, SpectrumResult& result) {
 double thd_plus_noise(const Stretch& s, const SpectrumResult& result, double rms_fundamental) {
   const Harmonic& first = result.harmonics.front();
   double residual = 0;
-  const double phi = first.phase_deg * std::numbers::pi / 180.0;
+  const double phi = radians_from_degrees(first.phase_deg);
   s.integrate([&](double t, double weight, double value) {
     const double r = value - result.dc - first.amplitude * std::sin(s.omega * t + phi);
     residual += weight * r * r;
@@ -142,7 +143,7 @@ SpectrumResult run_spectrum(const TransientResult& tr, const SpectrumOptions& op
                      " are needed to analyse the last and check it has settled";
   }
 
-  const double omega = 2.0 * std::numbers::pi * options.fundamental;
+  const double omega = kTwoPi * options.fundamental;
   const Stretch stretch{tr,
                         signal,
                         tr.time.back() - result.periods * period,
@@ -159,7 +160,7 @@ SpectrumResult run_spectrum(const TransientResult& tr, const SpectrumOptions& op
     if (result.period_change > kSettleLimit) {
       result.settled = false;
       result.message = "the last two periods differ by " +
-                       std::to_string(100.0 * result.period_change) +
+                       std::to_string(in_percent(result.period_change)) +
                        " % of the fundamental (RMS): the waveform has not settled; run longer";
     }
   }

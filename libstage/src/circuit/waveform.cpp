@@ -3,17 +3,18 @@
 
 #include <algorithm>
 #include <cmath>
-#include <numbers>
+
+#include "common/constants.hpp"
 
 namespace stage {
 namespace {
 
 double sine_value(const SineWave& w, double t) {
-  const double phase = w.phase_deg * std::numbers::pi / 180.0;
+  const double phase = radians_from_degrees(w.phase_deg);
   if (t < w.delay) return w.offset + w.amplitude * std::sin(phase);
   const double s = t - w.delay;
-  return w.offset + w.amplitude * std::exp(-w.damping * s) *
-                        std::sin(2.0 * std::numbers::pi * w.frequency * s + phase);
+  return w.offset +
+         w.amplitude * std::exp(-w.damping * s) * std::sin(kTwoPi * w.frequency * s + phase);
 }
 
 // Within each period: rise, high for width, fall, low for the rest.

@@ -5,6 +5,7 @@
 #include <cmath>
 #include <sstream>
 
+#include "common/constants.hpp"
 #include "curves/curve_kinds.hpp"
 #include "curves/fixtures.hpp"
 #include "curves/residuals.hpp"
@@ -24,7 +25,7 @@ std::string error_text(double error, bool by_ratio, bool sign = true) {
   std::ostringstream s;
   s.precision(3);
   if (sign) s << std::showpos;
-  s << error * 100 << " %";
+  s << in_percent(error) << " %";
   return s.str();
 }
 

@@ -5,6 +5,7 @@
 
 #include <fstream>
 
+#include "common/constants.hpp"
 #include "curves/curve_kinds.hpp"
 #include "stage/errors.hpp"
 
@@ -31,7 +32,7 @@ std::string format_curve(const Curve& curve) {
   }
   for (const auto& t : curve.tolerances) {
     if (compared_by_ratio(t.quantity)) {
-      text += fmt::format("tolerance, {}, {:.6g}, %\n", to_string(t.quantity), t.value * 100);
+      text += fmt::format("tolerance, {}, {:.6g}, %\n", to_string(t.quantity), in_percent(t.value));
     } else {
       text += fmt::format("tolerance, {}, {:.6g}, V\n", to_string(t.quantity), t.value);
     }

@@ -5,6 +5,7 @@
 #include <cmath>
 #include <sstream>
 
+#include "common/constants.hpp"
 #include "report/format.hpp"
 #include "stage/curves.hpp"
 
@@ -38,7 +39,7 @@ std::string FitResult::report() const {
         p.log_scale ? "log" : fmt::format("in ({:g}, {:g})", p.bounds->first, p.bounds->second);
     table.add_row({p.name, report::si(p.start, unit), report::si(p.value, unit),
                    report::si(p.uncertainty, unit, 2),
-                   fmt::format("{:.2g}", 100 * p.uncertainty / std::abs(p.value)), scale});
+                   fmt::format("{:.2g}", in_percent(p.uncertainty) / std::abs(p.value)), scale});
   }
   std::ostringstream out;
   out << "Levenberg–Marquardt: " << stop_reason << (converged ? "" : " (NOT converged)")

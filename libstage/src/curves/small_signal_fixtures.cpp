@@ -17,8 +17,8 @@
 // that bias, where the extrapolation is most exact (both corrections are
 // about 1/(2 beta)).
 #include <cmath>
-#include <numbers>
 
+#include "common/constants.hpp"
 #include "curves/fixtures.hpp"
 #include "stage/errors.hpp"
 #include "stage/frequency.hpp"
@@ -37,7 +37,7 @@ double measurement_frequency(const Curve& reference, const BipolarOperatingPoint
                          "': the model has no junction or transit-time capacitance, so its "
                          "transition frequency is infinite");
   }
-  const double ft_estimate = q.gm / (2 * std::numbers::pi * c);
+  const double ft_estimate = q.gm / (kTwoPi * c);
   const double beta = q.collector_current / q.base_current;
   return ft_estimate / std::sqrt(beta);
 }

@@ -9,6 +9,7 @@
 
 #include "analysis/step_interpolant.hpp"
 #include "circuit/element_kinds.hpp"
+#include "common/constants.hpp"
 #include "common/si_format.hpp"
 #include "large_signal/drive_setup.hpp"
 #include "large_signal/headroom_search.hpp"
@@ -142,7 +143,7 @@ CharacterizeResult run_characterize(const Circuit& circuit, const CharacterizeOp
                                   true);
   r.frequency = drive.simulation().frequency(f);
   r.bias = r.frequency.bias;
-  r.gain = std::pow(10.0, *r.frequency.figures.gain_at_dB / 20.0);
+  r.gain = amplitude_ratio_from_db(*r.frequency.figures.gain_at_dB);
   const auto& fs = r.frequency.frequencies;
   const auto nearest = std::min_element(fs.begin(), fs.end(), [&](double a, double b) {
     return std::abs(std::log(a / options.frequency)) < std::abs(std::log(b / options.frequency));

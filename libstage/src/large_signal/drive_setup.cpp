@@ -4,6 +4,7 @@
 #include <cmath>
 
 #include "circuit/element_kinds.hpp"
+#include "common/constants.hpp"
 #include "stage/errors.hpp"
 #include "stage/frequency.hpp"
 
@@ -49,7 +50,7 @@ double small_signal_gain(Simulation& simulation, const std::string& input, const
   f.output = output;
   f.at = frequency;
   const FrequencyResult r = simulation.frequency(f);
-  return std::pow(10.0, *r.figures.gain_at_dB / 20.0);
+  return amplitude_ratio_from_db(*r.figures.gain_at_dB);
 }
 
 std::optional<double> impedance_without(const Circuit& circuit, const std::string& removed,

@@ -6,6 +6,7 @@
 #include <iterator>
 #include <string>
 
+#include "common/constants.hpp"
 #include "common/si_format.hpp"
 #include "stage/errors.hpp"
 
@@ -18,7 +19,7 @@ namespace {
 // tenth of its gain, which is clipping to a designer.
 constexpr double kPlateauFraction = 0.2;
 // 1 dB compression: the peak falls short of the prediction by 10^(-1/20).
-const double kOneDbShortfall = 1.0 - std::pow(10.0, -1.0 / 20.0);
+const double kOneDbShortfall = 1.0 - amplitude_ratio_from_db(-1.0);
 // A stage whose small-signal gain is below this fraction of its largest
 // large-signal gain is biased off (class B): a biased stage compresses as
 // it is driven harder, so its large-signal gain does not reach twice it.

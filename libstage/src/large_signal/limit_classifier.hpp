@@ -54,7 +54,8 @@ class LimitClassifier {
   // own: crossover), then a transistor newly in cutoff or carrying less than
   // half its bias current; otherwise smooth distortion, blamed on the
   // transistor that carries the side after a take-over, else on the one
-  // whose incremental gain departs most from its small-signal value.
+  // whose incremental gain departs most from its small-signal value. (The
+  // fractions are limit_classifier.cpp's named constants.)
   LimitCause classify(const Extreme& extreme) const;
 
   // Crossover of a complementary pair biased off: the transistors carrying

@@ -1,6 +1,6 @@
-// The unit symbols and SI prefixes of the language (spec section 1) and the
-// rule that turns the word written after a number into a scale, an offset and
-// the quantity it measures.
+// The unit symbols of the language (spec section 1) and the rule that turns
+// the word written after a number, with its SI prefix (common/si_prefixes.hpp),
+// into a scale, an offset and the quantity it measures.
 #pragma once
 
 #include <optional>

@@ -1,7 +1,10 @@
-// Unit symbols, SI prefixes and unit names for messages. One table lists
-// every symbol so that reading and printing cannot drift apart.
+// Unit symbols and unit names for messages, and the reading of a unit word
+// with its SI prefix (the prefixes are common/si_prefixes.hpp's). One table
+// lists every unit symbol so that reading and printing cannot drift apart.
 #include <array>
 
+#include "common/constants.hpp"
+#include "common/si_prefixes.hpp"
 #include "reader/unit_table.hpp"
 
 namespace stage {
@@ -28,23 +31,12 @@ constexpr std::array kUnits{
     UnitSymbol{"Hz", Quantity::frequency, 1, 0, true},
     UnitSymbol{"W", Quantity::power, 1, 0, true},
     UnitSymbol{"K", Quantity::temperature, 1, 0, true},
-    UnitSymbol{"°C", Quantity::temperature, 1, 273.15, false},
-    UnitSymbol{"degC", Quantity::temperature, 1, 273.15, false},
+    UnitSymbol{"°C", Quantity::temperature, 1, kZeroCelsius, false},
+    UnitSymbol{"degC", Quantity::temperature, 1, kZeroCelsius, false},
     UnitSymbol{"eV", Quantity::energy, 1, 0, true},
-    UnitSymbol{"%", Quantity::ratio, 0.01, 0, false},
+    UnitSymbol{"%", Quantity::ratio, kPercent, 0, false},
     UnitSymbol{"dB", Quantity::decibel, 1, 0, false},
     UnitSymbol{"deg", Quantity::angle, 1, 0, false},
-};
-
-struct Prefix {
-  std::string_view symbol;
-  double scale;
-};
-
-constexpr std::array kPrefixes{
-    Prefix{"a", 1e-18}, Prefix{"f", 1e-15}, Prefix{"p", 1e-12}, Prefix{"n", 1e-9},
-    Prefix{"u", 1e-6},  Prefix{"µ", 1e-6},  Prefix{"μ", 1e-6},  Prefix{"m", 1e-3},
-    Prefix{"k", 1e3},   Prefix{"M", 1e6},   Prefix{"G", 1e9},   Prefix{"T", 1e12},
 };
 
 }  // namespace
@@ -91,18 +83,18 @@ UnitReading read_unit(std::string_view word, bool touching) {
   for (const UnitSymbol& unit : kUnits) {
     if (word == unit.symbol) return {unit.scale, unit.offset, unit.quantity, {}};
   }
-  for (const Prefix& prefix : kPrefixes) {
+  for (const text::SiPrefix& prefix : text::kSiPrefixes) {
     if (!word.starts_with(prefix.symbol)) continue;
     const std::string_view rest = word.substr(prefix.symbol.size());
     if (rest.empty()) {
-      if (touching) return {prefix.scale, 0, std::nullopt, {}};
+      if (touching) return {text::scale_of(prefix), 0, std::nullopt, {}};
       return {1, 0, std::nullopt,
               "the prefix '" + std::string(word) +
                   "' must touch the number (write it without a space, e.g. 4.7k)"};
     }
     for (const UnitSymbol& unit : kUnits) {
       if (rest == unit.symbol && unit.takes_prefix) {
-        return {prefix.scale * unit.scale, 0, unit.quantity, {}};
+        return {text::scale_of(prefix) * unit.scale, 0, unit.quantity, {}};
       }
     }
   }

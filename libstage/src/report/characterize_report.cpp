@@ -2,8 +2,8 @@
 #include "report/characterize_report.hpp"
 
 #include <cmath>
-#include <numbers>
 
+#include "common/constants.hpp"
 #include "report/bias_report.hpp"
 #include "report/headroom_report.hpp"
 
@@ -27,7 +27,7 @@ Json swing_json(const SwingPower& s) {
 }
 
 std::string impedance_text(std::complex<double> z) {
-  return si(std::abs(z), "Ω") + " ∠ " + fixed(std::arg(z) * 180 / std::numbers::pi, "°", 1);
+  return si(std::abs(z), "Ω") + " ∠ " + fixed(degrees_from_radians(std::arg(z)), "°", 1);
 }
 
 }  // namespace

@@ -6,9 +6,9 @@
 #include <cmath>
 #include <complex>
 #include <cstdio>
-#include <numbers>
 #include <sstream>
 
+#include "common/constants.hpp"
 #include "report/bias_report.hpp"
 
 namespace stage::report {
@@ -36,7 +36,7 @@ void add_impedance(Json& json, const std::string& key, const Impedances& z) {
   json[key + "_imag_ohm"] = each(z, [](std::complex<double> v) { return v.imag(); });
 }
 
-double angle_deg(std::complex<double> z) { return std::arg(z) * 180.0 / std::numbers::pi; }
+double angle_deg(std::complex<double> z) { return degrees_from_radians(std::arg(z)); }
 
 std::string magnitude_text(std::complex<double> z) { return si(std::abs(z), "Ω"); }
 std::string angle_text(std::complex<double> z) {
