@@ -70,10 +70,7 @@ std::string model_name_for(const stage::Curve& curve, const CurvesSettings& s,
                            const stage::Circuit& library) {
   if (!s.model.empty()) return s.model;
   if (!curve.model.empty()) return curve.model;
-  if (library.bipolar_models().size() + library.diode_models().size() == 1) {
-    return library.bipolar_models().empty() ? library.diode_models().begin()->first
-                                            : library.bipolar_models().begin()->first;
-  }
+  if (library.models().size() == 1) return library.models().names().front();
   throw stage::InputError(
       {curve.file.string(), 0, 0},
       "the curve names no model and " + s.model_file + " holds several: give --model NAME");

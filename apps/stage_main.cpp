@@ -77,7 +77,7 @@ stage::ReadOptions read_options(const Settings& s) {
 int check(const Settings& s) {
   const stage::Deck deck = stage::read_file(s.file, read_options(s));
   const stage::Circuit& c = deck.circuit;
-  const std::size_t models = c.bipolar_models().size() + c.diode_models().size();
+  const std::size_t models = c.models().size();
   if (c.elements().empty() && deck.analyses.empty()) {
     if (models == 0) throw stage::InputError({s.file, 0, 0}, "the file defines nothing");
     std::cout << s.file << ": " << models << " models, no elements (a model library); no errors\n";

@@ -149,21 +149,29 @@ class Circuit {
   Circuit& add(std::string name, ElementData data);
   // Takes an element out (the others keep their order); false if there is none.
   bool remove(const std::string& name);
-  Circuit& add_model(std::string name, BipolarModel model);
-  Circuit& add_model(std::string name, DiodeModel model);
+  // Adds a model of any kind (a BipolarModel, a DiodeModel, an AnyModel),
+  // or replaces the one of the same kind and name.
+  template <class Model>
+  Circuit& add_model(std::string name, Model model) {
+    models_.add(std::move(name), std::move(model));
+    return *this;
+  }
 
   const std::vector<Element>& elements() const { return elements_; }
   const Element* find(const std::string& name) const;
   Element* find(const std::string& name);
 
-  const std::map<std::string, BipolarModel>& bipolar_models() const { return bipolar_models_; }
-  const std::map<std::string, DiodeModel>& diode_models() const { return diode_models_; }
+  const Models& models() const { return models_; }
+  // The models of one kind, by name.
+  const std::map<std::string, BipolarModel>& bipolar_models() const {
+    return models_.of<BipolarModel>();
+  }
+  const std::map<std::string, DiodeModel>& diode_models() const { return models_.of<DiodeModel>(); }
 
  private:
   std::vector<Element> elements_;
   std::map<std::string, std::size_t> index_;
-  std::map<std::string, BipolarModel> bipolar_models_;
-  std::map<std::string, DiodeModel> diode_models_;
+  Models models_;
 };
 
 }  // namespace stage

@@ -104,8 +104,8 @@ void write_curve_file(const std::filesystem::path& path, const Curve& curve);
 // A model from a model library, with its name and kind.
 struct DeviceModel {
   std::string name;
-  std::variant<BipolarModel, DiodeModel> parameters;
-  bool is_bipolar() const { return parameters.index() == 0; }
+  AnyModel parameters;
+  bool is_bipolar() const { return std::holds_alternative<BipolarModel>(parameters); }
 };
 
 // Throws InputError (naming `name` and the models there are) when absent.

@@ -4,10 +4,14 @@
 #pragma once
 
 #include <limits>
+#include <map>
 #include <optional>
 #include <span>
 #include <string>
 #include <string_view>
+#include <tuple>
+#include <variant>
+#include <vector>
 
 #include "stage/units.hpp"
 
@@ -80,6 +84,62 @@ struct DiodeModel {
   double reference_temperature = kRoomTemperature;
   bool operator==(const DiodeModel&) const = default;
 };
+
+// Models by name, one map per model kind. Every model kind is listed once,
+// as an argument of `Models` below; code that handles every kind iterates
+// them instead of naming each.
+template <class... Kinds>
+class ModelLibrary {
+ public:
+  using Any = std::variant<Kinds...>;  // one model of any kind
+
+  template <class Model>
+  const std::map<std::string, Model>& of() const {
+    return std::get<std::map<std::string, Model>>(maps_);
+  }
+  // Adds a model, or replaces the one of the same kind and name.
+  template <class Model>
+  void add(std::string name, Model model) {
+    std::get<std::map<std::string, Model>>(maps_)[std::move(name)] = std::move(model);
+  }
+  void add(std::string name, const Any& model) {
+    std::visit([&](const auto& m) { add(std::move(name), m); }, model);
+  }
+  // Calls f(map) with each kind's map in turn.
+  template <class F>
+  void for_each_kind(F&& f) const {
+    std::apply([&](const auto&... map) { (f(map), ...); }, maps_);
+  }
+  std::size_t size() const {
+    std::size_t n = 0;
+    for_each_kind([&](const auto& map) { n += map.size(); });
+    return n;
+  }
+  // Every model's name, kind by kind.
+  std::vector<std::string> names() const {
+    std::vector<std::string> out;
+    for_each_kind([&](const auto& map) {
+      for (const auto& entry : map) out.push_back(entry.first);
+    });
+    return out;
+  }
+  // The model of that name, of whichever kind; the first kind's if several.
+  std::optional<Any> find(const std::string& name) const {
+    std::optional<Any> found;
+    for_each_kind([&](const auto& map) {
+      const auto it = map.find(name);
+      if (!found && it != map.end()) found = it->second;
+    });
+    return found;
+  }
+  bool operator==(const ModelLibrary&) const = default;
+
+ private:
+  std::tuple<std::map<std::string, Kinds>...> maps_;
+};
+
+using Models = ModelLibrary<BipolarModel, DiodeModel>;
+using AnyModel = Models::Any;
 
 // The values a model parameter may take (NaN never).
 enum class ParameterRange {

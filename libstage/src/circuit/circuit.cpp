@@ -1,4 +1,4 @@
-// Building a Circuit in code: element and model registries.
+// Building a Circuit in code: the element registry (models: stage/models.hpp).
 #include "stage/circuit.hpp"
 
 #include "stage/errors.hpp"
@@ -21,16 +21,6 @@ bool Circuit::remove(const std::string& name) {
   index_.clear();
   for (std::size_t k = 0; k < elements_.size(); ++k) index_.emplace(elements_[k].name, k);
   return true;
-}
-
-Circuit& Circuit::add_model(std::string name, BipolarModel model) {
-  bipolar_models_[std::move(name)] = model;
-  return *this;
-}
-
-Circuit& Circuit::add_model(std::string name, DiodeModel model) {
-  diode_models_[std::move(name)] = model;
-  return *this;
 }
 
 const Element* Circuit::find(const std::string& name) const {

@@ -10,6 +10,7 @@
 #include <vector>
 
 #include "circuit/kinds/controlled.hpp"
+#include "circuit/kinds/models.hpp"
 #include "circuit/kinds/passive.hpp"
 #include "circuit/kinds/semiconductors.hpp"
 #include "circuit/kinds/sources.hpp"

@@ -67,9 +67,14 @@ std::optional<Problem> sense_problem(const Circuit& circuit, const std::string& 
                            "', which is not a voltage source or an inductor of the circuit"};
 }
 
-bool model_exists(const Circuit& circuit, std::string_view model_kind, const std::string& model) {
-  if (model_kind == "diode") return circuit.diode_models().count(model) != 0;
-  return circuit.bipolar_models().count(model) != 0;
+// True when the circuit has a model of the kind E's `model =` refers to.
+template <class E>
+bool model_exists(const Circuit& circuit, const std::string& model) {
+  if constexpr (requires { typename kinds::KindOf<E>::model_type; }) {
+    return circuit.models().of<typename kinds::KindOf<E>::model_type>().count(model) != 0;
+  } else {
+    return false;
+  }
 }
 
 // One argument of an element against its field's rules.
@@ -96,7 +101,7 @@ std::optional<Problem> field_problem(const Circuit& circuit, const std::string& 
       return sense_problem(circuit, name, e.*field.text);
     case kinds::FieldKind::model: {
       const std::string_view model_kind = kind.model_kind(e);
-      if (model_exists(circuit, model_kind, e.*field.text)) return std::nullopt;
+      if (model_exists<E>(circuit, e.*field.text)) return std::nullopt;
       return Problem{name, "'" + name + "' uses model '" + e.*field.text + "', which is not a " +
                                std::string(model_kind) + " model of the circuit"};
     }
@@ -144,12 +149,15 @@ std::optional<Problem> validate(const Circuit& circuit) {
                        number(circuit.temperature)};
   }
   if (auto p = solver_problem(circuit.solver)) return p;
-  for (const auto& [name, model] : circuit.bipolar_models()) {
-    if (auto p = model_problem(name, model, bipolar_parameters())) return p;
-  }
-  for (const auto& [name, model] : circuit.diode_models()) {
-    if (auto p = model_problem(name, model, diode_parameters())) return p;
-  }
+  std::optional<Problem> found;
+  circuit.models().for_each_kind([&](const auto& models) {
+    for (const auto& [name, model] : models) {
+      using Model = std::decay_t<decltype(model)>;
+      if (!found)
+        found = model_problem(name, model, kinds::ModelKindOf<Model>::descriptor.parameters());
+    }
+  });
+  if (found) return found;
   for (const Element& e : circuit.elements()) {
     if (auto p = element_problem(circuit, e)) return p;
   }

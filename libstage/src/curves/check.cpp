@@ -33,15 +33,9 @@ std::string error_text(double error, bool by_ratio, bool sign = true) {
 
 DeviceModel find_device_model(const Circuit& library, const std::string& name,
                               const std::string& library_file) {
-  if (const auto b = library.bipolar_models().find(name); b != library.bipolar_models().end()) {
-    return {name, b->second};
-  }
-  if (const auto d = library.diode_models().find(name); d != library.diode_models().end()) {
-    return {name, d->second};
-  }
+  if (const auto model = library.models().find(name)) return {name, *model};
   std::string known;
-  for (const auto& [n, m] : library.bipolar_models()) known += " " + n;
-  for (const auto& [n, m] : library.diode_models()) known += " " + n;
+  for (const std::string& n : library.models().names()) known += " " + n;
   throw InputError({library_file, 0, 0}, "no model named '" + name + "'; the models there are:" +
                                              (known.empty() ? std::string(" none") : known));
 }

@@ -267,7 +267,7 @@ std::unique_ptr<mna::Device> make_bipolar(const std::string& name, const Bipolar
 
 std::unique_ptr<mna::Device> make_device(const std::string& name, const Bipolar& e,
                                          const Circuit& circuit, mna::Topology& t) {
-  return make_bipolar(name, e, find_model(circuit.bipolar_models(), e.model, name), t);
+  return make_bipolar(name, e, find_model(circuit.models().of<BipolarModel>(), e.model, name), t);
 }
 
 }  // namespace stage::devices

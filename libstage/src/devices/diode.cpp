@@ -200,7 +200,7 @@ std::unique_ptr<mna::Device> make_diode(const std::string& name, const Diode& el
 
 std::unique_ptr<mna::Device> make_device(const std::string& name, const Diode& e,
                                          const Circuit& circuit, mna::Topology& t) {
-  return make_diode(name, e, find_model(circuit.diode_models(), e.model, name), t);
+  return make_diode(name, e, find_model(circuit.models().of<DiodeModel>(), e.model, name), t);
 }
 
 }  // namespace stage::devices

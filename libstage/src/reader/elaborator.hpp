@@ -40,9 +40,8 @@ class Elaborator {
   };
 
   struct ModelEntry {
-    std::string kind;  // npn, pnp, diode
-    BipolarModel bipolar;
-    DiodeModel diode;
+    std::string kind;  // the language's model kind: npn, pnp, diode
+    AnyModel parameters;
     // Parameters set explicitly (here or in a base model) and where.
     std::map<std::string, std::pair<const File*, int>> set;
   };
@@ -77,8 +76,11 @@ class Elaborator {
   double value(const BoundArguments& args, std::string_view name, Quantity q, const Frame& frame,
                double fallback = 0, bool allow_infinity = false);
 
-  // model_statements.cpp
+  // model_statements.cpp: model statements, read through their kind's descriptor.
   void model(const ast::Model& model, const Frame& frame);
+  template <class Model>
+  void read_parameters(const kinds::ModelDescriptor<Model>& kind, const ast::Model& m,
+                       ModelEntry& entry, const Frame& frame);
 
   // analysis_statements.cpp
   void analysis(const ast::Analyze& analyze, const File& file);

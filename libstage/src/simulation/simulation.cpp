@@ -171,9 +171,8 @@ void Simulation::set_value(const std::string& element, double value) {
 
 bool Simulation::take_values_from(const Circuit& other) {
   const Circuit& mine = state_->circuit;
-  if (other.elements().size() != mine.elements().size() ||
-      other.bipolar_models() != mine.bipolar_models() ||
-      other.diode_models() != mine.diode_models() || other.temperature != mine.temperature) {
+  if (other.elements().size() != mine.elements().size() || other.models() != mine.models() ||
+      other.temperature != mine.temperature) {
     return false;
   }
   for (std::size_t k = 0; k < mine.elements().size(); ++k) {

@@ -1,5 +1,6 @@
 // The descriptors of the kinds with a model: diode, and the bipolar
-// transistor, which the language spells npn or pnp.
+// transistor, which the language spells npn or pnp. `model_type` names
+// the kind of model its `model =` argument refers to.
 #pragma once
 
 #include "circuit/kind_descriptor.hpp"
@@ -8,6 +9,7 @@ namespace stage::kinds {
 
 template <>
 struct KindOf<Diode> {
+  using model_type = DiodeModel;
   static constexpr Spelling<Diode> spellings[] = {{"diode"}};
   static constexpr Field<Diode> fields[] = {
       terminal("anode", &Diode::anode), terminal("cathode", &Diode::cathode),
@@ -23,6 +25,7 @@ struct KindOf<Diode> {
 
 template <>
 struct KindOf<Bipolar> {
+  using model_type = BipolarModel;
   static constexpr Spelling<Bipolar> spellings[] = {
       {"npn", [](Bipolar& q) { q.polarity = Polarity::npn; }},
       {"pnp", [](Bipolar& q) { q.polarity = Polarity::pnp; }}};
