@@ -3,37 +3,48 @@
 
 #include <cmath>
 
+#include "report/operating_points.hpp"
+
 namespace stage::report {
 namespace {
 
 // JSON has no infinity: an infinite output resistance is written as null.
 Json number(double value) { return std::isfinite(value) ? Json(value) : Json(nullptr); }
 
-Json bipolar_json(const BipolarOperatingPoint& q) {
-  return Json{{"kind", q.polarity == Polarity::npn ? "npn" : "pnp"},
-              {"region", std::string(to_string(q.region))},
-              {"collector_current", q.collector_current},
-              {"base_current", q.base_current},
-              {"emitter_current", q.emitter_current},
-              {"vbe", q.vbe},
-              {"vce", q.vce},
-              {"vbc", q.vbc},
-              {"gm", q.gm},
-              {"r_pi", number(q.r_pi)},
-              {"r_out", number(q.r_out)},
-              {"c_pi", q.c_pi},
-              {"c_mu", q.c_mu},
-              {"c_cs", q.c_cs},
-              {"power", q.power}};
+// One record's JSON: its words, then its figures.
+template <class Point>
+Json record_json(const Point& point, const PointReport<Point>& report) {
+  Json json = Json::object();
+  for (const auto& w : report.words) json[std::string(w.key)] = w.text(point);
+  for (const auto& f : report.figures) json[std::string(f.key)] = number(point.*f.value);
+  return json;
 }
 
-Json diode_json(const DiodeOperatingPoint& d) {
-  return Json{{"kind", "diode"},
-              {"current", d.current},
-              {"voltage", d.voltage},
-              {"resistance", number(d.resistance)},
-              {"capacitance", d.capacitance},
-              {"power", d.power}};
+// One table per kind with records: the name, the headed words and figures.
+template <class Point>
+void print_records(std::ostream& out, const std::vector<Point>& records,
+                   const PointReport<Point>& report) {
+  if (records.empty()) return;
+  std::vector<std::string> header{std::string(report.heading)};
+  for (const auto& w : report.words) {
+    if (!w.heading.empty()) header.emplace_back(w.heading);
+  }
+  for (const auto& f : report.figures) {
+    if (!f.heading.empty()) header.emplace_back(f.heading);
+  }
+  TextTable table(header);
+  for (const Point& point : records) {
+    std::vector<std::string> row{point.name};
+    for (const auto& w : report.words) {
+      if (!w.heading.empty()) row.push_back(w.text(point));
+    }
+    for (const auto& f : report.figures) {
+      if (!f.heading.empty()) row.push_back(si(point.*f.value, f.unit));
+    }
+    table.add_row(std::move(row));
+  }
+  out << '\n';
+  table.print(out);
 }
 
 Json pairs_json(const std::vector<std::pair<std::string, double>>& pairs) {
@@ -52,8 +63,9 @@ std::string temperature_text(double kelvin) {
 
 Json to_json(const BiasResult& r) {
   Json devices = Json::object();
-  for (const auto& q : r.bipolars) devices[q.name] = bipolar_json(q);
-  for (const auto& d : r.diodes) devices[d.name] = diode_json(d);
+  for_each_device_kind(r, [&](const auto& records, const auto& report) {
+    for (const auto& point : records) devices[point.name] = record_json(point, report);
+  });
   Json supplies = Json::object();
   for (const auto& s : r.supplies)
     supplies[s.name] = Json{{"current", s.current}, {"power", s.power}};
@@ -83,27 +95,8 @@ void print_table(std::ostream& out, const BiasResult& r) {
   for (const auto& [name, v] : r.node_voltages) nodes.add_row({name, si(v, "V")});
   nodes.print(out);
 
-  if (!r.bipolars.empty()) {
-    out << '\n';
-    TextTable t(
-        {"transistor", "type", "region", "IC", "IB", "VBE", "VCE", "gm", "r_pi", "r_out", "power"});
-    for (const auto& q : r.bipolars) {
-      t.add_row({q.name, q.polarity == Polarity::npn ? "npn" : "pnp",
-                 std::string(to_string(q.region)), si(q.collector_current, "A"),
-                 si(q.base_current, "A"), si(q.vbe, "V"), si(q.vce, "V"), si(q.gm, "S"),
-                 si(q.r_pi, "Ω"), si(q.r_out, "Ω"), si(q.power, "W")});
-    }
-    t.print(out);
-  }
-  if (!r.diodes.empty()) {
-    out << '\n';
-    TextTable t({"diode", "current", "voltage", "resistance", "power"});
-    for (const auto& d : r.diodes) {
-      t.add_row({d.name, si(d.current, "A"), si(d.voltage, "V"), si(d.resistance, "Ω"),
-                 si(d.power, "W")});
-    }
-    t.print(out);
-  }
+  for_each_device_kind(
+      r, [&](const auto& records, const auto& report) { print_records(out, records, report); });
   if (!r.supplies.empty()) {
     out << '\n';
     TextTable t({"supply", "current", "power delivered"});
@@ -117,18 +110,16 @@ void write_csv(std::ostream& out, const BiasResult& r) {
   for (const auto& [name, v] : r.node_voltages)
     out << "v(" << name << ")," << csv_number(v) << '\n';
   for (const auto& [name, i] : r.element_currents) out << name << ',' << csv_number(i) << '\n';
-  for (const auto& q : r.bipolars) {
-    const Json figures = bipolar_json(q);
-    for (const auto& [key, value] : figures.items()) {
-      if (value.is_number()) out << q.name << '.' << key << ',' << csv_number(value) << '\n';
+  // Finite figures only, as in the JSON (where infinity is null).
+  for_each_device_kind(r, [&](const auto& records, const auto& report) {
+    for (const auto& point : records) {
+      for (const auto& f : report.figures) {
+        const double value = point.*f.value;
+        if (std::isfinite(value))
+          out << point.name << '.' << f.key << ',' << csv_number(value) << '\n';
+      }
     }
-  }
-  for (const auto& d : r.diodes) {
-    const Json figures = diode_json(d);
-    for (const auto& [key, value] : figures.items()) {
-      if (value.is_number()) out << d.name << '.' << key << ',' << csv_number(value) << '\n';
-    }
-  }
+  });
 }
 
 Json to_json(const SweepResult& r) {
