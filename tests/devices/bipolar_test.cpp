@@ -36,7 +36,7 @@ stage::BipolarOperatingPoint report(const BipolarModel& model, double vbe, doubl
   const auto x = bipolar_state(check, polarity, vbe, vbc);
   stage::mna::EvalRequest request;
   request.x = x.data();
-  stage::mna::OperatingPointReport out;
+  stage::BiasResult out;
   check.device().report(request, out);
   return out.bipolars.at(0);
 }

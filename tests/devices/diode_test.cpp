@@ -126,7 +126,7 @@ TEST(Diode, ReportThroughSeriesResistance) {
   const auto x = check.state({{"a", 0.7}, {"k", 0.0}}, [&](const std::string&) { return vj; });
   stage::mna::EvalRequest request;
   request.x = x.data();
-  stage::mna::OperatingPointReport out;
+  stage::BiasResult out;
   check.device().report(request, out);
   const auto& op = out.diodes.at(0);
   const double vt = thermal_voltage(stage::kRoomTemperature);

@@ -256,9 +256,8 @@ BiasResult describe_operating_point(const mna::System& system, const std::vector
   }
 
   const mna::EvalRequest at = system.request(x.data());
-  mna::OperatingPointReport report;
   for (const auto& device : system.devices()) {
-    device->report(at, report);
+    device->report(at, result);
     if (const auto current = device->reported_current(at)) {
       result.element_currents.emplace_back(device->name() + ".current", *current);
     }
@@ -267,9 +266,6 @@ BiasResult describe_operating_point(const mna::System& system, const std::vector
           {device->name(), source->delivered_current(at), source->delivered_power(at)});
     }
   }
-  result.bipolars = std::move(report.bipolars);
-  result.diodes = std::move(report.diodes);
-
   mna::Workspace w = system.make_workspace();
   system.evaluate(at, w);
   for (mna::Index i = 1; i <= system.size(); ++i) {

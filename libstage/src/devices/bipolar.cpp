@@ -172,7 +172,7 @@ class BipolarDevice final : public mna::Device {
   }
 
   std::optional<mna::Conduction> conduction(const mna::EvalRequest& at) const override {
-    mna::OperatingPointReport one;
+    BiasResult one;
     report(at, one);
     const BipolarOperatingPoint& op = one.bipolars.front();
     mna::Conduction c;
@@ -187,7 +187,7 @@ class BipolarDevice final : public mna::Device {
     return c;
   }
 
-  void report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const override {
+  void report(const mna::EvalRequest& at, BiasResult& out) const override {
     const BipolarParameters p = scale_bipolar(model_, area_, at.temperature);
     const auto x = scatter_.gather(at.x);
     const JunctionVoltages v = junction_voltages(pol_, x);

@@ -145,7 +145,7 @@ class DiodeDevice final : public mna::Device {
   }
 
   std::optional<mna::Conduction> conduction(const mna::EvalRequest& at) const override {
-    mna::OperatingPointReport one;
+    BiasResult one;
     report(at, one);
     const DiodeOperatingPoint& op = one.diodes.front();
     mna::Conduction c;
@@ -155,7 +155,7 @@ class DiodeDevice final : public mna::Device {
     return c;
   }
 
-  void report(const mna::EvalRequest& at, mna::OperatingPointReport& out) const override {
+  void report(const mna::EvalRequest& at, BiasResult& out) const override {
     const DiodeParameters p = scale(model_, area_, at.temperature);
     const auto x = scatter_.gather(at.x);
     const System s = local_system(p, x, x[kJunction] - x[kCathode]);

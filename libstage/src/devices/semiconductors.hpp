@@ -7,6 +7,7 @@
 #include <string>
 
 #include "mna/device.hpp"
+#include "stage/bias.hpp"
 #include "stage/errors.hpp"
 
 namespace stage::mna {

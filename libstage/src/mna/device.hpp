@@ -31,8 +31,11 @@
 #include <string>
 #include <vector>
 
-#include "stage/bias.hpp"
 #include "stage/circuit.hpp"
+
+namespace stage {
+struct BiasResult;
+}  // namespace stage
 
 namespace stage::mna {
 
@@ -70,11 +73,6 @@ struct EvalOutput {
   // model's equations hold (see ModelRangeFindings): cheap to test at every
   // accepted point, check_model_range then says which and why.
   bool beyond_model_range = false;
-};
-
-struct OperatingPointReport {
-  std::vector<BipolarOperatingPoint> bipolars;
-  std::vector<DiodeOperatingPoint> diodes;
 };
 
 // Where a solution lies against the range a device's model describes.
@@ -210,8 +208,9 @@ class Device {
     return std::nullopt;
   }
 
-  // A semiconductor's operating point at solution x, for bias reports.
-  virtual void report(const EvalRequest& /*at*/, OperatingPointReport& /*out*/) const {}
+  // A semiconductor's operating-point record at solution x, added to its
+  // kind's records in `out` (BiasResult::bipolars, ...).
+  virtual void report(const EvalRequest& /*at*/, BiasResult& /*out*/) const {}
 
   // Its conduction at solution x (see Conduction); nothing for kinds that
   // neither amplify nor steer the signal.
