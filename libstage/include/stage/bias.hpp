@@ -12,6 +12,7 @@
 #include "stage/analyses.hpp"
 #include "stage/circuit.hpp"
 #include "stage/progress.hpp"
+#include "stage/solver.hpp"
 
 namespace stage {
 
@@ -80,7 +81,7 @@ struct BiasResult {
 };
 
 // Throws NumericalError (naming nodes) if no operating point is found.
-BiasResult run_bias(const Circuit& circuit);
+BiasResult run_bias(const Circuit& circuit, const SolverOptions& solver = {});
 
 struct SweepPoint {
   double value = 0;
@@ -95,7 +96,7 @@ struct SweepResult {
 // Source and temperature sweeps. Parameter sweeps need the text's `let`
 // parameters: see run_parameter_sweep in stage/run.hpp.
 SweepResult run_sweep(const Circuit& circuit, const SweepOptions& options,
-                      const ProgressCallback& progress = {});
+                      const SolverOptions& solver = {}, const ProgressCallback& progress = {});
 
 std::string_view to_string(BiasMethod method);
 std::string_view to_string(Region region);

@@ -32,6 +32,7 @@
 #include "stage/circuit.hpp"
 #include "stage/progress.hpp"
 #include "stage/simulation.hpp"
+#include "stage/solver.hpp"
 
 namespace stage {
 
@@ -139,11 +140,13 @@ struct HeadroomResult {
 // source, unknown output, frequency not positive, limit not in (0, 1)),
 // NumericalError when a transient fails.
 HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& options,
+                            const SolverOptions& solver = {},
                             const ProgressCallback& progress = {});
 
 // The load-line estimate of a circuit with exactly one bipolar transistor,
 // at `frequency`; nothing for other circuits.
 std::optional<LoadLineEstimate> estimate_load_line(const Circuit& circuit, const BiasResult& bias,
-                                                   double frequency);
+                                                   double frequency,
+                                                   const SolverOptions& solver = {});
 
 }  // namespace stage

@@ -16,7 +16,7 @@
 
 #include "mna/sparse_lu.hpp"
 #include "mna/system.hpp"
-#include "stage/circuit.hpp"
+#include "stage/solver.hpp"
 
 namespace stage::analysis {
 

@@ -41,9 +41,9 @@ Circuit with_only_ac_input(const Circuit& circuit, const std::string& input) {
   return c;
 }
 
-double small_signal_gain(const Circuit& circuit, const std::string& input, const SignalRef& output,
-                         double frequency) {
-  Simulation simulation(with_only_ac_input(circuit, input));
+double small_signal_gain(const Circuit& circuit, const SolverOptions& solver,
+                         const std::string& input, const SignalRef& output, double frequency) {
+  Simulation simulation(with_only_ac_input(circuit, input), solver);
   return small_signal_gain(simulation, input, output, frequency);
 }
 
@@ -60,23 +60,22 @@ double small_signal_gain(Simulation& simulation, const std::string& input, const
   return std::pow(10.0, *r.figures.gain_at_dB / 20.0);
 }
 
-std::optional<double> impedance_without(const Circuit& circuit, const std::string& removed,
-                                        const std::string& a, const std::string& b,
-                                        double frequency) {
+std::optional<double> impedance_without(const Circuit& circuit, const SolverOptions& solver,
+                                        const std::string& removed, const std::string& a,
+                                        const std::string& b, double frequency) {
   if (a == b) return std::nullopt;
   constexpr const char* kProbe = "impedance_probe";
   // A unit AC current driven from b to a: the voltage that builds between
   // them is the impedance (small_signal_gain zeroes every other AC source).
   Circuit probe;
   probe.temperature = circuit.temperature;
-  probe.solver = circuit.solver;
   for (const auto& [name, model] : circuit.bipolar_models()) probe.add_model(name, model);
   for (const auto& [name, model] : circuit.diode_models()) probe.add_model(name, model);
   for (const Element& e : circuit.elements()) {
     if (e.name != removed) probe.add(e.name, e.data);
   }
   probe.add(kProbe, CurrentSource{b, a, 0.0, 1.0});
-  return small_signal_gain(probe, kProbe, SignalRef::pair(a, b), frequency);
+  return small_signal_gain(probe, solver, kProbe, SignalRef::pair(a, b), frequency);
 }
 
 std::vector<Rail> supply_rails(const Circuit& circuit, const std::string& input) {

@@ -307,7 +307,8 @@ std::optional<BipolarOperatingPoint> carrier(const mna::System& system, const Bi
   return best;
 }
 
-StageFacts stage_facts(const Circuit& circuit, const std::string& input, double frequency) {
+StageFacts stage_facts(const Circuit& circuit, const SolverOptions& solver,
+                       const std::string& input, double frequency) {
   StageFacts facts;
   facts.rails = analysis::supply_rails(circuit, input);
   // Nodes one resistor away from each node, for emitter resistors.
@@ -334,7 +335,7 @@ StageFacts stage_facts(const Circuit& circuit, const std::string& input, double 
     // grounded or taking it out floats a node).
     try {
       facts.emitter_impedance[e.name] =
-          analysis::impedance_without(circuit, e.name, q->emitter, kGround, frequency)
+          analysis::impedance_without(circuit, solver, e.name, q->emitter, kGround, frequency)
               .value_or(0.0);
     } catch (const NumericalError&) {
       facts.emitter_impedance[e.name] = 0;
@@ -371,11 +372,11 @@ std::optional<double> rail_drive_bound(const Circuit& circuit,
 }  // namespace
 
 HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& options,
-                            const ProgressCallback& progress) {
+                            const SolverOptions& solver, const ProgressCallback& progress) {
   if (auto p = validate(circuit, options)) {
     throw Error(ErrorKind::invalid_request, p->message, {p->subject});
   }
-  const analysis::SineDrive drive(analysis::with_only_ac_input(circuit, options.input),
+  const analysis::SineDrive drive(analysis::with_only_ac_input(circuit, options.input), solver,
                                   options.input, options.output, options.frequency);
   return analysis::headroom_search(circuit, drive, options, progress);
 }
@@ -399,7 +400,8 @@ HeadroomResult headroom_search(const Circuit& circuit, const SineDrive& drive,
   Search search(drive, options.distortion_limit, result.small_signal_gain, options.max_runs,
                 progress);
 
-  const StageFacts facts = stage_facts(circuit, options.input, options.frequency);
+  const SolverOptions& solver = drive.simulation().solver();
+  const StageFacts facts = stage_facts(circuit, solver, options.input, options.frequency);
   const auto& rails = facts.rails;
   double largest_rail = 1.0;
   for (const analysis::Rail& r : rails) largest_rail = std::max(largest_rail, std::abs(r.voltage));
@@ -557,7 +559,7 @@ HeadroomResult headroom_search(const Circuit& circuit, const SineDrive& drive,
   result.symmetric_peak_to_peak = 2 * symmetric;
   result.transient_runs = drive.runs();
   result.counters = drive.simulation().counters();
-  result.load_line = estimate_load_line(circuit, result.bias, options.frequency);
+  result.load_line = estimate_load_line(circuit, result.bias, options.frequency, solver);
   spdlog::debug("headroom: {} transient runs", result.transient_runs);
   return result;
 }

@@ -27,7 +27,7 @@ const Element* only_transistor(const Circuit& circuit) {
 }  // namespace
 
 std::optional<LoadLineEstimate> estimate_load_line(const Circuit& circuit, const BiasResult& bias,
-                                                   double frequency) {
+                                                   double frequency, const SolverOptions& solver) {
   const Element* transistor = only_transistor(circuit);
   if (transistor == nullptr) return std::nullopt;
   const auto& q = std::get<Bipolar>(transistor->data);
@@ -35,9 +35,9 @@ std::optional<LoadLineEstimate> estimate_load_line(const Circuit& circuit, const
 
   double ac_load = 0;
   try {
-    ac_load =
-        analysis::impedance_without(circuit, transistor->name, q.collector, q.emitter, frequency)
-            .value_or(0.0);
+    ac_load = analysis::impedance_without(circuit, solver, transistor->name, q.collector, q.emitter,
+                                          frequency)
+                  .value_or(0.0);
   } catch (const NumericalError&) {
     return std::nullopt;  // without the transistor a node floats: no load line to draw
   }
