@@ -77,16 +77,23 @@ TEST(Validate, ACircuitBuiltInCodeIsCheckedBeforeAnythingRuns) {
 TEST(Validate, SolverSettingsAreCheckedBeforeAnythingRuns) {
   EXPECT_FALSE(stage::validate(stage::SolverOptions{}).has_value());
   const Circuit c = stage::testing::follower_into_low_load();
-  for (double bad : {kNaN, kInf, -1.0, 0.0}) {
-    stage::SolverOptions s;
-    s.current_tolerance = bad;
-    const auto p = stage::validate(s);
-    ASSERT_TRUE(p.has_value()) << bad;
-    EXPECT_EQ(p->subject, "solver");
-    EXPECT_EQ(p->message, "solver: every tolerance must be positive and finite");
-    EXPECT_THROW(stage::Simulation(c, s), stage::Error);
-    EXPECT_THROW(stage::run_bias(c, s), stage::Error);
+  using Options = stage::SolverOptions;
+  for (double Options::*tolerance :
+       {&Options::relative_tolerance, &Options::voltage_tolerance, &Options::current_tolerance,
+        &Options::temperature_tolerance, &Options::heat_flow_tolerance}) {
+    for (double bad : {kNaN, kInf, -1.0, 0.0}) {
+      Options s;
+      s.*tolerance = bad;
+      const auto p = stage::validate(s);
+      ASSERT_TRUE(p.has_value()) << bad;
+      EXPECT_EQ(p->subject, "solver");
+      EXPECT_EQ(p->message, "solver: every tolerance must be positive and finite");
+    }
   }
+  stage::SolverOptions negative;
+  negative.current_tolerance = -1.0;
+  EXPECT_THROW(stage::Simulation(c, negative), stage::Error);
+  EXPECT_THROW(stage::run_bias(c, negative), stage::Error);
   stage::SolverOptions s;
   s.max_newton_iterations = 0;
   EXPECT_EQ(stage::validate(s)->message, "solver: max_newton_iterations must be at least 1");

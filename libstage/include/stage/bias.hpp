@@ -66,6 +66,9 @@ struct BiasResult {
   std::vector<std::pair<std::string, double>>
       node_voltages;  // circuit nodes, in order of appearance
   std::vector<std::pair<std::string, double>> element_currents;  // "<name>.current"
+  // K, "<name>.temperature": elements with a temperature of their own, which
+  // heat flows set (none of the language's kinds has one yet).
+  std::vector<std::pair<std::string, double>> element_temperatures;
   std::vector<BipolarOperatingPoint> bipolars;
   std::vector<DiodeOperatingPoint> diodes;
   std::vector<SupplyPower> supplies;
@@ -74,8 +77,9 @@ struct BiasResult {
   // names the device or node.
   std::vector<std::string> warnings;
 
-  double voltage(const std::string& node) const;     // throws std::out_of_range
-  double current(const std::string& element) const;  // element name, without ".current"
+  double voltage(const std::string& node) const;            // throws std::out_of_range
+  double current(const std::string& element) const;         // element name, without ".current"
+  double temperature_of(const std::string& element) const;  // its own, K; without ".temperature"
   const BipolarOperatingPoint& bipolar(const std::string& name) const;
   const DiodeOperatingPoint& diode(const std::string& name) const;
 };

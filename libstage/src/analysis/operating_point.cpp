@@ -8,8 +8,10 @@
 #include <algorithm>
 #include <cmath>
 #include <optional>
+#include <string_view>
 
 #include "analysis/model_range.hpp"
+#include "analysis/tolerances.hpp"
 #include "common/si_format.hpp"
 #include "stage/errors.hpp"
 
@@ -29,6 +31,26 @@ NewtonProblem dc_problem(const NewtonSolver& newton, double shunt, double source
   p.shunt = shunt;
   p.max_iterations = newton.options().max_newton_iterations;
   return p;
+}
+
+// What the row of an unknown of this kind says, for messages.
+std::string_view row_equation(mna::UnknownKind kind) {
+  switch (kind) {
+    case mna::UnknownKind::voltage:
+      return "KCL";
+    case mna::UnknownKind::current:
+      return "branch";
+    case mna::UnknownKind::temperature:
+      return "heat balance";
+  }
+  return "KCL";
+}
+
+// What to look for when an unknown of this kind runs away.
+std::string_view runaway_hint(mna::UnknownKind kind) {
+  return kind == mna::UnknownKind::temperature
+             ? "does heat flow in faster than anything can carry it away?"
+             : "does a source force a current or voltage that nothing in the circuit can carry?";
 }
 
 void reset_limiting(const mna::System& system) {
@@ -136,8 +158,7 @@ mna::Index runaway_unknown(const FailedAttempt& attempt) {
   }
   const mna::Index i = runaway_unknown(attempt);
   const std::string name = topology.name(i);
-  const std::string quantity =
-      topology.is_voltage(i) ? "the voltage at node '" + name + "'" : "the current " + name;
+  const std::string quantity = topology.description(i);
   const std::string how = std::isfinite(attempt.x[i]) && std::isfinite(attempt.update[i])
                               ? fmt::format("{} ran to {:.4g} (last change {:.3g})", quantity,
                                             attempt.x[i], attempt.update[i])
@@ -150,8 +171,8 @@ mna::Index runaway_unknown(const FailedAttempt& attempt) {
         fmt::format(" (the circuit solves with its sources at up to {:.3g} % of their values)",
                     100 * source_fraction);
   }
-  message += ". Elements at '" + name + "': " + text::joined(elements) +
-             " (does a source force a current or voltage that nothing in the circuit can carry?)";
+  message += ". Elements at '" + name + "': " + text::joined(elements) + " (" +
+             std::string(runaway_hint(topology.kind(i))) + ")";
   std::vector<std::string> involved{name};
   involved.insert(involved.end(), elements.begin(), elements.end());
   throw NumericalError(ErrorKind::no_convergence, message, involved);
@@ -165,8 +186,9 @@ std::vector<std::string> verify_operating_point(const mna::System& system,
   const auto& topology = system.topology();
   mna::Workspace w = system.make_workspace();
   system.evaluate(system.request(x.data()), w);
-  // KCL at every node (the branch equation elsewhere) against the tolerance
-  // Newton converged to: the absolute tolerance plus the relative tolerance
+  // KCL at every node (the branch equation on a branch current, the heat
+  // balance on a temperature) against the tolerance Newton converged to:
+  // the absolute tolerance of the row's kind plus the relative tolerance
   // times the size of the terms meeting in that row.
   std::vector<double> scale(x.size(), 0.0);
   const auto& pattern = system.pattern();
@@ -176,16 +198,16 @@ std::vector<std::string> verify_operating_point(const mna::System& system,
     }
   }
   for (mna::Index i = 1; i <= system.size(); ++i) {
-    const bool kcl = topology.is_voltage(i);
-    const double allowed = (kcl ? options.current_tolerance : options.voltage_tolerance) +
-                           options.relative_tolerance * scale[i];
+    const mna::UnknownKind kind = topology.kind(i);
+    const double allowed =
+        residual_tolerance(kind, options) + options.relative_tolerance * scale[i];
     if (!std::isfinite(x[i]) || !(std::abs(w.f[i]) <= allowed)) {
       const std::string name = topology.name(i);
       throw NumericalError(
           ErrorKind::no_convergence,
           fmt::format("the DC solution fails its check at '{}': value {:.4g}, {} residual {:.3g} "
                       "against an allowed {:.3g}",
-                      name, x[i], kcl ? "KCL" : "branch", w.f[i], allowed),
+                      name, x[i], row_equation(kind), w.f[i], allowed),
           {name});
     }
   }
@@ -250,8 +272,9 @@ BiasResult describe_operating_point(const mna::System& system, const std::vector
 
   const auto& topology = system.topology();
   for (mna::Index i = 1; i <= system.size(); ++i) {
-    if (topology.kind(i) == mna::Topology::Kind::node) {
-      result.node_voltages.emplace_back(topology.name(i), x[i]);
+    if (topology.is_circuit_node(i)) result.node_voltages.emplace_back(topology.name(i), x[i]);
+    if (topology.kind(i) == mna::UnknownKind::temperature) {
+      result.element_temperatures.emplace_back(topology.name(i), x[i]);
     }
   }
 
@@ -273,7 +296,7 @@ BiasResult describe_operating_point(const mna::System& system, const std::vector
   mna::Workspace w = system.make_workspace();
   system.evaluate(at, w);
   for (mna::Index i = 1; i <= system.size(); ++i) {
-    if (topology.is_voltage(i)) {
+    if (topology.kind(i) == mna::UnknownKind::voltage) {
       result.max_kcl_residual = std::max(result.max_kcl_residual, std::abs(w.f[i]));
     }
   }

@@ -11,7 +11,8 @@ std::optional<Problem> validate(const SolverOptions& s) {
   const auto bad = [](const std::string& why) {
     return std::optional<Problem>(Problem{"solver", "solver: " + why});
   };
-  for (double tolerance : {s.relative_tolerance, s.voltage_tolerance, s.current_tolerance}) {
+  for (double tolerance : {s.relative_tolerance, s.voltage_tolerance, s.current_tolerance,
+                           s.temperature_tolerance, s.heat_flow_tolerance}) {
     if (!(std::isfinite(tolerance) && tolerance > 0)) {
       return bad("every tolerance must be positive and finite");
     }
