@@ -29,7 +29,7 @@ struct NewtonProblem {
   double reactive_scale = 0;                 // a
   const double* reactive_history = nullptr;  // h, n + 1 entries (or null)
   double shunt = 0;
-  int max_iterations = 150;
+  int max_iterations = SolverOptions{}.max_newton_iterations;
 };
 
 // not_converged and diverged are recoverable (a homotopy step or a shorter

@@ -18,11 +18,42 @@
 namespace stage::analysis {
 namespace {
 
-constexpr double kFirstConductance = 1e-2;  // S; start of conductance stepping
-constexpr double kLargestConductance = 10;  // S; where a failing start gives up
-constexpr double kMaxStepRatio = 10;        // a decade per conductance step at most
+// Tuning of the homotopies: our own choices, each for the reason beside it.
+//
+// Conductance stepping (S unless said otherwise):
+// 100 ohm to ground at every node: the order of a stage's own resistors and
+// of a junction at a milliampere, so the first solve is nearly linear yet
+// close to the circuit's.
+constexpr double kFirstConductance = 1e-2;
+// 0.1 ohm at every node: a circuit that fails even so is not helped by more.
+constexpr double kLargestConductance = 10;
+// A decade per step at most, so each solve starts near the last solution.
+constexpr double kMaxStepRatio = 10;
+// Below a step ratio of 1 % the walk no longer gets anywhere: give up.
+constexpr double kSmallestStepRatio = 1.01;
+// The last conductance tried before it is removed when minimum_conductance
+// is 0, so that the descent ends: 1 Pohm, three decades below the default.
+constexpr double kSmallestConductance = 1e-15;
+//
+// Source stepping (fractions of every independent source's value):
+// The first step: small enough that every junction starts near off.
+constexpr double kFirstSourceStep = 0.1;
+// At least four steps from zero to full, each starting near the last.
+constexpr double kLargestSourceStep = 0.25;
+// After a success the step grows gently, after a failure it shrinks
+// sharply, so a hard stretch is not overshot again at once.
+constexpr double kSourceStepGrowth = 1.5;
+constexpr double kSourceStepShrink = 4;
+// A step this small moves nothing: the sources have met a fold, past which
+// the circuit has no solution.
+constexpr double kSmallestSourceStep = 1e-7;
+//
+// Either homotopy's solves at most: bounds its work however its steps go.
 constexpr int kMaxHomotopySteps = 400;
-constexpr double kNearlySingular = 1e-14;  // reciprocal condition: a warning below
+
+// A reciprocal condition below this is near double precision's rounding
+// (1e-16): the bias point is barely determined and its result says so.
+constexpr double kNearlySingular = 1e-14;
 
 NewtonProblem dc_problem(const NewtonSolver& newton, double shunt, double source_scale) {
   NewtonProblem p;
@@ -64,7 +95,7 @@ void reset_limiting(const mna::System& system) {
 // success starts again from a larger conductance, which makes the circuit
 // more nearly linear.
 bool conductance_stepping(NewtonSolver& newton, std::vector<double>& x, int& iterations) {
-  const double floor = std::max(newton.options().minimum_conductance, 1e-15);
+  const double floor = std::max(newton.options().minimum_conductance, kSmallestConductance);
   std::vector<double> good = x;
   std::optional<double> good_shunt;
   double shunt = kFirstConductance, factor = kMaxStepRatio;
@@ -89,7 +120,7 @@ bool conductance_stepping(NewtonSolver& newton, std::vector<double>& x, int& ite
       continue;
     }
     factor = std::sqrt(factor);
-    if (factor < 1.01) return false;
+    if (factor < kSmallestStepRatio) return false;
     shunt = std::max(*good_shunt / factor, floor);
   }
   return false;
@@ -102,7 +133,7 @@ bool source_stepping(NewtonSolver& newton, std::vector<double>& x, int& iteratio
   std::fill(x.begin(), x.end(), 0.0);
   reset_limiting(newton.system());
   std::vector<double> good = x;
-  double scale = 0.0, step = 0.1;
+  double scale = 0.0, step = kFirstSourceStep;
   for (int k = 0; k < kMaxHomotopySteps; ++k) {
     const double target = std::min(1.0, scale + step);
     const auto outcome = newton.solve(x, dc_problem(newton, 0.0, target));
@@ -113,12 +144,12 @@ bool source_stepping(NewtonSolver& newton, std::vector<double>& x, int& iteratio
       good = x;
       scale = reached = target;
       if (scale >= 1.0) return true;
-      step = std::min(0.25, step * 1.5);
+      step = std::min(kLargestSourceStep, step * kSourceStepGrowth);
     } else {
       x = good;
       reset_limiting(newton.system());
-      step /= 4.0;
-      if (step < 1e-7) return false;
+      step /= kSourceStepShrink;
+      if (step < kSmallestSourceStep) return false;
     }
   }
   return false;
