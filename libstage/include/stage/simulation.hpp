@@ -70,7 +70,8 @@ class Simulation {
   // Takes every element value of `other` when it is this circuit with only
   // such values changed (the same elements, nodes, models and waveforms, as
   // a `let` parameter of element values gives) and returns true; otherwise
-  // changes nothing and returns false (build a new Simulation).
+  // changes nothing and returns false (build a new Simulation). The solver
+  // settings stay this simulation's: a circuit carries none.
   bool take_values_from(const Circuit& other);
 
   SimulationCounters counters() const;
