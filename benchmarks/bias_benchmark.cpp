@@ -60,7 +60,7 @@ stage::Circuit generate(int kind, int transistors) {
 void BM_BiasFromZero(benchmark::State& state) {
   const auto circuit = generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
   stage::mna::System system = stage::assemble(circuit);
-  stage::analysis::NewtonSolver newton(system, circuit.solver);
+  stage::analysis::NewtonSolver newton(system, stage::SolverOptions{});
   std::vector<double> x(static_cast<std::size_t>(system.size()) + 1);
   int iterations = 0;
   for (auto _ : state) {
@@ -79,7 +79,7 @@ void BM_BiasFromZero(benchmark::State& state) {
 void BM_DeviceEvaluation(benchmark::State& state) {
   const auto circuit = generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
   stage::mna::System system = stage::assemble(circuit);
-  stage::analysis::NewtonSolver newton(system, circuit.solver);
+  stage::analysis::NewtonSolver newton(system, stage::SolverOptions{});
   std::vector<double> x(static_cast<std::size_t>(system.size()) + 1, 0.0);
   stage::analysis::solve_operating_point(newton, x);
   auto w = system.make_workspace();
@@ -95,7 +95,7 @@ void BM_DeviceEvaluation(benchmark::State& state) {
 void BM_RefactorSolve(benchmark::State& state) {
   const auto circuit = generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
   stage::mna::System system = stage::assemble(circuit);
-  stage::analysis::NewtonSolver newton(system, circuit.solver);
+  stage::analysis::NewtonSolver newton(system, stage::SolverOptions{});
   std::vector<double> x(static_cast<std::size_t>(system.size()) + 1, 0.0);
   stage::analysis::solve_operating_point(newton, x);
   stage::benchmarks::time_refactor_solve(state, system, x);

@@ -61,7 +61,7 @@ void BM_OperatingPoint(benchmark::State& state) {
   stage::mna::System system = stage::assemble(circuit);
   std::vector<double> x(static_cast<std::size_t>(system.size()) + 1);
   for (auto _ : state) {
-    stage::analysis::NewtonSolver newton(system, circuit.solver);
+    stage::analysis::NewtonSolver newton(system, stage::SolverOptions{});
     std::fill(x.begin(), x.end(), 0.0);
     benchmark::DoNotOptimize(stage::analysis::solve_operating_point(newton, x));
   }

@@ -71,7 +71,7 @@ void BM_BiasOnly(benchmark::State& state) {
 void BM_ComplexFactorSolve(benchmark::State& state) {
   const auto circuit = coupled_followers(static_cast<int>(state.range(0)));
   stage::mna::System system = stage::assemble(circuit);
-  stage::analysis::NewtonSolver newton(system, circuit.solver);
+  stage::analysis::NewtonSolver newton(system, stage::SolverOptions{});
   std::vector<double> x(static_cast<std::size_t>(system.size()) + 1, 0.0);
   stage::analysis::solve_operating_point(newton, x);
   stage::analysis::SmallSignalSystem linear(system, x);

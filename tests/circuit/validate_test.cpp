@@ -71,6 +71,55 @@ TEST(Validate, ACircuitBuiltInCodeIsCheckedBeforeAnythingRuns) {
   EXPECT_THROW(stage::run_bias(c), stage::Error);
 }
 
+// Solver settings travel beside the circuit, held to their own rules by the
+// same path: a prepared simulation and a one-shot run refuse them before
+// anything runs, naming "solver".
+TEST(Validate, SolverSettingsAreCheckedBeforeAnythingRuns) {
+  EXPECT_FALSE(stage::validate(stage::SolverOptions{}).has_value());
+  const Circuit c = stage::testing::follower_into_low_load();
+  using Options = stage::SolverOptions;
+  for (double Options::*tolerance :
+       {&Options::relative_tolerance, &Options::voltage_tolerance, &Options::current_tolerance,
+        &Options::temperature_tolerance, &Options::heat_flow_tolerance}) {
+    for (double bad : {kNaN, kInf, -1.0, 0.0}) {
+      Options s;
+      s.*tolerance = bad;
+      const auto p = stage::validate(s);
+      ASSERT_TRUE(p.has_value()) << bad;
+      EXPECT_EQ(p->subject, "solver");
+      EXPECT_EQ(p->message, "solver: every tolerance must be positive and finite");
+    }
+  }
+  stage::SolverOptions negative;
+  negative.current_tolerance = -1.0;
+  EXPECT_THROW(stage::Simulation(c, negative), stage::Error);
+  EXPECT_THROW(stage::run_bias(c, negative), stage::Error);
+  stage::SolverOptions s;
+  s.max_newton_iterations = 0;
+  EXPECT_EQ(stage::validate(s)->message, "solver: max_newton_iterations must be at least 1");
+  s = {};
+  s.minimum_conductance = kInf;
+  EXPECT_EQ(stage::validate(s)->subject, "solver");
+}
+
+// The reader refuses such values at the statement; settings changed in a
+// deck after reading are refused by the check before anything runs, in the
+// file (they have no single line).
+TEST(Validate, DeckSolverSettingsAreCheckedWithTheDeck) {
+  stage::Deck deck = stage::read_text(
+      "vin = voltage(in, gnd, 1 V)\nr1 = resistor(in, gnd, 1k)\nanalyze bias()\n", "solver.stage");
+  deck.solver.relative_tolerance = kNaN;
+  try {
+    stage::check_deck(deck);
+    ADD_FAILURE() << "a relative tolerance that is not a number passed the check";
+  } catch (const stage::InputError& e) {
+    EXPECT_EQ(e.message(), "solver: every tolerance must be positive and finite");
+    EXPECT_EQ(e.where().file, "solver.stage");
+    EXPECT_EQ(e.where().line, 0);
+  }
+  EXPECT_THROW(stage::run_deck(deck), stage::InputError);
+}
+
 TEST(Validate, AnalysisOptionsAreCheckedForEveryRun) {
   const Circuit c = stage::testing::follower_into_low_load();
   stage::HeadroomOptions h;

@@ -53,7 +53,7 @@ class DerivativeCheck {
       x[*index] = value;
     }
     for (int i = 1; i <= size(); ++i) {
-      if (internal && topology_.kind(i) == mna::Topology::Kind::internal_node) {
+      if (internal && topology_.is_internal_node(i)) {
         x[i] = internal(topology_.name(i));
       }
     }

@@ -4,7 +4,7 @@
 // very unequal sizes directly across a stiff source, a latch held set, and a
 // transistor biased through a 10 Gohm base resistor. The solver's junction
 // limiting makes plain Newton succeed on each of them in 13 to 17 iterations
-// at the default limit of 150, so each test lowers `solver.max_newton_iterations`
+// at the default limit of 150, so each test lowers `max_newton_iterations`
 // to 12 (a fair way to force the fallback) and first checks, with the default
 // limit, that plain Newton really needs more than 12. Each then checks that a
 // fallback was used, that KCL holds, and one physical figure worked by hand.
@@ -35,13 +35,14 @@ void print(const char* what, const stage::BiasResult& r) {
 // more than kLoweredLimit iterations: otherwise the lowered limit would not
 // force a fallback and the test would prove nothing), then with the lowered
 // limit, and returns that second result.
-stage::BiasResult bias_with_lowered_limit(Circuit c, const char* what) {
+stage::BiasResult bias_with_lowered_limit(const Circuit& c, const char* what) {
   const stage::BiasResult plain = stage::run_bias(c);
   print(what, plain);
   EXPECT_EQ(plain.method, BiasMethod::newton) << what;
   EXPECT_GT(plain.newton_iterations, kLoweredLimit) << what;
-  c.solver.max_newton_iterations = kLoweredLimit;
-  const stage::BiasResult r = stage::run_bias(c);
+  stage::SolverOptions lowered;
+  lowered.max_newton_iterations = kLoweredLimit;
+  const stage::BiasResult r = stage::run_bias(c, lowered);
   print(what, r);
   return r;
 }

@@ -13,11 +13,11 @@ TEST(Statements, TitleTemperatureSolver) {
       "       current_tolerance = 1 pA, max_newton_iterations = 80, integration = bdf2)\n");
   EXPECT_EQ(deck.circuit.title, "Headphone driver");
   EXPECT_DOUBLE_EQ(deck.circuit.temperature, 323.15);  // 50 + 273.15
-  EXPECT_DOUBLE_EQ(deck.circuit.solver.relative_tolerance, 1e-5);
-  EXPECT_DOUBLE_EQ(deck.circuit.solver.voltage_tolerance, 2e-6);
-  EXPECT_DOUBLE_EQ(deck.circuit.solver.current_tolerance, 1e-12);
-  EXPECT_EQ(deck.circuit.solver.max_newton_iterations, 80);
-  EXPECT_EQ(deck.circuit.solver.integration, Integration::bdf2);
+  EXPECT_DOUBLE_EQ(deck.solver.relative_tolerance, 1e-5);
+  EXPECT_DOUBLE_EQ(deck.solver.voltage_tolerance, 2e-6);
+  EXPECT_DOUBLE_EQ(deck.solver.current_tolerance, 1e-12);
+  EXPECT_EQ(deck.solver.max_newton_iterations, 80);
+  EXPECT_EQ(deck.solver.integration, Integration::bdf2);
 }
 
 TEST(Statements, SourcesAndWaves) {

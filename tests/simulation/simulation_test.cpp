@@ -13,6 +13,8 @@
 #include "stage/characterize.hpp"
 #include "stage/errors.hpp"
 #include "stage/headroom.hpp"
+#include "stage/reader.hpp"
+#include "stage/run.hpp"
 
 namespace {
 
@@ -179,6 +181,34 @@ TEST(Simulation, TakesValuesFromACircuitOfTheSameStructure) {
   rewired.find("re")->data = stage::Resistor{"emitter", "vcc", 470.0};
   EXPECT_FALSE(simulation.take_values_from(rewired));
   EXPECT_EQ(simulation.counters().systems_built, 1);
+}
+
+// Solver settings are the simulation's, not the circuit's: given at
+// construction they serve every analysis run on it, and a deck's
+// `solver(...)` statement reaches the runs of its analyses. The integration
+// method a transient reports is the one it was given.
+TEST(Simulation, SolverSettingsServeEveryRun) {
+  const Circuit c = stage::testing::follower_into_low_load();
+  stage::SolverOptions solver;
+  solver.integration = stage::Integration::bdf2;
+  stage::Simulation simulation(c, solver);
+  EXPECT_EQ(simulation.solver().integration, stage::Integration::bdf2);
+  EXPECT_EQ(simulation.transient(two_periods()).integration, stage::Integration::bdf2);
+  EXPECT_EQ(stage::run_transient(c, two_periods(), solver).integration, stage::Integration::bdf2);
+  EXPECT_EQ(stage::run_transient(c, two_periods()).integration, stage::Integration::tr_bdf2);
+
+  const std::string text =
+      "vin = voltage(in, gnd, 1 V)\nr1 = resistor(in, out, 1k)\n"
+      "c1 = capacitor(out, gnd, 1 uF)\nanalyze transient(stop = 1 ms)\n";
+  for (const auto& [statement, method] :
+       {std::pair{"", stage::Integration::tr_bdf2},
+        std::pair{"solver(integration = trapezoidal)\n", stage::Integration::trapezoidal}}) {
+    const stage::Deck deck = stage::read_text(statement + text, "rc.stage");
+    const stage::RunResult run = stage::run_deck(deck);
+    ASSERT_EQ(run.analyses.size(), 1u);
+    EXPECT_EQ(std::get<stage::TransientResult>(run.analyses.front()).integration, method)
+        << statement;
+  }
 }
 
 }  // namespace

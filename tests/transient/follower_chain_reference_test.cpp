@@ -95,13 +95,14 @@ TEST_P(FollowerChainReference, EveryNodeAgreesWithDormandPrince) {
   npn.beta_forward = kBf;
   npn.beta_reverse = kBr;
   Circuit c = follower_chain(kStages, npn, kAmplitude);
-  c.solver.integration = GetParam();
-  c.solver.relative_tolerance = 1e-9;
-  c.solver.voltage_tolerance = 1e-9;
+  stage::SolverOptions solver;
+  solver.integration = GetParam();
+  solver.relative_tolerance = 1e-9;
+  solver.voltage_tolerance = 1e-9;
   TransientOptions o;
   o.stop = 3 / kChainFrequency;
   o.max_step = 1 / (100 * kChainFrequency);
-  const TransientResult r = stage::run_transient(c, o);
+  const TransientResult r = stage::run_transient(c, o, solver);
 
   const EbersMoll q{kIs, kBf, kBr, thermal_voltage(c.temperature)};
   Eigen::VectorXd v = Eigen::VectorXd::Constant(2 * kStages + 1, kChainSupply / 2);

@@ -90,9 +90,10 @@ TEST(FollowerReference, ClippedOutputAgreesWithDormandPrince) {
   // not the integrator, is what would break the check. The relative
   // tolerance serves both the charges' local error and the Newton
   // convergence test; 1 uV and 1 pA are the absolute floors (the defaults).
-  c.solver.relative_tolerance = 1e-6;
-  c.solver.voltage_tolerance = 1e-6;
-  c.solver.current_tolerance = 1e-12;
+  stage::SolverOptions solver;
+  solver.relative_tolerance = 1e-6;
+  solver.voltage_tolerance = 1e-6;
+  solver.current_tolerance = 1e-12;
   stage::TransientOptions o;
   o.stop = 5 / kF;
   // At most 1/200 of a period per step (1.8 degrees of the sine). The
@@ -101,7 +102,7 @@ TEST(FollowerReference, ClippedOutputAgreesWithDormandPrince) {
   // where the capacitor currents only bend, is resolved to that angle: the
   // error estimate, which watches the charges, does not see the knee itself.
   o.max_step = 1 / (200 * kF);
-  const auto r = stage::run_transient(c, o);
+  const auto r = stage::run_transient(c, o, solver);
 
   // The run starts from the bias point with the source at zero: capacitors
   // open, so vcin = -v(base) and vcout = v(e).

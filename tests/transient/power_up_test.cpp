@@ -55,12 +55,10 @@ stage::Circuit powered_followers() {
 }
 
 stage::TransientResult power_up(Integration integration) {
-  stage::Circuit c = powered_followers();
-  c.solver.integration = integration;
   stage::TransientOptions o;
   o.stop = 20e-3;
   o.start = stage::TransientStart::zero;
-  return stage::run_transient(c, o);
+  return stage::run_transient(powered_followers(), o, stage::testing::solver(integration));
 }
 
 TEST_P(PowerUp, FollowersFromZeroSettleOnTheirBiasPoint) {

@@ -39,8 +39,7 @@ class FirstOrder : public ::testing::TestWithParam<stage::Integration> {};
 // 0.04 % of it.
 TEST_P(FirstOrder, RcChargesAlongItsExponential) {
   auto c = rc(std::nullopt, kV);
-  c.solver.integration = GetParam();
-  const auto r = stage::run_transient(c, zero_start(5 * kTau));
+  const auto r = stage::run_transient(c, zero_start(5 * kTau), stage::testing::solver(GetParam()));
   EXPECT_LT(max_error(r, "out", [](double t) { return kV * (1 - std::exp(-t / kTau)); }), 2e-3);
   // The source delivers (V - v)/R: V/R e^{-t/RC}.
   EXPECT_LT(max_error(r, "v1.current", [](double t) { return kV / kR * std::exp(-t / kTau); }),
@@ -51,8 +50,7 @@ TEST_P(FirstOrder, RcChargesAlongItsExponential) {
 // Discharging from initial = 3 V into a 0 V source: v(t) = 3 e^{-t/RC}.
 TEST_P(FirstOrder, RcDischargesFromItsInitialVoltage) {
   auto c = rc(3.0, 0.0);
-  c.solver.integration = GetParam();
-  const auto r = stage::run_transient(c, zero_start(5 * kTau));
+  const auto r = stage::run_transient(c, zero_start(5 * kTau), stage::testing::solver(GetParam()));
   // Held by the consistent start, whose two steps of tau = 1e-9 of the run
   // move the charge by 2 tau v' (transient_start.cpp):
   // 2 * 1e-9 * 5 ms * 3 V / 1 ms = 3e-8 V.
@@ -64,11 +62,10 @@ TEST_P(FirstOrder, RcDischargesFromItsInitialVoltage) {
 TEST_P(FirstOrder, RlCurrentRisesAlongItsExponential) {
   constexpr double kL = 10e-3, kTauL = kL / kR;  // 10 us
   stage::Circuit c;
-  c.solver.integration = GetParam();
   c.add("v1", stage::VoltageSource{"in", "gnd", kV});
   c.add("r1", stage::Resistor{"in", "mid", kR});
   c.add("l1", stage::Inductor{"mid", "gnd", kL, std::nullopt});
-  const auto r = stage::run_transient(c, zero_start(5 * kTauL));
+  const auto r = stage::run_transient(c, zero_start(5 * kTauL), stage::testing::solver(GetParam()));
   const double full = kV / kR;
   EXPECT_LT(max_error(r, "l1.current", [&](double t) { return full * (1 - std::exp(-t / kTauL)); }),
             4e-4 * full);
@@ -78,10 +75,9 @@ TEST_P(FirstOrder, RlCurrentRisesAlongItsExponential) {
 // is a steady state; the RC sits at V).
 TEST_P(FirstOrder, BiasStartIsSteady) {
   auto c = rc(std::nullopt, kV);
-  c.solver.integration = GetParam();
   stage::TransientOptions o;
   o.stop = 2 * kTau;
-  const auto r = stage::run_transient(c, o);
+  const auto r = stage::run_transient(c, o, stage::testing::solver(GetParam()));
   EXPECT_LT(max_error(r, "out", [](double) { return kV; }), 1e-9);
 }
 
@@ -90,12 +86,11 @@ TEST_P(FirstOrder, BiasStartIsSteady) {
 // response to the ramp differs from the step's by at most V rise / (2 RC)).
 TEST_P(FirstOrder, PulseCornersAreLandedOn) {
   stage::Circuit c = rc(std::nullopt, 0.0);
-  c.solver.integration = GetParam();
   auto& source = std::get<stage::VoltageSource>(c.find("v1")->data);
   source.wave = stage::PulseWave{0.0, kV, 1e-3, 1e-9, 1e-9, 1.0, 2.0};
   stage::TransientOptions o;
   o.stop = 6e-3;
-  const auto r = stage::run_transient(c, o);
+  const auto r = stage::run_transient(c, o, stage::testing::solver(GetParam()));
   EXPECT_NE(std::find(r.time.begin(), r.time.end(), 1e-3), r.time.end());
   EXPECT_NE(std::find(r.time.begin(), r.time.end(), 1e-3 + 1e-9), r.time.end());
   const auto exact = [](double t) {

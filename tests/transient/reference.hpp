@@ -1,6 +1,6 @@
-// Helpers shared by the transient tests: the largest deviation of a
-// simulated signal from an exact solution, and the Fourier series of a
-// symmetrically clipped sine.
+// Helpers shared by the transient tests: solver settings by method and
+// tolerance, the largest deviation of a simulated signal from an exact
+// solution, and the Fourier series of a symmetrically clipped sine.
 #pragma once
 
 #include <gtest/gtest.h>
@@ -14,6 +14,16 @@
 #include "stage/transient.hpp"
 
 namespace stage::testing {
+
+// The default solver settings with this integration method and relative
+// tolerance.
+inline SolverOptions solver(Integration integration,
+                            double relative_tolerance = SolverOptions{}.relative_tolerance) {
+  SolverOptions s;
+  s.integration = integration;
+  s.relative_tolerance = relative_tolerance;
+  return s;
+}
 
 // max over the samples of |signal(t) - exact(t)|.
 inline double max_error(const TransientResult& r, const std::string& signal,

@@ -17,10 +17,8 @@ using stage::testing::max_error;
 
 constexpr double kV = 1.0, kL = 10e-3, kC = 1e-6;  // w0 = 1/sqrt(LC) = 1e4 rad/s
 
-stage::Circuit series_rlc(double r, stage::Integration integration) {
+stage::Circuit series_rlc(double r) {
   stage::Circuit c;
-  c.solver.integration = integration;
-  c.solver.relative_tolerance = 1e-5;
   c.add("v1", stage::VoltageSource{"in", "gnd", kV});
   c.add("r1", stage::Resistor{"in", "a", r});
   c.add("l1", stage::Inductor{"a", "b", kL, std::nullopt});
@@ -28,11 +26,12 @@ stage::Circuit series_rlc(double r, stage::Integration integration) {
   return c;
 }
 
-stage::TransientResult step_response(const stage::Circuit& c, double stop) {
+stage::TransientResult step_response(const stage::Circuit& c, double stop,
+                                     stage::Integration integration) {
   stage::TransientOptions o;
   o.stop = stop;
   o.start = stage::TransientStart::zero;
-  return stage::run_transient(c, o);
+  return stage::run_transient(c, o, stage::testing::solver(integration, 1e-5));
 }
 
 class SeriesRlc : public ::testing::TestWithParam<stage::Integration> {};
@@ -46,7 +45,7 @@ class SeriesRlc : public ::testing::TestWithParam<stage::Integration> {};
 // adds to the ringing's error); the bound is 0.2 % of V.
 TEST_P(SeriesRlc, UnderdampedStep) {
   const double alpha = 1e3, w0 = 1e4, wd = std::sqrt(w0 * w0 - alpha * alpha);
-  const auto r = step_response(series_rlc(20.0, GetParam()), 5e-3);
+  const auto r = step_response(series_rlc(20.0), 5e-3, GetParam());
   const auto exact = [&](double t) {
     return kV * (1 - std::exp(-alpha * t) * (std::cos(wd * t) + alpha / wd * std::sin(wd * t)));
   };
@@ -58,7 +57,7 @@ TEST_P(SeriesRlc, UnderdampedStep) {
 TEST_P(SeriesRlc, OverdampedStep) {
   const double alpha = 5e4, w0 = 1e4, root = std::sqrt(alpha * alpha - w0 * w0);
   const double s1 = -alpha + root, s2 = -alpha - root;
-  const auto r = step_response(series_rlc(1e3, GetParam()), 5.0 / -s1);
+  const auto r = step_response(series_rlc(1e3), 5.0 / -s1, GetParam());
   const auto exact = [&](double t) {
     return kV * (1 + (s2 * std::exp(s1 * t) - s1 * std::exp(s2 * t)) / (s1 - s2));
   };
@@ -80,14 +79,13 @@ struct Tank {
 
   explicit Tank(stage::Integration integration) {
     stage::Circuit circuit;
-    circuit.solver.integration = integration;
     circuit.add("c1", stage::Capacitor{"top", "gnd", c, 1.0});
     circuit.add("l1", stage::Inductor{"top", "gnd", l, std::nullopt});
     stage::TransientOptions o;
     o.stop = 100 * period;
     o.max_step = step;
     o.start = stage::TransientStart::zero;
-    result = stage::run_transient(circuit, o);
+    result = stage::run_transient(circuit, o, stage::testing::solver(integration));
   }
   // sqrt(2 E / C) with E = C v^2/2 + L i^2/2: the amplitude of the voltage.
   double amplitude(std::size_t k) const {

@@ -12,15 +12,15 @@ namespace {
 
 constexpr double kTau = 1e-3, kV = 5.0;
 
-stage::Circuit rc(stage::Integration integration, double tolerance) {
+stage::Circuit rc() {
   stage::Circuit c;
-  c.solver.integration = integration;
-  c.solver.relative_tolerance = tolerance;
   c.add("v1", stage::VoltageSource{"in", "gnd", kV});
   c.add("r1", stage::Resistor{"in", "out", 1e3});
   c.add("c1", stage::Capacitor{"out", "gnd", 1e-6});
   return c;
 }
+
+using stage::testing::solver;
 
 class StepControl : public ::testing::TestWithParam<stage::Integration> {};
 
@@ -38,8 +38,8 @@ TEST_P(StepControl, ErrorFollowsTheToleranceAsTheOrderPredicts) {
   const auto exact = [](double t) { return kV * (1 - std::exp(-t / kTau)); };
   std::vector<double> errors;
   for (double tolerance = 1e-4; tolerance > 5e-6; tolerance /= 2) {
-    errors.push_back(stage::testing::max_error(stage::run_transient(rc(GetParam(), tolerance), o),
-                                               "out", exact));
+    errors.push_back(stage::testing::max_error(
+        stage::run_transient(rc(), o, solver(GetParam(), tolerance)), "out", exact));
   }
   ASSERT_EQ(errors.size(), 5u);
   for (std::size_t k = 1; k < errors.size(); ++k) {
@@ -60,7 +60,7 @@ TEST_P(StepControl, LinearConstantStepNeverRefactors) {
     stage::TransientOptions o;
     o.stop = stop;
     o.max_step = kTau / 100;
-    return stage::run_transient(rc(GetParam(), 1e-3), o);
+    return stage::run_transient(rc(), o, solver(GetParam(), 1e-3));
   };
   const auto short_run = run(kTau), long_run = run(10 * kTau);
   EXPECT_GT(long_run.accepted_steps, short_run.accepted_steps + 800);
@@ -83,7 +83,7 @@ TEST(Resample, UniformGridThroughQuadraticInterpolation) {
   o.stop = 5 * kTau;
   o.resample_step = kTau / 10;
   o.start = stage::TransientStart::zero;
-  const auto r = stage::run_transient(rc(stage::Integration::trapezoidal, 1e-5), o);
+  const auto r = stage::run_transient(rc(), o, solver(stage::Integration::trapezoidal, 1e-5));
   ASSERT_EQ(r.time.size(), 51u);
   EXPECT_DOUBLE_EQ(r.time[10], kTau);
   EXPECT_EQ(r.signal("out").size(), 51u);

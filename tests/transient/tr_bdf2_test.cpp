@@ -32,14 +32,12 @@ double largest_difference(const stage::TransientResult& a, const stage::Transien
 // A run whose step is max_step from the first steps on: a tolerance so
 // loose the error test never limits it, and a linear circuit, which Newton
 // solves exactly. Every step then scales with max_step.
-stage::TransientResult fixed_steps(stage::Circuit c, double stop, double max_step) {
-  c.solver.integration = Integration::tr_bdf2;
-  c.solver.relative_tolerance = 1.0;
+stage::TransientResult fixed_steps(const stage::Circuit& c, double stop, double max_step) {
   stage::TransientOptions o;
   o.stop = stop;
   o.max_step = max_step;
   o.start = stage::TransientStart::zero;
-  return stage::run_transient(c, o);
+  return stage::run_transient(c, o, stage::testing::solver(Integration::tr_bdf2, 1.0));
 }
 
 // Observed order log2(e(h) / e(h/2)) over three halvings.
@@ -105,10 +103,8 @@ TEST(TrBdf2, TwentyFollowerChainAgreesWithBdf2) {
   o.max_step = 10e-6;
   o.signals = {stage::SignalRef::node("out")};
   const auto run = [&](Integration method, double tolerance) {
-    stage::Circuit c = stage::testing::follower_chain(20);
-    c.solver.integration = method;
-    c.solver.relative_tolerance = tolerance;
-    return stage::run_transient(c, o);
+    return stage::run_transient(stage::testing::follower_chain(20), o,
+                                stage::testing::solver(method, tolerance));
   };
   const auto tr_bdf2 = run(Integration::tr_bdf2, 1e-7), bdf2 = run(Integration::bdf2, 1e-7);
   const double difference = largest_difference(tr_bdf2, bdf2, "out");
@@ -144,10 +140,9 @@ TEST(TrBdf2, FollowerWithoutBaseResistanceAtATinyStep) {
   o.max_step = 0.2e-9;
   const auto tiny = stage::run_transient(c, o);
   EXPECT_EQ(tiny.rejected_steps, 0);
-  c.solver.integration = Integration::bdf2;
-  c.solver.relative_tolerance = 1e-7;
   o.max_step = 0;
-  const auto reference = stage::run_transient(c, o);
+  const auto reference =
+      stage::run_transient(c, o, stage::testing::solver(Integration::bdf2, 1e-7));
   const auto& out = reference.signal("out");
   const double peak = std::max(std::abs(*std::min_element(out.begin(), out.end())),
                                std::abs(*std::max_element(out.begin(), out.end())));
@@ -176,13 +171,11 @@ TEST(TrBdf2, TrapezoidalRingingIsDetectedAndDamped) {
   o.stop = 3e-3;
   o.max_step = 1e-5;
   o.signals = {stage::SignalRef::node("a")};
-  c.solver.integration = Integration::trapezoidal;
-  c.solver.relative_tolerance = 1e-6;
-  const auto trapezoidal = stage::run_transient(c, o);
+  const auto trapezoidal =
+      stage::run_transient(c, o, stage::testing::solver(Integration::trapezoidal, 1e-6));
   EXPECT_GT(trapezoidal.damped_steps, 0);
-  c.solver.integration = Integration::tr_bdf2;
-  c.solver.relative_tolerance = 1e-7;
-  const auto reference = stage::run_transient(c, o);
+  const auto reference =
+      stage::run_transient(c, o, stage::testing::solver(Integration::tr_bdf2, 1e-7));
   const double difference = largest_difference(trapezoidal, reference, "a");
   RecordProperty("difference_V", std::to_string(difference));
   RecordProperty("damped_steps", trapezoidal.damped_steps);

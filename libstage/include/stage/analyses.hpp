@@ -41,7 +41,8 @@ struct TransientOptions {
   double from = 0;      // results are kept from this time on
   TransientStart start = TransientStart::bias;
   std::optional<double> resample_step;  // resample onto a uniform grid
-  std::vector<SignalRef> signals;       // empty: every node voltage and reported current
+  // Empty: every node voltage, reported current and element temperature.
+  std::vector<SignalRef> signals;
 };
 
 struct SpectrumOptions {

@@ -12,6 +12,7 @@
 #include "stage/analyses.hpp"
 #include "stage/circuit.hpp"
 #include "stage/progress.hpp"
+#include "stage/solver.hpp"
 
 namespace stage {
 
@@ -65,6 +66,9 @@ struct BiasResult {
   std::vector<std::pair<std::string, double>>
       node_voltages;  // circuit nodes, in order of appearance
   std::vector<std::pair<std::string, double>> element_currents;  // "<name>.current"
+  // K, "<name>.temperature": elements with a temperature of their own, which
+  // heat flows set (none of the language's kinds has one yet).
+  std::vector<std::pair<std::string, double>> element_temperatures;
   std::vector<BipolarOperatingPoint> bipolars;
   std::vector<DiodeOperatingPoint> diodes;
   std::vector<SupplyPower> supplies;
@@ -73,14 +77,15 @@ struct BiasResult {
   // names the device or node.
   std::vector<std::string> warnings;
 
-  double voltage(const std::string& node) const;     // throws std::out_of_range
-  double current(const std::string& element) const;  // element name, without ".current"
+  double voltage(const std::string& node) const;            // throws std::out_of_range
+  double current(const std::string& element) const;         // element name, without ".current"
+  double temperature_of(const std::string& element) const;  // its own, K; without ".temperature"
   const BipolarOperatingPoint& bipolar(const std::string& name) const;
   const DiodeOperatingPoint& diode(const std::string& name) const;
 };
 
 // Throws NumericalError (naming nodes) if no operating point is found.
-BiasResult run_bias(const Circuit& circuit);
+BiasResult run_bias(const Circuit& circuit, const SolverOptions& solver = {});
 
 struct SweepPoint {
   double value = 0;
@@ -95,7 +100,7 @@ struct SweepResult {
 // Source and temperature sweeps. Parameter sweeps need the text's `let`
 // parameters: see run_parameter_sweep in stage/run.hpp.
 SweepResult run_sweep(const Circuit& circuit, const SweepOptions& options,
-                      const ProgressCallback& progress = {});
+                      const SolverOptions& solver = {}, const ProgressCallback& progress = {});
 
 std::string_view to_string(BiasMethod method);
 std::string_view to_string(Region region);

@@ -12,6 +12,7 @@
 #include "stage/bias.hpp"
 #include "stage/frequency.hpp"
 #include "stage/headroom.hpp"
+#include "stage/solver.hpp"
 
 namespace stage {
 
@@ -60,6 +61,7 @@ struct CharacterizeResult {
 // analysis fails or a swing's powers do not balance (or its supplies would
 // absorb power).
 CharacterizeResult run_characterize(const Circuit& circuit, const CharacterizeOptions& options,
+                                    const SolverOptions& solver = {},
                                     const ProgressCallback& progress = {});
 
 }  // namespace stage

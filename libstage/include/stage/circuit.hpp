@@ -121,29 +121,10 @@ struct Element {
   bool operator==(const Element&) const = default;
 };
 
-// Newton and integration settings (the `solver(...)` statement).
-// TR-BDF2 is the default: L-stable and second order, it damps the
-// point-to-point ringing the trapezoidal rule keeps on nearly algebraic
-// charges; the trapezoidal rule (no numerical damping, keeps an LC tank's
-// energy) and BDF2 stay selectable.
-enum class Integration { tr_bdf2, trapezoidal, bdf2 };
-
-struct SolverOptions {
-  double relative_tolerance = 1e-4;
-  double voltage_tolerance = 1e-6;
-  double current_tolerance = 1e-12;
-  int max_newton_iterations = 150;
-  Integration integration = Integration::tr_bdf2;
-  // Conductance stepping (a fallback when plain Newton fails) lowers a
-  // conductance from every node to ground down to this value, then removes it.
-  double minimum_conductance = 1e-12;
-};
-
 class Circuit {
  public:
   std::string title;
   double temperature = kRoomTemperature;  // kelvin
-  SolverOptions solver;
 
   // Adds an element; throws an invalid_request Error on a duplicate name.
   Circuit& add(std::string name, ElementData data);

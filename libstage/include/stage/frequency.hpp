@@ -23,6 +23,7 @@
 #include "stage/analyses.hpp"
 #include "stage/bias.hpp"
 #include "stage/circuit.hpp"
+#include "stage/solver.hpp"
 
 namespace stage {
 
@@ -84,6 +85,7 @@ std::optional<std::string> frequency_options_error(const Circuit& circuit,
 
 // Throws an invalid_request Error with the message above for invalid options,
 // NumericalError when there is no operating point or G + jwC is singular.
-FrequencyResult run_frequency(const Circuit& circuit, const FrequencyOptions& options);
+FrequencyResult run_frequency(const Circuit& circuit, const FrequencyOptions& options,
+                              const SolverOptions& solver = {});
 
 }  // namespace stage

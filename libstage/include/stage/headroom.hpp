@@ -32,6 +32,7 @@
 #include "stage/circuit.hpp"
 #include "stage/progress.hpp"
 #include "stage/simulation.hpp"
+#include "stage/solver.hpp"
 
 namespace stage {
 
@@ -139,6 +140,7 @@ struct HeadroomResult {
 // source, unknown output, frequency not positive, limit not in (0, 1)),
 // NumericalError when a transient fails.
 HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& options,
+                            const SolverOptions& solver = {},
                             const ProgressCallback& progress = {});
 
 }  // namespace stage

@@ -1,5 +1,6 @@
 // Reading `.stage` files (spec: libstage/src/reader/circuit-format.md) into a
-// Deck: the elaborated circuit and its analysis statements.
+// Deck: the elaborated circuit, its solver settings and its analysis
+// statements.
 #pragma once
 
 #include <filesystem>
@@ -10,6 +11,7 @@
 
 #include "stage/analyses.hpp"
 #include "stage/circuit.hpp"
+#include "stage/solver.hpp"
 
 namespace stage {
 
@@ -31,6 +33,7 @@ class SyntaxTree;  // reader-internal
 class Deck {
  public:
   Circuit circuit;
+  SolverOptions solver;  // the `solver(...)` statement's settings; every run uses them
   std::vector<AnalysisStatement> analyses;
   std::filesystem::path file;
   // Where each element ("<name>") and model ("model <name>") was written,
@@ -38,7 +41,8 @@ class Deck {
   std::map<std::string, SourceLocation> places;
 
   // The circuit elaborated again with one `let` parameter set to `value`
-  // (parameter sweeps). Throws InputError if `name` is not a parameter.
+  // (parameter sweeps, which keep `solver` as read). Throws InputError if
+  // `name` is not a parameter.
   Circuit with_parameter(const std::string& name, double value) const;
 
   // The text of line `where.line` of `where.file` as it was read, for the

@@ -46,7 +46,8 @@ struct RunOptions {
   ProgressCallback progress;
 };
 
-// Throws InputError when the deck has no analysis or at the first statement
+// Throws InputError when the deck has no analysis, when its circuit or its
+// solver settings fail validation, or at the first statement
 // that cannot run as written (bad options for the circuit, a spectrum with no
 // transient before it), and a NumericalError of kind topology when the
 // circuit's graph has no unique DC solution (a floating node, a loop of
@@ -54,13 +55,15 @@ struct RunOptions {
 // something would fail.
 void check_deck(const Deck& deck);
 
-// Runs check_deck, then every analysis. An analysis that fails numerically
+// Runs check_deck, then every analysis, each with the deck's solver
+// settings. An analysis that fails numerically
 // becomes an AnalysisFailure and the rest still run (a spectrum whose
 // transient failed fails with it), so every figure that was found is kept.
 RunResult run_deck(const Deck& deck, const RunOptions& options = {});
 
-// Operating point at each value of a `let` parameter; the previous point is
-// the starting guess of the next when the circuit's unknowns stay the same.
+// Operating point at each value of a `let` parameter, with the deck's solver
+// settings; the previous point is the starting guess of the next when the
+// circuit's unknowns stay the same.
 SweepResult run_parameter_sweep(const Deck& deck, const SweepOptions& options,
                                 const ProgressCallback& progress = {});
 

@@ -2,15 +2,15 @@
 // pattern and the symbolic factorisation of its Jacobian, then run as often
 // as needed with values changed in between, never the structure.
 //
-//   stage::Simulation sim(circuit);
+//   stage::Simulation sim(circuit);   // or sim(circuit, solver_options)
 //   stage::BiasResult op = sim.bias();
 //   stage::FrequencyResult h = sim.frequency(frequency_options);
 //   sim.set_value("rl", 16.0);          // a resistor, capacitor, inductor or source DC value
 //   stage::BiasResult op16 = sim.bias();  // starts from the last bias point
 //
 // Each one-shot function (run_bias, run_sweep, run_frequency, run_transient)
-// is a Simulation built for one call. A design tool that calls the library in
-// a loop keeps one Simulation and pays the setup once.
+// is a Simulation built for one call, with the SolverOptions it is given. A design tool that calls
+// the library in a loop keeps one Simulation and pays the setup once.
 #pragma once
 
 #include <memory>
@@ -21,6 +21,7 @@
 #include "stage/circuit.hpp"
 #include "stage/frequency.hpp"
 #include "stage/progress.hpp"
+#include "stage/solver.hpp"
 #include "stage/transient.hpp"
 
 namespace stage {
@@ -37,14 +38,17 @@ class Simulation {
  public:
   // Builds the devices and the pattern and checks the circuit's graph;
   // throws NumericalError for a graph with no unique DC solution and
-  // an invalid_request Error for elements that reference unknown models.
-  explicit Simulation(const Circuit& circuit);
+  // an invalid_request Error for a circuit or solver settings that fail
+  // validation (stage/validate.hpp). Every analysis run on it is solved with
+  // `solver`.
+  explicit Simulation(const Circuit& circuit, const SolverOptions& solver = {});
   ~Simulation();
   Simulation(Simulation&&) noexcept;
   Simulation& operator=(Simulation&&) noexcept;
 
   // The circuit as it stands now, with every set_value applied.
   const Circuit& circuit() const;
+  const SolverOptions& solver() const;
 
   // The DC operating point. Solved from the previous bias point when there
   // is one (the same solution to Newton's tolerances, found in fewer
@@ -66,7 +70,8 @@ class Simulation {
   // Takes every element value of `other` when it is this circuit with only
   // such values changed (the same elements, nodes, models and waveforms, as
   // a `let` parameter of element values gives) and returns true; otherwise
-  // changes nothing and returns false (build a new Simulation).
+  // changes nothing and returns false (build a new Simulation). The solver
+  // settings stay this simulation's: a circuit carries none.
   bool take_values_from(const Circuit& other);
 
   SimulationCounters counters() const;

@@ -7,7 +7,7 @@
 //   const auto& out = result.signal("out");  // one value per result.time
 //
 // Charges are integrated by TR-BDF2 (the default), the trapezoidal rule or
-// BDF2 (circuit.solver.integration), with backward Euler on the first step
+// BDF2 (SolverOptions::integration), with backward Euler on the first step
 // and after every waveform corner; the step follows the local truncation
 // error. A trapezoidal step that rings (see damped_steps) is redone as a
 // TR-BDF2 step.
@@ -18,6 +18,7 @@
 
 #include "stage/analyses.hpp"
 #include "stage/circuit.hpp"
+#include "stage/solver.hpp"
 
 namespace stage {
 
@@ -51,7 +52,8 @@ struct TransientResult {
 // Throws NumericalError (naming the time and the nodes) when the step falls
 // below its minimum, and an invalid_request Error for a bad request (stop not
 // after from, an unknown signal).
-TransientResult run_transient(const Circuit& circuit, const TransientOptions& options);
+TransientResult run_transient(const Circuit& circuit, const TransientOptions& options,
+                              const SolverOptions& solver = {});
 
 // The same signals on a uniform grid from result.time.front() in steps of
 // `step` (the last point at or before result.time.back()), by interpolate().

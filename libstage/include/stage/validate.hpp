@@ -11,12 +11,13 @@
 
 #include "stage/analyses.hpp"
 #include "stage/circuit.hpp"
+#include "stage/solver.hpp"
 
 namespace stage {
 
 // What is wrong, and with what: `subject` is an element name, "model <name>"
-// for a model parameter, "solver" or "temperature" for the circuit's
-// settings, or the analysis option's name.
+// for a model parameter, "temperature" for the circuit's temperature,
+// "solver" for the solver settings, or the analysis option's name.
 struct Problem {
   std::string subject;
   std::string message;  // a sentence that names the subject
@@ -24,9 +25,13 @@ struct Problem {
 
 // Element values (finite; resistance, capacitance, inductance and area
 // positive), waveforms, models (each referenced model exists and each
-// parameter is finite and within its range), sensed sources, temperature and
-// solver settings. The first problem found, or nothing.
+// parameter is finite and within its range), sensed sources and temperature.
+// The first problem found, or nothing.
 std::optional<Problem> validate(const Circuit& circuit);
+
+// Solver settings: every tolerance positive and finite, at least one Newton
+// iteration, a minimum conductance of zero or more.
+std::optional<Problem> validate(const SolverOptions& solver);
 
 // An analysis request against the circuit it will run on: numbers finite and
 // in range, inputs, outputs and loads that exist and suit the analysis.

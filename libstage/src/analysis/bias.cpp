@@ -35,6 +35,10 @@ double BiasResult::current(const std::string& element) const {
   return find_value(element_currents, element + ".current");
 }
 
+double BiasResult::temperature_of(const std::string& element) const {
+  return find_value(element_temperatures, element + ".temperature");
+}
+
 const BipolarOperatingPoint& BiasResult::bipolar(const std::string& name) const {
   return find_named(bipolars, name, "transistor");
 }

@@ -10,6 +10,7 @@ namespace stage::analysis {
 NewtonSolver::NewtonSolver(const mna::System& system, const SolverOptions& options)
     : system_(system),
       options_(options),
+      tolerances_(absolute_tolerances(system.topology(), options)),
       work_(system.make_workspace()),
       jacobian_(work_.g.size()),
       factored_(work_.g.size()),
@@ -29,13 +30,14 @@ void NewtonSolver::assemble(const NewtonProblem& p, const std::vector<double>& x
   if (p.shunt > 0) {
     const auto& topology = system_.topology();
     for (mna::Index i = 1; i < static_cast<mna::Index>(n1); ++i) {
-      if (!topology.is_voltage(i)) continue;
+      if (topology.kind(i) != mna::UnknownKind::voltage) continue;
       jacobian_[system_.diagonal(i)] += p.shunt;
       residual_[i] += p.shunt * x[i];
     }
   }
-  // Row scale: sum over the row of |J_ij x_j|, the size of the currents (or
-  // voltages) that meet in that equation, for the relative residual test.
+  // Row scale: sum over the row of |J_ij x_j|, the size of the currents
+  // (voltages, heat flows) that meet in that equation, for the relative
+  // residual test.
   const auto& pattern = system_.pattern();
   std::fill(scale_.begin(), scale_.end(), 0.0);
   for (int col = 0; col < pattern.n; ++col) {
@@ -47,11 +49,11 @@ void NewtonSolver::assemble(const NewtonProblem& p, const std::vector<double>& x
 }
 
 bool NewtonSolver::residual_small() const {
-  const auto& topology = system_.topology();
+  const std::vector<double>& absolute = tolerances_.residual;
   for (std::size_t i = 1; i < residual_.size(); ++i) {
-    const bool kcl = topology.is_voltage(static_cast<mna::Index>(i));
-    const double absolute = kcl ? options_.current_tolerance : options_.voltage_tolerance;
-    if (std::abs(residual_[i]) > absolute + options_.relative_tolerance * scale_[i]) return false;
+    if (std::abs(residual_[i]) > absolute[i] + options_.relative_tolerance * scale_[i]) {
+      return false;
+    }
   }
   return true;
 }
@@ -72,12 +74,11 @@ bool NewtonSolver::residual_at_rounding() const {
 }
 
 bool NewtonSolver::update_small(const std::vector<double>& x) const {
-  const auto& topology = system_.topology();
+  const std::vector<double>& absolute = tolerances_.unknown;
   for (std::size_t i = 1; i < update_.size(); ++i) {
-    const bool voltage = topology.is_voltage(static_cast<mna::Index>(i));
-    const double absolute = voltage ? options_.voltage_tolerance : options_.current_tolerance;
-    if (std::abs(update_[i]) > absolute + options_.relative_tolerance * std::abs(x[i]))
+    if (std::abs(update_[i]) > absolute[i] + options_.relative_tolerance * std::abs(x[i])) {
       return false;
+    }
   }
   return true;
 }

@@ -5,18 +5,22 @@
 // where a and h are the integration formula's coefficient and history (zero
 // at DC) and shunt is a homotopy conductance from each voltage unknown to
 // ground. Convergence needs both a small update (relative plus absolute
-// tolerance per unknown kind) and a small residual (KCL at nodes, the branch
-// equation elsewhere, relative to the size of the terms that meet there);
-// a residual down at rounding level in its own terms stands for the update.
+// tolerance of the unknown's kind: V, A or K) and a small residual (KCL at
+// nodes, the branch equation on a branch current, the heat balance on a
+// temperature, each against the absolute tolerance of what it sums plus the
+// relative one of the terms that meet there); a residual down at rounding
+// level in its own terms stands for the update. The absolute tolerances
+// are laid out per row once (analysis/tolerances.hpp).
 // Failure is recoverable (status), never an exception: the caller decides
 // whether to step a homotopy, shrink a time step, or give up.
 #pragma once
 
 #include <vector>
 
+#include "analysis/tolerances.hpp"
 #include "mna/sparse_lu.hpp"
 #include "mna/system.hpp"
-#include "stage/circuit.hpp"
+#include "stage/solver.hpp"
 
 namespace stage::analysis {
 
@@ -25,7 +29,7 @@ struct NewtonProblem {
   double reactive_scale = 0;                 // a
   const double* reactive_history = nullptr;  // h, n + 1 entries (or null)
   double shunt = 0;
-  int max_iterations = 150;
+  int max_iterations = SolverOptions{}.max_newton_iterations;
 };
 
 // not_converged and diverged are recoverable (a homotopy step or a shorter
@@ -54,6 +58,8 @@ class NewtonSolver {
   const std::vector<double>& last_update() const { return update_; }
   const mna::System& system() const { return system_; }
   const SolverOptions& options() const { return options_; }
+  // The absolute tolerance of each unknown and of its row, by its kind.
+  const AbsoluteTolerances& tolerances() const { return tolerances_; }
   // Numeric factorisations done (full and refactorisations); an iteration
   // whose Jacobian equals the last factored one reuses it (a linear circuit
   // at a constant time step never refactors).
@@ -69,6 +75,7 @@ class NewtonSolver {
 
   const mna::System& system_;
   SolverOptions options_;
+  AbsoluteTolerances tolerances_;
   mna::Workspace work_;
   std::vector<double> jacobian_;  // nnz + 1
   std::vector<double> factored_;  // the Jacobian behind lu_'s current factors

@@ -8,19 +8,52 @@
 #include <algorithm>
 #include <cmath>
 #include <optional>
+#include <string_view>
 
 #include "analysis/model_range.hpp"
+#include "analysis/tolerances.hpp"
 #include "common/si_format.hpp"
 #include "stage/errors.hpp"
 
 namespace stage::analysis {
 namespace {
 
-constexpr double kFirstConductance = 1e-2;  // S; start of conductance stepping
-constexpr double kLargestConductance = 10;  // S; where a failing start gives up
-constexpr double kMaxStepRatio = 10;        // a decade per conductance step at most
+// Tuning of the homotopies: our own choices, each for the reason beside it.
+//
+// Conductance stepping (S unless said otherwise):
+// 100 ohm to ground at every node: the order of a stage's own resistors and
+// of a junction at a milliampere, so the first solve is nearly linear yet
+// close to the circuit's.
+constexpr double kFirstConductance = 1e-2;
+// 0.1 ohm at every node: a circuit that fails even so is not helped by more.
+constexpr double kLargestConductance = 10;
+// A decade per step at most, so each solve starts near the last solution.
+constexpr double kMaxStepRatio = 10;
+// Below a step ratio of 1 % the walk no longer gets anywhere: give up.
+constexpr double kSmallestStepRatio = 1.01;
+// The last conductance tried before it is removed when minimum_conductance
+// is 0, so that the descent ends: 1 Pohm, three decades below the default.
+constexpr double kSmallestConductance = 1e-15;
+//
+// Source stepping (fractions of every independent source's value):
+// The first step: small enough that every junction starts near off.
+constexpr double kFirstSourceStep = 0.1;
+// At least four steps from zero to full, each starting near the last.
+constexpr double kLargestSourceStep = 0.25;
+// After a success the step grows gently, after a failure it shrinks
+// sharply, so a hard stretch is not overshot again at once.
+constexpr double kSourceStepGrowth = 1.5;
+constexpr double kSourceStepShrink = 4;
+// A step this small moves nothing: the sources have met a fold, past which
+// the circuit has no solution.
+constexpr double kSmallestSourceStep = 1e-7;
+//
+// Either homotopy's solves at most: bounds its work however its steps go.
 constexpr int kMaxHomotopySteps = 400;
-constexpr double kNearlySingular = 1e-14;  // reciprocal condition: a warning below
+
+// A reciprocal condition below this is near double precision's rounding
+// (1e-16): the bias point is barely determined and its result says so.
+constexpr double kNearlySingular = 1e-14;
 
 NewtonProblem dc_problem(const NewtonSolver& newton, double shunt, double source_scale) {
   NewtonProblem p;
@@ -29,6 +62,26 @@ NewtonProblem dc_problem(const NewtonSolver& newton, double shunt, double source
   p.shunt = shunt;
   p.max_iterations = newton.options().max_newton_iterations;
   return p;
+}
+
+// What the row of an unknown of this kind says, for messages.
+std::string_view row_equation(mna::UnknownKind kind) {
+  switch (kind) {
+    case mna::UnknownKind::voltage:
+      return "KCL";
+    case mna::UnknownKind::current:
+      return "branch";
+    case mna::UnknownKind::temperature:
+      return "heat balance";
+  }
+  return "KCL";
+}
+
+// What to look for when an unknown of this kind runs away.
+std::string_view runaway_hint(mna::UnknownKind kind) {
+  return kind == mna::UnknownKind::temperature
+             ? "does heat flow in faster than anything can carry it away?"
+             : "does a source force a current or voltage that nothing in the circuit can carry?";
 }
 
 void reset_limiting(const mna::System& system) {
@@ -42,7 +95,7 @@ void reset_limiting(const mna::System& system) {
 // success starts again from a larger conductance, which makes the circuit
 // more nearly linear.
 bool conductance_stepping(NewtonSolver& newton, std::vector<double>& x, int& iterations) {
-  const double floor = std::max(newton.options().minimum_conductance, 1e-15);
+  const double floor = std::max(newton.options().minimum_conductance, kSmallestConductance);
   std::vector<double> good = x;
   std::optional<double> good_shunt;
   double shunt = kFirstConductance, factor = kMaxStepRatio;
@@ -67,7 +120,7 @@ bool conductance_stepping(NewtonSolver& newton, std::vector<double>& x, int& ite
       continue;
     }
     factor = std::sqrt(factor);
-    if (factor < 1.01) return false;
+    if (factor < kSmallestStepRatio) return false;
     shunt = std::max(*good_shunt / factor, floor);
   }
   return false;
@@ -80,7 +133,7 @@ bool source_stepping(NewtonSolver& newton, std::vector<double>& x, int& iteratio
   std::fill(x.begin(), x.end(), 0.0);
   reset_limiting(newton.system());
   std::vector<double> good = x;
-  double scale = 0.0, step = 0.1;
+  double scale = 0.0, step = kFirstSourceStep;
   for (int k = 0; k < kMaxHomotopySteps; ++k) {
     const double target = std::min(1.0, scale + step);
     const auto outcome = newton.solve(x, dc_problem(newton, 0.0, target));
@@ -91,12 +144,12 @@ bool source_stepping(NewtonSolver& newton, std::vector<double>& x, int& iteratio
       good = x;
       scale = reached = target;
       if (scale >= 1.0) return true;
-      step = std::min(0.25, step * 1.5);
+      step = std::min(kLargestSourceStep, step * kSourceStepGrowth);
     } else {
       x = good;
       reset_limiting(newton.system());
-      step /= 4.0;
-      if (step < 1e-7) return false;
+      step /= kSourceStepShrink;
+      if (step < kSmallestSourceStep) return false;
     }
   }
   return false;
@@ -136,8 +189,7 @@ mna::Index runaway_unknown(const FailedAttempt& attempt) {
   }
   const mna::Index i = runaway_unknown(attempt);
   const std::string name = topology.name(i);
-  const std::string quantity =
-      topology.is_voltage(i) ? "the voltage at node '" + name + "'" : "the current " + name;
+  const std::string quantity = topology.description(i);
   const std::string how = std::isfinite(attempt.x[i]) && std::isfinite(attempt.update[i])
                               ? fmt::format("{} ran to {:.4g} (last change {:.3g})", quantity,
                                             attempt.x[i], attempt.update[i])
@@ -150,8 +202,8 @@ mna::Index runaway_unknown(const FailedAttempt& attempt) {
         fmt::format(" (the circuit solves with its sources at up to {:.3g} % of their values)",
                     100 * source_fraction);
   }
-  message += ". Elements at '" + name + "': " + text::joined(elements) +
-             " (does a source force a current or voltage that nothing in the circuit can carry?)";
+  message += ". Elements at '" + name + "': " + text::joined(elements) + " (" +
+             std::string(runaway_hint(topology.kind(i))) + ")";
   std::vector<std::string> involved{name};
   involved.insert(involved.end(), elements.begin(), elements.end());
   throw NumericalError(ErrorKind::no_convergence, message, involved);
@@ -165,8 +217,9 @@ std::vector<std::string> verify_operating_point(const mna::System& system,
   const auto& topology = system.topology();
   mna::Workspace w = system.make_workspace();
   system.evaluate(system.request(x.data()), w);
-  // KCL at every node (the branch equation elsewhere) against the tolerance
-  // Newton converged to: the absolute tolerance plus the relative tolerance
+  // KCL at every node (the branch equation on a branch current, the heat
+  // balance on a temperature) against the tolerance Newton converged to:
+  // the absolute tolerance of the row's kind plus the relative tolerance
   // times the size of the terms meeting in that row.
   std::vector<double> scale(x.size(), 0.0);
   const auto& pattern = system.pattern();
@@ -176,16 +229,16 @@ std::vector<std::string> verify_operating_point(const mna::System& system,
     }
   }
   for (mna::Index i = 1; i <= system.size(); ++i) {
-    const bool kcl = topology.is_voltage(i);
-    const double allowed = (kcl ? options.current_tolerance : options.voltage_tolerance) +
-                           options.relative_tolerance * scale[i];
+    const mna::UnknownKind kind = topology.kind(i);
+    const double allowed =
+        residual_tolerance(kind, options) + options.relative_tolerance * scale[i];
     if (!std::isfinite(x[i]) || !(std::abs(w.f[i]) <= allowed)) {
       const std::string name = topology.name(i);
       throw NumericalError(
           ErrorKind::no_convergence,
           fmt::format("the DC solution fails its check at '{}': value {:.4g}, {} residual {:.3g} "
                       "against an allowed {:.3g}",
-                      name, x[i], kcl ? "KCL" : "branch", w.f[i], allowed),
+                      name, x[i], row_equation(kind), w.f[i], allowed),
           {name});
     }
   }
@@ -250,8 +303,9 @@ BiasResult describe_operating_point(const mna::System& system, const std::vector
 
   const auto& topology = system.topology();
   for (mna::Index i = 1; i <= system.size(); ++i) {
-    if (topology.kind(i) == mna::Topology::Kind::node) {
-      result.node_voltages.emplace_back(topology.name(i), x[i]);
+    if (topology.is_circuit_node(i)) result.node_voltages.emplace_back(topology.name(i), x[i]);
+    if (topology.kind(i) == mna::UnknownKind::temperature) {
+      result.element_temperatures.emplace_back(topology.name(i), x[i]);
     }
   }
 
@@ -269,7 +323,7 @@ BiasResult describe_operating_point(const mna::System& system, const std::vector
   mna::Workspace w = system.make_workspace();
   system.evaluate(at, w);
   for (mna::Index i = 1; i <= system.size(); ++i) {
-    if (topology.is_voltage(i)) {
+    if (topology.kind(i) == mna::UnknownKind::voltage) {
       result.max_kcl_residual = std::max(result.max_kcl_residual, std::abs(w.f[i]));
     }
   }

@@ -28,12 +28,17 @@ SignalRecorder::SignalRecorder(const mna::System& system, const std::vector<Sign
       zero_(static_cast<std::size_t>(system.size()) + 1, 0.0) {
   if (wanted.empty()) {
     const auto& topology = system.topology();
-    for (mna::Index i = 1; i <= system.size(); ++i) {
-      if (topology.kind(i) != mna::Topology::Kind::node) continue;
+    const auto add_unknown = [&](mna::Index i) {
       probes_.push_back({i, mna::kGroundIndex, nullptr});
       result_.signals.emplace_back().name = topology.name(i);
+    };
+    for (mna::Index i = 1; i <= system.size(); ++i) {
+      if (topology.is_circuit_node(i)) add_unknown(i);
     }
     for (const auto& d : system.devices()) add_every_current(*d);
+    for (mna::Index i = 1; i <= system.size(); ++i) {
+      if (topology.kind(i) == mna::UnknownKind::temperature) add_unknown(i);
+    }
   }
   for (const SignalRef& ref : wanted) {
     switch (ref.kind) {

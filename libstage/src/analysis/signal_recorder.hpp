@@ -1,5 +1,6 @@
 // Reads the signals a transient keeps out of each accepted solution: node
-// voltages, node-pair voltages and elements' reported currents, with their
+// voltages, node-pair voltages, elements' reported currents and own
+// temperatures, with their
 // time derivatives at both ends of each step for the interpolant.
 #pragma once
 
@@ -20,7 +21,8 @@ enum class StepShape { line, through_previous_point, through_inner_stage };
 
 class SignalRecorder {
  public:
-  // `wanted` empty: every circuit node voltage and every reported current.
+  // `wanted` empty: every circuit node voltage, every reported current and
+  // every element's own temperature ("<name>.temperature").
   // Samples before `from` are not kept. Throws an invalid_request Error for a
   // node or element that does not exist.
   SignalRecorder(const mna::System& system, const std::vector<SignalRef>& wanted, double from,

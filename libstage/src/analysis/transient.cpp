@@ -355,14 +355,12 @@ bool Stepper::rings(double h) const {
 
 // A row's error tolerance: relative to the largest the charge has been (so
 // a charge passing through zero is not held to an absolute floor) plus the
-// solver's absolute voltage (current) tolerance times the row's capacitance
-// (inductance).
+// absolute tolerance of the row's unknown (a voltage, current or
+// temperature) times the row's capacitance (inductance, heat capacity).
 double Stepper::row_tolerance(mna::Index i) const {
   const auto& w = newton_.workspace();
-  const double absolute =
-      system_.topology().is_voltage(i) ? solver_.voltage_tolerance : solver_.current_tolerance;
   return solver_.relative_tolerance * std::max(std::abs(w.q[i]), peak_[i]) +
-         absolute * std::abs(w.c[system_.diagonal(i)]);
+         newton_.tolerances().unknown[i] * std::abs(w.c[system_.diagonal(i)]);
 }
 
 // Largest local truncation error over the rows that hold charge, each over

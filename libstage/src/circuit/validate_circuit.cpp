@@ -123,22 +123,6 @@ std::optional<Problem> element_problem(const Circuit& circuit, const Element& el
       });
 }
 
-std::optional<Problem> solver_problem(const SolverOptions& s) {
-  const auto bad = [](const std::string& why) {
-    return std::optional<Problem>(Problem{"solver", "solver: " + why});
-  };
-  for (double tolerance : {s.relative_tolerance, s.voltage_tolerance, s.current_tolerance}) {
-    if (!(std::isfinite(tolerance) && tolerance > 0)) {
-      return bad("every tolerance must be positive and finite");
-    }
-  }
-  if (s.max_newton_iterations < 1) return bad("max_newton_iterations must be at least 1");
-  if (!(std::isfinite(s.minimum_conductance) && s.minimum_conductance >= 0)) {
-    return bad("minimum_conductance must be zero or positive, and finite");
-  }
-  return std::nullopt;
-}
-
 }  // namespace
 
 std::optional<Problem> validate(const Circuit& circuit) {
@@ -148,7 +132,6 @@ std::optional<Problem> validate(const Circuit& circuit) {
                    "above zero, not " +
                        number(circuit.temperature)};
   }
-  if (auto p = solver_problem(circuit.solver)) return p;
   std::optional<Problem> found;
   circuit.models().for_each_kind([&](const auto& models) {
     for (const auto& [name, model] : models) {

@@ -35,7 +35,6 @@ Circuit fixture_circuit(const Curve& reference, const DeviceModel& model) {
   Circuit c;
   c.title = "fixture for curve " + reference.name;
   c.temperature = reference.condition(CurveQuantity::temperature).value_or(kRoomTemperature);
-  c.solver = fixture_solver();
   std::visit([&](const auto& parameters) { c.add_model(kDeviceModel, parameters); },
              model.parameters);
   return c;
@@ -48,7 +47,8 @@ std::vector<BiasResult> sweep_source(const Circuit& circuit, const std::string& 
   options.name = source;
   options.values = values;
   std::vector<BiasResult> points;
-  for (auto& p : run_sweep(circuit, options).points) points.push_back(std::move(p.bias));
+  for (auto& p : run_sweep(circuit, options, fixture_solver()).points)
+    points.push_back(std::move(p.bias));
   return points;
 }
 

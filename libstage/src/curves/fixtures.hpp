@@ -8,6 +8,7 @@
 
 #include "stage/bias.hpp"
 #include "stage/curves.hpp"
+#include "stage/solver.hpp"
 
 namespace stage::curves {
 
@@ -24,11 +25,13 @@ SolverOptions fixture_solver();
 // The device's model name inside every fixture circuit.
 inline constexpr const char* kDeviceModel = "device_under_test";
 
-// A circuit holding only the model, at the curve's temperature, with the
-// fixture solver; the fixture adds the device (`q` or `d`) and its sources.
+// A circuit holding only the model, at the curve's temperature; the fixture
+// adds the device (`q` or `d`) and its sources, and solves it with the
+// fixture solver.
 Circuit fixture_circuit(const Curve& reference, const DeviceModel& model);
 
-// run_sweep over one independent source: the previous point is the guess.
+// run_sweep over one independent source with the fixture solver: the
+// previous point is the guess.
 std::vector<BiasResult> sweep_source(const Circuit& circuit, const std::string& source,
                                      const std::vector<double>& values);
 

@@ -56,7 +56,7 @@ double transition_frequency_at(const Curve& reference, const DeviceModel& model,
   o.from = measurement_frequency(reference, dc);
   o.to = o.from * 1.001;  // a one-point grid: the response at `from`
   o.per_decade = 1;
-  const FrequencyResult r = run_frequency(c, o);
+  const FrequencyResult r = run_frequency(c, o, fixture_solver());
   return o.from * std::abs(r.response.front());
 }
 

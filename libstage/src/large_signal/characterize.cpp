@@ -120,7 +120,7 @@ SwingPower swing_power(const Circuit& circuit, const analysis::SineDrive& drive,
 }  // namespace
 
 CharacterizeResult run_characterize(const Circuit& circuit, const CharacterizeOptions& options,
-                                    const ProgressCallback& progress) {
+                                    const SolverOptions& solver, const ProgressCallback& progress) {
   if (auto p = validate(circuit, options))
     throw Error(ErrorKind::invalid_request, p->message, {p->subject});
   CharacterizeResult r;
@@ -138,7 +138,7 @@ CharacterizeResult run_characterize(const Circuit& circuit, const CharacterizeOp
   // One drive, one prepared simulation: the frequency sweep, the headroom
   // search and the power rows share its system and its bias point.
   const LoadProbes load = load_probes(circuit, options);
-  const analysis::SineDrive drive(analysis::with_only_ac_input(circuit, options.input),
+  const analysis::SineDrive drive(analysis::with_only_ac_input(circuit, options.input), solver,
                                   options.input, options.output, options.frequency, load.signals(),
                                   true);
   r.frequency = drive.simulation().frequency(f);

@@ -34,9 +34,9 @@ Circuit with_only_ac_input(const Circuit& circuit, const std::string& input) {
   return c;
 }
 
-double small_signal_gain(const Circuit& circuit, const std::string& input, const SignalRef& output,
-                         double frequency) {
-  Simulation simulation(with_only_ac_input(circuit, input));
+double small_signal_gain(const Circuit& circuit, const SolverOptions& solver,
+                         const std::string& input, const SignalRef& output, double frequency) {
+  Simulation simulation(with_only_ac_input(circuit, input), solver);
   return small_signal_gain(simulation, input, output, frequency);
 }
 
@@ -53,9 +53,9 @@ double small_signal_gain(Simulation& simulation, const std::string& input, const
   return amplitude_ratio_from_db(*r.figures.gain_at_dB);
 }
 
-std::optional<double> impedance_without(const Circuit& circuit, const std::string& removed,
-                                        const std::string& a, const std::string& b,
-                                        double frequency) {
+std::optional<double> impedance_without(const Circuit& circuit, const SolverOptions& solver,
+                                        const std::string& removed, const std::string& a,
+                                        const std::string& b, double frequency) {
   if (a == b) return std::nullopt;
   constexpr const char* kProbe = "impedance_probe";
   // A unit AC current driven from b to a: the voltage that builds between
@@ -63,7 +63,7 @@ std::optional<double> impedance_without(const Circuit& circuit, const std::strin
   Circuit probe = circuit;
   probe.remove(removed);
   probe.add(kProbe, CurrentSource{b, a, 0.0, 1.0});
-  return small_signal_gain(probe, kProbe, SignalRef::pair(a, b), frequency);
+  return small_signal_gain(probe, solver, kProbe, SignalRef::pair(a, b), frequency);
 }
 
 std::vector<Rail> supply_rails(const Circuit& circuit, const std::string& input) {

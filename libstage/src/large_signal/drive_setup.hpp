@@ -10,6 +10,7 @@
 #include "stage/circuit.hpp"
 #include "stage/signal.hpp"
 #include "stage/simulation.hpp"
+#include "stage/solver.hpp"
 
 namespace stage::analysis {
 
@@ -20,8 +21,8 @@ Circuit with_only_ac_input(const Circuit& circuit, const std::string& input);
 
 // |output / input| at one frequency, the input alone driving (small signal,
 // around the bias point).
-double small_signal_gain(const Circuit& circuit, const std::string& input, const SignalRef& output,
-                         double frequency);
+double small_signal_gain(const Circuit& circuit, const SolverOptions& solver,
+                         const std::string& input, const SignalRef& output, double frequency);
 // The same on a prepared simulation of a circuit where the input alone
 // carries an AC phasor (with_only_ac_input): its bias point is reused.
 double small_signal_gain(Simulation& simulation, const std::string& input, const SignalRef& output,
@@ -31,9 +32,9 @@ double small_signal_gain(Simulation& simulation, const std::string& input, const
 // `removed` taken out of the circuit and every source zeroed: what that
 // element's terminals see of the rest. Nothing when a and b are the same
 // node; throws NumericalError when taking the element out floats a node.
-std::optional<double> impedance_without(const Circuit& circuit, const std::string& removed,
-                                        const std::string& a, const std::string& b,
-                                        double frequency);
+std::optional<double> impedance_without(const Circuit& circuit, const SolverOptions& solver,
+                                        const std::string& removed, const std::string& a,
+                                        const std::string& b, double frequency);
 
 // A DC voltage source tied to ground: the rail it holds a node at.
 struct Rail {

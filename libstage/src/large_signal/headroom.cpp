@@ -30,11 +30,11 @@
 namespace stage {
 
 HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& options,
-                            const ProgressCallback& progress) {
+                            const SolverOptions& solver, const ProgressCallback& progress) {
   if (auto p = validate(circuit, options)) {
     throw Error(ErrorKind::invalid_request, p->message, {p->subject});
   }
-  const analysis::SineDrive drive(analysis::with_only_ac_input(circuit, options.input),
+  const analysis::SineDrive drive(analysis::with_only_ac_input(circuit, options.input), solver,
                                   options.input, options.output, options.frequency);
   return analysis::headroom_search(circuit, drive, options, progress);
 }
@@ -339,10 +339,10 @@ HeadroomResult headroom_search(const Circuit& circuit, const SineDrive& drive,
   HeadroomResult result = bias_figures(drive, options);
   HeadroomRuns runs(drive, options.distortion_limit, result.small_signal_gain, options.max_runs,
                     progress);
-  const LimitClassifier classifier(circuit, SimulationAccess::system(drive.simulation()),
-                                   SimulationAccess::bias_point(drive.simulation()), options.input,
-                                   options.frequency,
-                                   output_reference(result.bias, options.output));
+  const LimitClassifier classifier(
+      circuit, drive.simulation().solver(), SimulationAccess::system(drive.simulation()),
+      SimulationAccess::bias_point(drive.simulation()), options.input, options.frequency,
+      output_reference(result.bias, options.output));
   const DriveBound bound(circuit, options.input);
 
   bracket_limits(runs, bound, first_amplitude(options, runs, bound));
@@ -361,7 +361,8 @@ HeadroomResult headroom_search(const Circuit& circuit, const SineDrive& drive,
   thd_limit(found, result);
   result.transient_runs = drive.runs();
   result.counters = drive.simulation().counters();
-  result.load_line = estimate_load_line(circuit, classifier.at_bias(), options.frequency);
+  result.load_line = estimate_load_line(circuit, drive.simulation().solver(), classifier.at_bias(),
+                                        options.frequency);
   spdlog::debug("headroom: {} transient runs", result.transient_runs);
   return result;
 }

@@ -47,14 +47,15 @@ Readings readings_at(const mna::System& system, const Extreme& extreme) {
 // The impedance each transistor's common terminal (emitter) sees with that
 // transistor taken out (zero where it is grounded or taking it out floats a
 // node).
-std::map<std::string, double> common_impedances(const Circuit& circuit, double frequency) {
+std::map<std::string, double> common_impedances(const Circuit& circuit, const SolverOptions& solver,
+                                                double frequency) {
   std::map<std::string, double> impedance;
   for (const Element& e : circuit.elements()) {
     const auto amplifier = kinds::amplifier(e.data);
     if (!amplifier) continue;
     try {
       impedance[e.name] =
-          impedance_without(circuit, e.name, amplifier->common_node, kGround, frequency)
+          impedance_without(circuit, solver, e.name, amplifier->common_node, kGround, frequency)
               .value_or(0.0);
     } catch (const NumericalError&) {
       impedance[e.name] = 0;
@@ -111,13 +112,14 @@ struct LimitClassifier::Suspects {
   const Reading* faded = nullptr;  // the lowest current against its bias
 };
 
-LimitClassifier::LimitClassifier(const Circuit& circuit, const mna::System& system,
-                                 const std::vector<double>& bias_point, const std::string& input,
-                                 double frequency, double output_reference)
+LimitClassifier::LimitClassifier(const Circuit& circuit, const SolverOptions& solver,
+                                 const mna::System& system, const std::vector<double>& bias_point,
+                                 const std::string& input, double frequency,
+                                 double output_reference)
     : system_(system),
       output_reference_(output_reference),
       rails_(supply_rails(circuit, input)),
-      common_impedance_(common_impedances(circuit, frequency)),
+      common_impedance_(common_impedances(circuit, solver, frequency)),
       pairs_(complementary_pairs(circuit)) {
   for (const Reading& r : readings_at(system, system.request(bias_point.data()))) {
     at_bias_.emplace(r.name, r.at);

@@ -39,7 +39,7 @@ class LimitClassifier {
   // solutions the extremes hold; it must outlive the classifier. The output is measured from
   // `output_reference` (node b of a node pair, else 0 V), so an extreme's value plus it is a node
   // voltage.
-  LimitClassifier(const Circuit& circuit, const mna::System& system,
+  LimitClassifier(const Circuit& circuit, const SolverOptions& solver, const mna::System& system,
                   const std::vector<double>& bias_point, const std::string& input, double frequency,
                   double output_reference);
 

@@ -29,8 +29,8 @@ const Element* only_transistor(const Circuit& circuit) {
 }  // namespace
 
 std::optional<LoadLineEstimate> estimate_load_line(
-    const Circuit& circuit, const std::map<std::string, mna::Conduction>& at_bias,
-    double frequency) {
+    const Circuit& circuit, const SolverOptions& solver,
+    const std::map<std::string, mna::Conduction>& at_bias, double frequency) {
   const Element* transistor = only_transistor(circuit);
   if (transistor == nullptr) return std::nullopt;
   const kinds::Amplifier q = *kinds::amplifier(transistor->data);
@@ -38,8 +38,9 @@ std::optional<LoadLineEstimate> estimate_load_line(
 
   double ac_load = 0;
   try {
-    ac_load = impedance_without(circuit, transistor->name, q.main_node, q.common_node, frequency)
-                  .value_or(0.0);
+    ac_load =
+        impedance_without(circuit, solver, transistor->name, q.main_node, q.common_node, frequency)
+            .value_or(0.0);
   } catch (const NumericalError&) {
     return std::nullopt;  // without the transistor a node floats: no load line to draw
   }

@@ -15,7 +15,7 @@ namespace stage::analysis {
 // that amplifies), at `frequency`, from each device's conduction at the bias
 // point; nothing for other circuits.
 std::optional<LoadLineEstimate> estimate_load_line(
-    const Circuit& circuit, const std::map<std::string, mna::Conduction>& at_bias,
-    double frequency);
+    const Circuit& circuit, const SolverOptions& solver,
+    const std::map<std::string, mna::Conduction>& at_bias, double frequency);
 
 }  // namespace stage::analysis

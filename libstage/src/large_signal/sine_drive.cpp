@@ -30,9 +30,10 @@ double dc_of(const Circuit& circuit, const std::string& input) {
 
 }  // namespace
 
-SineDrive::SineDrive(const Circuit& circuit, std::string input, SignalRef output, double frequency,
-                     std::vector<SignalRef> record, bool energy_ledger)
-    : simulation_(circuit),
+SineDrive::SineDrive(const Circuit& circuit, const SolverOptions& solver, std::string input,
+                     SignalRef output, double frequency, std::vector<SignalRef> record,
+                     bool energy_ledger)
+    : simulation_(circuit, solver),
       input_(std::move(input)),
       output_(std::move(output)),
       frequency_(frequency),

@@ -13,6 +13,7 @@
 #include "stage/circuit.hpp"
 #include "stage/signal.hpp"
 #include "stage/simulation.hpp"
+#include "stage/solver.hpp"
 #include "stage/spectrum.hpp"
 #include "stage/transient.hpp"
 
@@ -55,8 +56,10 @@ class SineDrive {
   // independent source, `output` a node or a node pair. `record` lists extra
   // signals kept in each measurement's transient (load current and voltage,
   // for power); `energy_ledger` fills each measurement's element_power.
-  SineDrive(const Circuit& circuit, std::string input, SignalRef output, double frequency,
-            std::vector<SignalRef> record = {}, bool energy_ledger = false);
+  // Every run is solved with `solver`.
+  SineDrive(const Circuit& circuit, const SolverOptions& solver, std::string input,
+            SignalRef output, double frequency, std::vector<SignalRef> record = {},
+            bool energy_ledger = false);
 
   DriveMeasurement measure(double amplitude) const;
   int runs() const { return runs_; }

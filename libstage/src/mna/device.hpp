@@ -1,10 +1,13 @@
 // The one contract every circuit element implements.
 //
 // Modified nodal analysis writes the circuit as F(x, t) = f(x, t) + dq(x)/dt = 0
-// where x holds the node voltages then the branch currents, f are resistive
-// currents (and branch equations) and q are charges (and inductor fluxes).
-// Row k of F is KCL at node k (current leaving the node) or the equation of
-// branch k. Every analysis is built from the same four quantities:
+// where x holds the node voltages, the branch currents and any other unknown
+// a device adds (a temperature; Topology::add_unknown and mna::UnknownKind),
+// f are resistive currents (and branch equations, heat flows) and q are
+// charges (and inductor fluxes, heats). Row k of F is KCL at node k (current
+// leaving the node), the equation of branch k, or the heat balance of
+// temperature k (heat flowing out). Every analysis is built from the same
+// four quantities:
 //
 //   f (size n)    resistive residual       G = df/dx (sparse, n x n)
 //   q (size n)    charge / flux            C = dq/dx (same pattern as G)

@@ -88,11 +88,9 @@ std::vector<std::string> System::worst_unknowns(std::span<const double> values, 
 }
 
 std::vector<std::string> System::elements_at(Index i) const {
+  if (topology_.kind(i) != UnknownKind::voltage) return {topology_.owner(i)};
   TopologyCheck check(topology_);
-  for (const auto& d : devices_) {
-    if (d->branch() == i) return {d->name()};
-    d->describe_topology(check);
-  }
+  for (const auto& d : devices_) d->describe_topology(check);
   return check.elements_at(i);
 }
 

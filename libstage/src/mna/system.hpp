@@ -58,8 +58,8 @@ class System {
 
   // Nodes and elements behind the largest entries of a residual, for messages.
   std::vector<std::string> worst_unknowns(std::span<const double> values, int count) const;
-  // The elements connected to unknown i (a node) or owning it (a branch), for
-  // messages.
+  // The elements connected to unknown i (a node) or owning it (a branch
+  // current, a temperature), for messages.
   std::vector<std::string> elements_at(Index i) const;
 
  private:

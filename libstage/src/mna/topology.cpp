@@ -1,36 +1,56 @@
-// Numbering of unknowns: circuit nodes, device-internal nodes, branches.
+// Numbering of unknowns: circuit nodes, device-internal nodes, and the
+// unknowns devices own (branch currents, temperatures).
 #include "mna/topology.hpp"
+
+#include <stdexcept>
 
 #include "stage/circuit.hpp"
 
 namespace stage::mna {
 
-Topology::Topology() : names_{kGround}, kinds_{Kind::node} {
+std::string_view to_string(UnknownKind kind) {
+  switch (kind) {
+    case UnknownKind::voltage:
+      return "voltage";
+    case UnknownKind::current:
+      return "current";
+    case UnknownKind::temperature:
+      return "temperature";
+  }
+  return "voltage";
+}
+
+Topology::Topology() : names_{kGround}, kinds_{UnknownKind::voltage}, owners_{""} {
   nodes_.emplace(kGround, kGroundIndex);
+}
+
+Index Topology::add(std::string name, UnknownKind kind, std::string owner) {
+  const Index i = static_cast<Index>(names_.size());
+  names_.push_back(std::move(name));
+  kinds_.push_back(kind);
+  owners_.push_back(std::move(owner));
+  return i;
 }
 
 Index Topology::node(const std::string& name) {
   auto [it, inserted] = nodes_.emplace(name, static_cast<Index>(names_.size()));
-  if (inserted) {
-    names_.push_back(name);
-    kinds_.push_back(Kind::node);
-  }
+  if (inserted) add(name, UnknownKind::voltage, "");
   return it->second;
 }
 
 Index Topology::internal_node(const std::string& device, const std::string& suffix) {
-  const Index i = static_cast<Index>(names_.size());
-  names_.push_back(device + ":" + suffix);
-  kinds_.push_back(Kind::internal_node);
-  return i;
+  return add(device + ":" + suffix, UnknownKind::voltage, device);
+}
+
+Index Topology::add_unknown(const std::string& owner, UnknownKind kind) {
+  std::string name = owner + "." + std::string(to_string(kind));
+  const auto [it, inserted] = owned_.emplace(name, static_cast<Index>(names_.size()));
+  if (!inserted) throw std::logic_error("device '" + owner + "' adds its " + name + " twice");
+  return add(std::move(name), kind, owner);
 }
 
 Index Topology::branch(const std::string& device) {
-  const Index i = static_cast<Index>(names_.size());
-  names_.push_back(device + ".current");
-  kinds_.push_back(Kind::branch);
-  branches_.emplace(device, i);
-  return i;
+  return add_unknown(device, UnknownKind::current);
 }
 
 std::optional<Index> Topology::find_node(const std::string& name) const {
@@ -40,8 +60,8 @@ std::optional<Index> Topology::find_node(const std::string& name) const {
 }
 
 std::optional<Index> Topology::find_branch(const std::string& device) const {
-  auto it = branches_.find(device);
-  if (it == branches_.end()) return std::nullopt;
+  auto it = owned_.find(device + "." + std::string(to_string(UnknownKind::current)));
+  if (it == owned_.end()) return std::nullopt;
   return it->second;
 }
 
@@ -50,6 +70,18 @@ std::optional<Index> Topology::find_unknown(const std::string& name) const {
     if (names_[i] == name) return i;
   }
   return std::nullopt;
+}
+
+std::string Topology::description(Index i) const {
+  switch (kinds_[i]) {
+    case UnknownKind::voltage:
+      return "the voltage at node '" + names_[i] + "'";
+    case UnknownKind::current:
+      return "the current " + names_[i];
+    case UnknownKind::temperature:
+      return "the temperature of " + owners_[i];
+  }
+  return names_[i];
 }
 
 }  // namespace stage::mna

@@ -88,7 +88,7 @@ std::vector<TopologyCheck::Finding> TopologyCheck::findings() const {
   }
   std::map<int, std::vector<std::string>> groups;  // root -> circuit nodes
   for (Index i = 1; i < count; ++i) {
-    if (topology_.kind(i) == Topology::Kind::node && dc_paths.root(i) != dc_paths.root(0)) {
+    if (topology_.is_circuit_node(i) && dc_paths.root(i) != dc_paths.root(0)) {
       groups[dc_paths.root(i)].push_back(topology_.name(i));
     }
   }

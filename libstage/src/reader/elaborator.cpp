@@ -146,7 +146,7 @@ void Elaborator::solver(const ast::Solver& solver, const Frame& frame) {
                                     {"integration"},        {"minimum_conductance"}};
   const ast::Call call{{solver.offset}, "solver", solver.arguments};
   const BoundArguments args(call, kSlots, "solver", frame.file->source);
-  SolverOptions& options = deck_.circuit.solver;
+  SolverOptions& options = deck_.solver;
   const auto positive = [&](std::string_view name, Quantity q, double& field) {
     if (!args.get(name)) return;
     field = value(args, name, q, frame);

@@ -44,12 +44,16 @@ void check_deck(const Deck& deck) {
                      "no `analyze` statement: nothing to run (add one, for example "
                      "`analyze bias()`)");
   }
-  if (auto p = validate(deck.circuit)) {
-    const auto place = deck.places.find(p->subject);
+  // A problem of the circuit or of the solver settings, where its subject
+  // was written (the file when it was not written in one place).
+  const auto refuse = [&](const Problem& p) {
+    const auto place = deck.places.find(p.subject);
     const SourceLocation where =
         place != deck.places.end() ? place->second : SourceLocation{deck.file.string(), 0, 0};
-    throw InputError(where, p->message, deck.line_text(where));
-  }
+    throw InputError(where, p.message, deck.line_text(where));
+  };
+  if (auto p = validate(deck.circuit)) refuse(*p);
+  if (auto p = validate(deck.solver)) refuse(*p);
   const TransientOptions* transient_before = nullptr;
   for (const auto& statement : deck.analyses) {
     const auto fail = [&](const std::string& message) {
@@ -80,7 +84,9 @@ SweepResult run_parameter_sweep(const Deck& deck, const SweepOptions& options,
       progress("sweep of " + options.name + ": point " + std::to_string(result.points.size() + 1) +
                " of " + std::to_string(options.values.size()));
     const Circuit circuit = deck.with_parameter(options.name, value);
-    if (!simulation || !simulation->take_values_from(circuit)) simulation.emplace(circuit);
+    if (!simulation || !simulation->take_values_from(circuit)) {
+      simulation.emplace(circuit, deck.solver);
+    }
     result.points.push_back({value, simulation->bias()});
     spdlog::debug("sweep {} = {:.6g}: {} Newton iterations", options.name, value,
                   result.points.back().bias.newton_iterations);
@@ -107,26 +113,26 @@ RunResult run_deck(const Deck& deck, const RunOptions& run_options) {
       const Circuit& circuit;
       const RunOptions& run_options;
       const TransientResult* last_transient;
-      AnalysisResult operator()(const BiasOptions&) const { return run_bias(circuit); }
+      AnalysisResult operator()(const BiasOptions&) const { return run_bias(circuit, deck.solver); }
       AnalysisResult operator()(const SweepOptions& o) const {
         return o.target == SweepOptions::Target::parameter
                    ? run_parameter_sweep(deck, o, run_options.progress)
-                   : run_sweep(circuit, o, run_options.progress);
+                   : run_sweep(circuit, o, deck.solver, run_options.progress);
       }
       AnalysisResult operator()(const FrequencyOptions& o) const {
-        return run_frequency(circuit, o);
+        return run_frequency(circuit, o, deck.solver);
       }
       AnalysisResult operator()(const TransientOptions& o) const {
-        return run_transient(circuit, o);
+        return run_transient(circuit, o, deck.solver);
       }
       AnalysisResult operator()(const SpectrumOptions& o) const {
         return run_spectrum(*last_transient, o);
       }
       AnalysisResult operator()(const HeadroomOptions& o) const {
-        return run_headroom(circuit, o, run_options.progress);
+        return run_headroom(circuit, o, deck.solver, run_options.progress);
       }
       AnalysisResult operator()(const CharacterizeOptions& o) const {
-        return run_characterize(circuit, o, run_options.progress);
+        return run_characterize(circuit, o, deck.solver, run_options.progress);
       }
     };
     const TransientResult* transient =

@@ -7,19 +7,23 @@
 
 namespace stage {
 
-BiasResult run_bias(const Circuit& circuit) { return Simulation(circuit).bias(); }
+BiasResult run_bias(const Circuit& circuit, const SolverOptions& solver) {
+  return Simulation(circuit, solver).bias();
+}
 
 SweepResult run_sweep(const Circuit& circuit, const SweepOptions& options,
-                      const ProgressCallback& progress) {
-  return Simulation(circuit).sweep(options, progress);
+                      const SolverOptions& solver, const ProgressCallback& progress) {
+  return Simulation(circuit, solver).sweep(options, progress);
 }
 
-FrequencyResult run_frequency(const Circuit& circuit, const FrequencyOptions& options) {
-  return Simulation(circuit).frequency(options);
+FrequencyResult run_frequency(const Circuit& circuit, const FrequencyOptions& options,
+                              const SolverOptions& solver) {
+  return Simulation(circuit, solver).frequency(options);
 }
 
-TransientResult run_transient(const Circuit& circuit, const TransientOptions& options) {
-  return Simulation(circuit).transient(options);
+TransientResult run_transient(const Circuit& circuit, const TransientOptions& options,
+                              const SolverOptions& solver) {
+  return Simulation(circuit, solver).transient(options);
 }
 
 }  // namespace stage

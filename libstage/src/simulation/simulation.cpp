@@ -22,10 +22,13 @@
 
 namespace stage {
 
-// The circuit itself, checked before anything is built from it.
-const Circuit& validated(const Circuit& circuit) {
-  if (auto p = validate(circuit)) throw Error(ErrorKind::invalid_request, p->message, {p->subject});
-  return circuit;
+// The circuit itself and the solver settings, checked before anything is
+// built from them.
+template <class Described>
+const Described& validated(const Described& described) {
+  if (auto p = validate(described))
+    throw Error(ErrorKind::invalid_request, p->message, {p->subject});
+  return described;
 }
 
 // A request, checked against the circuit before it runs.
@@ -35,8 +38,8 @@ void check_request(const Circuit& circuit, const AnalysisOptions& options) {
 }
 
 struct Simulation::State {
-  explicit State(const Circuit& c)
-      : circuit(validated(c)), system(assemble(circuit)), newton(system, circuit.solver) {
+  State(const Circuit& c, const SolverOptions& solver)
+      : circuit(validated(c)), system(assemble(circuit)), newton(system, solver) {
     solution.assign(static_cast<std::size_t>(system.size()) + 1, 0.0);
     counters.systems_built = 1;
   }
@@ -69,12 +72,15 @@ struct Simulation::State {
   SimulationCounters counters;
 };
 
-Simulation::Simulation(const Circuit& circuit) : state_(std::make_unique<State>(circuit)) {}
+Simulation::Simulation(const Circuit& circuit, const SolverOptions& solver)
+    : state_(std::make_unique<State>(circuit, validated(solver))) {}
 Simulation::~Simulation() = default;
 Simulation::Simulation(Simulation&&) noexcept = default;
 Simulation& Simulation::operator=(Simulation&&) noexcept = default;
 
 const Circuit& Simulation::circuit() const { return state_->circuit; }
+
+const SolverOptions& Simulation::solver() const { return state_->newton.options(); }
 
 SimulationCounters Simulation::counters() const { return state_->counters; }
 
