@@ -4,6 +4,7 @@
 #include <memory>
 
 #include "mna/device.hpp"
+#include "stage/circuit.hpp"
 
 namespace stage::mna {
 class Topology;

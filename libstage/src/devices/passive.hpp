@@ -4,6 +4,7 @@
 #include <memory>
 
 #include "devices/stamp.hpp"
+#include "stage/circuit.hpp"
 
 namespace stage::mna {
 class Topology;

@@ -8,6 +8,7 @@
 
 #include "mna/device.hpp"
 #include "stage/bias.hpp"
+#include "stage/circuit.hpp"
 #include "stage/errors.hpp"
 
 namespace stage::mna {

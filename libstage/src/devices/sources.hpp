@@ -6,6 +6,7 @@
 #include <optional>
 
 #include "devices/stamp.hpp"
+#include "stage/circuit.hpp"
 
 namespace stage::mna {
 class Topology;

@@ -5,8 +5,8 @@
 #include <utility>
 #include <vector>
 
-#include "mna/device.hpp"
 #include "mna/topology.hpp"
+#include "mna/types.hpp"
 
 namespace stage::mna {
 

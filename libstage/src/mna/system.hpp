@@ -11,6 +11,7 @@
 #include "mna/device.hpp"
 #include "mna/pattern.hpp"
 #include "mna/topology.hpp"
+#include "stage/circuit.hpp"
 
 namespace stage::mna {
 

@@ -10,7 +10,7 @@
 #include <unordered_map>
 #include <vector>
 
-#include "mna/device.hpp"
+#include "mna/types.hpp"
 
 namespace stage::mna {
 

@@ -5,7 +5,7 @@
 #include <string>
 #include <vector>
 
-#include "mna/device.hpp"
+#include "mna/types.hpp"
 
 namespace stage::mna {
 
