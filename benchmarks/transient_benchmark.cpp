@@ -11,7 +11,7 @@
 #include "analysis/newton.hpp"
 #include "analysis/transient.hpp"
 #include "simulation/assemble.hpp"
-#include "transient/follower_chain.hpp"
+#include "analysis/follower_chain.hpp"
 
 namespace {
 

@@ -12,7 +12,7 @@
 #include <limits>
 #include <string>
 
-#include "headroom/stages.hpp"
+#include "large_signal/stages.hpp"
 #include "stage/errors.hpp"
 #include "stage/headroom.hpp"
 #include "stage/reader.hpp"

@@ -9,7 +9,7 @@
 #include <cmath>
 #include <limits>
 
-#include "headroom/stages.hpp"
+#include "large_signal/stages.hpp"
 #include "stage/characterize.hpp"
 #include "stage/errors.hpp"
 #include "stage/headroom.hpp"

@@ -3,7 +3,7 @@
 // and 17): the sweep, the derived corners, and the impedances.
 #include <gtest/gtest.h>
 
-#include "frequency/response_checks.hpp"
+#include "analysis/response_checks.hpp"
 #include "stage/frequency.hpp"
 
 namespace {

@@ -7,7 +7,7 @@
 // capacitors) keeps the midband flat, so every frequency point is midband.
 #include <gtest/gtest.h>
 
-#include "frequency/response_checks.hpp"
+#include "analysis/response_checks.hpp"
 #include "stage/frequency.hpp"
 
 namespace {

@@ -4,7 +4,7 @@
 // removal of the load.
 #include <gtest/gtest.h>
 
-#include "frequency/response_checks.hpp"
+#include "analysis/response_checks.hpp"
 #include "stage/errors.hpp"
 #include "stage/frequency.hpp"
 
