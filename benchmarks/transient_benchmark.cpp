@@ -8,10 +8,10 @@
 
 #include <string>
 
+#include "analysis/follower_chain.hpp"
 #include "analysis/newton.hpp"
 #include "analysis/transient.hpp"
 #include "simulation/assemble.hpp"
-#include "analysis/follower_chain.hpp"
 
 namespace {
 
