@@ -27,6 +27,19 @@ TEST(Errors, SyntaxAndRange) {
                "needs a voltage source or an inductor");
 }
 
+// Messages that say what was probably meant (issue 13's rough edges).
+TEST(Errors, MessagesSayWhatWasMeant) {
+  expect_error("r = resistor(a, gnd, 4k7)\n", 1, 24, "for 4k7 write 4.7k");
+  expect_error("r = resistor(a, gnd, 1 K\u03a9)\n", 1, 24, "did you mean 'k\u03a9'");
+  // 1e-400 is below the smallest double (about 2.2e-308, IEEE 754 binary64).
+  expect_error("r = resistor(a, gnd, 1e-400)\n", 1, 22, "underflows");
+  expect_error("q = npn(a, b, gnd, model = resistor(a, b, 1))\n", 1, 28, "the name of a model");
+  expect_error("v = voltage(vcc, vcc, 12 V)\n", 1, 1,
+               "'v' holds a voltage between 'vcc' and itself");
+  expect_error("block amp(a)\n  r = resistor(a, gnd, 1k)\n", 3, 1,
+               "block 'amp' opened at line 1 has no 'end'");
+}
+
 TEST(Errors, EmptyAndBlankFilesAreFine) {
   EXPECT_TRUE(read("").circuit.elements().empty());
   EXPECT_TRUE(read("\n\n# only a comment\n   \n").circuit.elements().empty());

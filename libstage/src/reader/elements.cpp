@@ -86,10 +86,17 @@ E Elaborator::read_element(const kinds::Descriptor<E>& kind, const kinds::Spelli
         references_.push_back({frame.file, args.offset(f.name), e.*f.text, {}});
         break;
       case kinds::FieldKind::model:
-        e.*f.text = require_name(*given, "a model name", source);
+        e.*f.text = require_name(*given, "the name of a model (from a `model` statement)", source);
         references_.push_back(
             {frame.file, args.offset(f.name), e.*f.text, std::string(kind.model_kind(e))});
         break;
+    }
+  }
+  if (kinds::has(kind.roles, kinds::Role::holds_voltage)) {
+    const std::vector<std::string> ends = kinds::nodes(ElementData(e));
+    if (ends[0] == ends[1]) {
+      source.fail(instance.offset, "'" + instance.name + "' holds a voltage between '" + ends[0] +
+                                       "' and itself: give its two terminals different nodes");
     }
   }
   for (const auto& f : kind.fields) {

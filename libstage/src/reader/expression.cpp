@@ -6,6 +6,7 @@
 #include <cerrno>
 #include <cmath>
 #include <cstdlib>
+#include <limits>
 #include <numbers>
 
 #include "reader/suggest.hpp"
@@ -94,6 +95,13 @@ class Evaluator {
     double value = std::strtod(begin, &end);
     if (errno == ERANGE && std::isinf(value)) {
       source_.fail(n.offset, "the number " + n.text + " is too large");
+    }
+    // strtod signals underflow with ERANGE and a value at or below the
+    // smallest normal double: a written nonzero number read as (nearly) zero.
+    if (errno == ERANGE && std::abs(value) <= std::numeric_limits<double>::min()) {
+      source_.fail(n.offset, "the number " + n.text.substr(0, end - begin) +
+                                 " underflows: it is smaller than a double can hold (about "
+                                 "2e-308); write 0 if zero is meant");
     }
     std::size_t at = static_cast<std::size_t>(end - begin);
     const std::size_t number_end = at;

@@ -11,6 +11,8 @@
 
 #include <boost/fusion/include/adapt_struct.hpp>
 #include <boost/spirit/home/x3.hpp>
+#include <cctype>
+#include <string>
 
 BOOST_FUSION_ADAPT_STRUCT(stage::ast::Argument, key, value)
 BOOST_FUSION_ADAPT_STRUCT(stage::ast::Call, name, arguments)
@@ -227,6 +229,48 @@ STAGE_ANNOTATE(file_r)
 
 }  // namespace grammar
 
+namespace {
+
+// What a parse failure at `offset` most likely means, beyond the rule that
+// was expected: a prefix written in place of the decimal point (4k7), or a
+// block left open. "" when nothing more can be said.
+std::string parse_hint(const std::string& text, int offset, const std::string& expected) {
+  const auto at = static_cast<std::size_t>(offset);
+  const auto digit = [&](std::size_t i) {
+    return i < text.size() && std::isdigit(static_cast<unsigned char>(text[i]));
+  };
+  std::size_t letters = at;
+  while (letters > 0 && std::isalpha(static_cast<unsigned char>(text[letters - 1]))) --letters;
+  if (digit(at) && letters < at && letters > 0 && digit(letters - 1)) {
+    std::size_t whole = letters;
+    while (whole > 0 && digit(whole - 1)) --whole;
+    std::size_t fraction = at;
+    while (digit(fraction)) ++fraction;
+    return "; for " + text.substr(whole, fraction - whole) + " write " +
+           text.substr(whole, letters - whole) + "." + text.substr(at, fraction - at) +
+           text.substr(letters, at - letters) + " (a prefix does not stand for the decimal point)";
+  }
+  // Blocks do not nest: the last `block` line before the failure is the one
+  // left open when the text ran out without its `end`.
+  if (expected.find("'end'") == std::string::npos) return "";
+  std::size_t open = std::string::npos;
+  int open_line = 0, line = 1;
+  for (std::size_t start = 0; start < at; start = text.find('\n', start) + 1, ++line) {
+    const std::size_t first = text.find_first_not_of(" \t", start);
+    if (first != std::string::npos && text.compare(first, 6, "block ") == 0) {
+      open = first + 6;
+      open_line = line;
+    }
+    if (text.find('\n', start) == std::string::npos) break;
+  }
+  if (open == std::string::npos) return "";
+  const std::size_t name_end = text.find_first_of("( \t\n", open);
+  return "; block '" + text.substr(open, name_end - open) + "' opened at line " +
+         std::to_string(open_line) + " has no 'end'";
+}
+
+}  // namespace
+
 ast::File parse(const SourceText& source) {
   namespace x3 = boost::spirit::x3;
   const std::string text = prepare_for_grammar(source);
@@ -243,7 +287,8 @@ ast::File parse(const SourceText& source) {
     // Point at what was found, not at the blanks before it.
     const char* at = failure.where();
     while (at < last && (*at == ' ' || *at == '\t' || *at == '\f')) ++at;
-    source.fail(static_cast<int>(at - begin), "expected " + failure.which());
+    const int offset = static_cast<int>(at - begin);
+    source.fail(offset, "expected " + failure.which() + parse_hint(text, offset, failure.which()));
   }
   return result;
 }

@@ -2,6 +2,8 @@
 // with its SI prefix (the prefixes are common/si_prefixes.hpp's). One table
 // lists every unit symbol so that reading and printing cannot drift apart.
 #include <array>
+#include <cctype>
+#include <string>
 
 #include "common/constants.hpp"
 #include "common/si_prefixes.hpp"
@@ -78,6 +80,20 @@ std::string_view unit_name(Quantity quantity) {
 }
 
 namespace reader {
+namespace {
+
+// "; did you mean 'kΩ'?" when the word reads with its first letter's case
+// swapped (prefixes are case-sensitive: m is milli, M mega), else "".
+std::string other_case_hint(std::string_view word) {
+  if (word.empty() || !std::isalpha(static_cast<unsigned char>(word[0]))) return "";
+  std::string swapped(word);
+  const auto c = static_cast<unsigned char>(swapped[0]);
+  swapped[0] = static_cast<char>(std::isupper(c) ? std::tolower(c) : std::toupper(c));
+  if (!read_unit(swapped, true).error.empty()) return "";
+  return "; did you mean '" + swapped + "'? (prefixes are case-sensitive: k kilo, m milli, M mega)";
+}
+
+}  // namespace
 
 UnitReading read_unit(std::string_view word, bool touching) {
   for (const UnitSymbol& unit : kUnits) {
@@ -98,7 +114,8 @@ UnitReading read_unit(std::string_view word, bool touching) {
       }
     }
   }
-  return {1, 0, std::nullopt, "'" + std::string(word) + "' is not a unit or SI prefix"};
+  return {1, 0, std::nullopt,
+          "'" + std::string(word) + "' is not a unit or SI prefix" + other_case_hint(word)};
 }
 
 bool units_fit(Quantity given, Quantity wanted) {
