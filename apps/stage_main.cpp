@@ -30,7 +30,7 @@ Examples:
   stage run follower.stage                 readable tables of every analysis in the file
   stage run follower.stage --json          one JSON document (keys as in the format spec)
   stage run follower.stage --csv results   one CSV file per analysis in results/
-  stage run follower.stage --set rl=16     override a `let` parameter (SI units: 16 means 16 ohm)
+  stage run follower.stage --set rl=16k    override a `let` parameter, written as in the file
   stage check follower.stage               read and check the file, run nothing
   stage curves check models/transistors.stage models/curves/small_npn_*.csv
                                            compare a model with its reference curves
@@ -58,16 +58,13 @@ stage::ReadOptions read_options(const Settings& s) {
   options.model_path.insert(options.model_path.end(), defaults.begin(), defaults.end());
   for (const auto& assignment : s.sets) {
     const auto eq = assignment.find('=');
-    char* end = nullptr;
-    const std::string value = eq == std::string::npos ? "" : assignment.substr(eq + 1);
-    const double number = std::strtod(value.c_str(), &end);
-    if (eq == std::string::npos || eq == 0 || value.empty() || *end != '\0') {
+    if (eq == std::string::npos || eq == 0 || eq + 1 == assignment.size()) {
       throw stage::InputError({"--set", 0, 0},
-                              "expected NAME=NUMBER in SI units (for example rl=32 or "
-                              "c1=4.7e-6), got '" +
+                              "expected NAME=VALUE, the value as a let statement writes it "
+                              "(for example rl=16k or rl=16kΩ), got '" +
                                   assignment + "'");
     }
-    options.overrides[assignment.substr(0, eq)] = number;
+    options.written_overrides[assignment.substr(0, eq)] = assignment.substr(eq + 1);
   }
   return options;
 }

@@ -228,3 +228,27 @@ TEST(Command, FollowerJsonMatchesGolden) {
 }
 
 }  // namespace
+
+// --set takes values as the file writes them (units, prefixes) and reports
+// its own errors as coming from the command line.
+TEST(Command, SetTakesValuesWithUnitsAndNamesTheCommandLine) {
+  const auto file = stage::testing::write_temp("set.stage",
+                                               "let rl = 1 kΩ\n"
+                                               "v1 = voltage(a, gnd, 10 V)\n"
+                                               "r1 = resistor(a, gnd, rl)\n"
+                                               "analyze bias()\n");
+  // 10 V across 16 kΩ: 625 µA (Ohm's law).
+  const auto set = stage::testing::run("run " + file.string() + " --json --set rl=16k");
+  ASSERT_EQ(set.status, 0) << set.out;
+  EXPECT_NEAR(nlohmann::json::parse(set.out)["analyses"][0]["element_currents"]["r1.current"],
+              10.0 / 16e3, 1e-12);
+  const auto with_unit = stage::testing::run("run " + file.string() + " --set rl=16kΩ");
+  EXPECT_EQ(with_unit.status, 0) << with_unit.out;
+  const auto wrong_unit = stage::testing::run("check " + file.string() + " --set rl=16V");
+  EXPECT_EQ(wrong_unit.status, 2) << wrong_unit.out;
+  EXPECT_NE(wrong_unit.out.find("--set:1:"), std::string::npos) << wrong_unit.out;
+  EXPECT_NE(wrong_unit.out.find("in Ω in the file"), std::string::npos) << wrong_unit.out;
+  const auto unknown = stage::testing::run("check " + file.string() + " --set r=16k");
+  EXPECT_EQ(unknown.status, 2) << unknown.out;
+  EXPECT_NE(unknown.out.find("(nearest: rl)"), std::string::npos) << unknown.out;
+}

@@ -19,8 +19,11 @@ struct ReadOptions {
   // Searched for `include` after the including file's own folder. The
   // project's models/ folder is appended by default_model_path().
   std::vector<std::filesystem::path> model_path;
-  // `let` parameters overridden from outside (the command's --set NAME=VALUE).
+  // `let` parameters overridden from outside: by number (SI units), or
+  // written as in the language, units and expressions allowed (the
+  // command's --set NAME=VALUE; errors name "--set").
   std::map<std::string, double> overrides;
+  std::map<std::string, std::string> written_overrides;
 };
 
 // The model search path: $STAGE_MODEL_PATH (colon-separated) then the

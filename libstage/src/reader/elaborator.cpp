@@ -6,7 +6,9 @@
 #include <algorithm>
 #include <cmath>
 
+#include "reader/grammar.hpp"
 #include "reader/suggest.hpp"
+#include "reader/unit_table.hpp"
 
 namespace stage::elaborate {
 
@@ -38,12 +40,15 @@ void Elaborator::run() {
   collect_blocks(main);
   statements(main.ast.statements, Frame{&main, "", {}, &globals_, {}});
   check_references();
-  for (const auto& [name, value] : options_.overrides) {
+  std::vector<std::string> overridden;
+  for (const auto& [name, value] : options_.overrides) overridden.push_back(name);
+  for (const auto& [name, text] : options_.written_overrides) overridden.push_back(name);
+  for (const std::string& name : overridden) {
     if (!used_overrides_.count(name)) {
       std::vector<std::string> lets = globals_.names();
-      throw InputError(
-          {main.source.file_name(), 0, 0},
-          "the override '" + name + "' names no let parameter" + reader::suggestion(name, lets));
+      throw InputError({"--set", 0, 0}, "'" + name + "' names no let parameter of " +
+                                            main.source.file_name() +
+                                            reader::suggestion(name, lets));
     }
   }
   for (const auto& [file, analyze] : analyses_) analysis(*analyze, *file);
@@ -132,12 +137,38 @@ void Elaborator::let(const ast::Let& let, const Frame& frame, reader::Scope& sco
   }
   reader::Value value = reader::evaluate(let.value, scope, frame.file->source);
   const auto override = options_.overrides.find(let.name);
+  const auto written = options_.written_overrides.find(let.name);
   if (frame.blocks.empty() && override != options_.overrides.end()) {
     value.number = override->second;
+    used_overrides_.insert(let.name);
+  } else if (frame.blocks.empty() && written != options_.written_overrides.end()) {
+    value = written_override(let.name, written->second, value, scope);
     used_overrides_.insert(let.name);
   }
   if (std::isnan(value.number)) fail(frame, let.offset, "this value is not a number");
   scope.set(let.name, value);
+}
+
+// A --set value, read as the language reads a `let`'s (units, prefixes,
+// expressions over the parameters above), in a source of its own so that an
+// error names the command line; its unit must fit the one it replaces.
+reader::Value Elaborator::written_override(const std::string& name, const std::string& text,
+                                           const reader::Value& replaced,
+                                           const reader::Scope& scope) const {
+  const reader::SourceText source("--set", "let " + name + " = " + text + "\n");
+  const ast::File parsed = reader::parse(source);
+  const auto* let =
+      parsed.statements.size() == 1 ? boost::get<ast::Let>(&parsed.statements[0]) : nullptr;
+  if (let == nullptr) source.fail(0, "expected NAME=VALUE, a value as a let statement takes");
+  reader::Value value = reader::evaluate(let->value, scope, source);
+  if (value.quantity && replaced.quantity &&
+      !reader::units_fit(*value.quantity, *replaced.quantity)) {
+    source.fail(ast::offset_of(let->value),
+                "'" + name + "' is in " + std::string(unit_name(*replaced.quantity)) +
+                    " in the file; this value is in " + std::string(unit_name(*value.quantity)));
+  }
+  if (!value.quantity) value.quantity = replaced.quantity;
+  return value;
 }
 
 void Elaborator::solver(const ast::Solver& solver, const Frame& frame) {

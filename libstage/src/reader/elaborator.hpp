@@ -60,6 +60,8 @@ class Elaborator {
   void statements(const std::vector<ast::Statement>& list, const Frame& frame);
   void let(const ast::Let& let, const Frame& frame, reader::Scope& scope);
   void solver(const ast::Solver& solver, const Frame& frame);
+  reader::Value written_override(const std::string& name, const std::string& text,
+                                 const reader::Value& replaced, const reader::Scope& scope) const;
   void instantiate_block(const ast::Instance& instance, const Frame& frame);
   void check_references();
   std::string node(const ast::Expr& e, const Frame& frame);
