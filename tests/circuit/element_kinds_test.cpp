@@ -87,8 +87,8 @@ TEST(ElementKinds, RolesReplaceKindTests) {
   EXPECT_TRUE(kinds::has_role(CurrentSource{}, kinds::Role::independent_source));
   EXPECT_FALSE(kinds::has_role(VoltageControlledVoltageSource{}, kinds::Role::independent_source));
   EXPECT_TRUE(kinds::has_role(Capacitor{}, kinds::Role::stores_energy));
-  EXPECT_TRUE(kinds::has_role(Inductor{}, kinds::Role::sensed_current));
-  EXPECT_FALSE(kinds::has_role(Resistor{}, kinds::Role::sensed_current));
+  EXPECT_TRUE(kinds::has_role(Inductor{}, kinds::Role::branch_current));
+  EXPECT_FALSE(kinds::has_role(Resistor{}, kinds::Role::branch_current));
   EXPECT_TRUE(kinds::has_role(Diode{}, kinds::Role::one_port));
   EXPECT_FALSE(kinds::has_role(Bipolar{}, kinds::Role::single_current));
 }

@@ -44,6 +44,24 @@ TEST(Topology, EveryUnknownHasAKindANameAndAnOwner) {
   EXPECT_FALSE(t.find_branch("q1").has_value());
 }
 
+// A sensed terminal's own node: inside the element (no circuit node), found
+// by its name so that the element's device is made on it, and listed for
+// the element.
+TEST(Topology, TerminalNodeIsTheElementsAndFoundByName) {
+  Topology t;
+  const auto in = t.node("in");
+  const auto collector = t.terminal_node("q1", "collector");
+  EXPECT_EQ(t.name(collector), "q1:collector");
+  EXPECT_TRUE(t.is_internal_node(collector));
+  EXPECT_FALSE(t.is_circuit_node(collector));
+  EXPECT_EQ(t.owner(collector), "q1");
+  EXPECT_EQ(t.node("q1:collector"), collector);
+  EXPECT_NE(t.node("in"), collector);
+  EXPECT_EQ(t.node("in"), in);
+  EXPECT_EQ(t.terminal_nodes("q1"), std::vector<stage::mna::Index>{collector});
+  EXPECT_TRUE(t.terminal_nodes("in").empty());
+}
+
 // Two unknowns of one kind and owner would share a name: a device's mistake.
 TEST(Topology, AnOwnerHasOneUnknownOfEachKind) {
   Topology t;

@@ -52,6 +52,8 @@ TEST(Statements, ControlledSourcesAndSemiconductors) {
       "g1 = vccs(o2, gnd, control = (a, o1), gain = 2 mS)\n"
       "f1 = cccs(o3, gnd, sense = vs, gain = 50)\n"
       "h1 = ccvs(o4, gnd, sense = vs, gain = 1 kΩ)\n"
+      "f2 = cccs(o5, gnd, sense = d1, gain = 2)\n"
+      "h2 = ccvs(o6, gnd, sense = q1.collector, gain = 1 kΩ)\n"
       "d1 = diode(a, o1, model = dm, area = 2)\n"
       "q1 = pnp(collector = c, base = b, emitter = e, substrate = s, model = qp)\n"
       "model dm = diode { saturation_current = 1 fA }\nmodel qp = pnp { beta_forward = 150 }\n");
@@ -61,6 +63,8 @@ TEST(Statements, ControlledSourcesAndSemiconductors) {
   EXPECT_DOUBLE_EQ(element<VoltageControlledCurrentSource>(deck, "g1").gain, 2e-3);
   EXPECT_EQ(element<CurrentControlledCurrentSource>(deck, "f1").sense, "vs");
   EXPECT_DOUBLE_EQ(element<CurrentControlledVoltageSource>(deck, "h1").gain, 1e3);
+  EXPECT_EQ(element<CurrentControlledCurrentSource>(deck, "f2").sense, "d1");
+  EXPECT_EQ(element<CurrentControlledVoltageSource>(deck, "h2").sense, "q1.collector");
   EXPECT_DOUBLE_EQ(element<Diode>(deck, "d1").area, 2);
   const auto& q1 = element<Bipolar>(deck, "q1");
   EXPECT_EQ(q1.polarity, Polarity::pnp);

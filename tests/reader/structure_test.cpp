@@ -23,8 +23,17 @@ TEST(Errors, SyntaxAndRange) {
   expect_error("x = \xff\n", 1, 5, "not valid UTF-8");
   expect_error("let x = " + std::string(150, '(') + "1" + std::string(150, ')') + "\n", 1, 109,
                "nested more than");
-  expect_error("f = cccs(a, gnd, sense = r1, gain = 2)\nr1 = resistor(a, gnd, 1)\n", 1, 18,
-               "needs a voltage source or an inductor");
+  expect_error("f = cccs(a, gnd, sense = r2, gain = 2)\nr1 = resistor(a, gnd, 1)\n", 1, 18,
+               "no element named 'r2' (nearest: r1");
+  const std::string transistor = "model m = npn { }\nq1 = npn(c, b, gnd, model = m)\n";
+  expect_error(transistor + "f = cccs(a, gnd, sense = q1.colector, gain = 2)\n", 3, 18,
+               "'q1' has no connected terminal named 'colector' (nearest: collector");
+  expect_error(transistor + "f = cccs(a, gnd, sense = q1.substrate, gain = 2)\n", 3, 18,
+               "no connected terminal named 'substrate'");
+  expect_error(transistor + "f = cccs(a, gnd, sense = q1, gain = 2)\n", 3, 18,
+               "name one (q1.collector, q1.base, q1.emitter)");
+  expect_error(transistor + "f = cccs(a, gnd, sense = q2.collector, gain = 2)\n", 3, 18,
+               "no element named 'q2.collector' (nearest: q1.collector");
 }
 
 // Messages that say what was probably meant (issue 13's rough edges).

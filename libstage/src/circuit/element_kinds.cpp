@@ -1,6 +1,8 @@
 // The questions asked of an element, answered from its kind's descriptor.
 #include "circuit/element_kinds.hpp"
 
+#include <algorithm>
+
 namespace stage::kinds {
 namespace {
 
@@ -54,6 +56,53 @@ std::vector<std::string> nodes(const ElementData& data) {
 
 bool has_role(const ElementData& data, Role role) {
   return with_descriptor(data, [&](const auto&, const auto& d) { return has(d.roles, role); });
+}
+
+std::vector<std::string> terminal_names(const ElementData& data) {
+  return with_descriptor(data, [](const auto& e, const auto& d) {
+    std::vector<std::string> out;
+    for (const auto& f : d.fields) {
+      const bool connected = f.kind == FieldKind::terminal ||
+                             (f.kind == FieldKind::optional_terminal && (e.*f.optional_text));
+      if (connected) out.emplace_back(f.name);
+    }
+    return out;
+  });
+}
+
+bool set_terminal(ElementData& data, std::string_view terminal, const std::string& node) {
+  return with_descriptor(data, [&](auto& e, const auto& d) {
+    for (const auto& f : d.fields) {
+      if (f.name != terminal) continue;
+      if (f.kind == FieldKind::terminal) e.*f.text = node;
+      if (f.kind == FieldKind::optional_terminal) e.*f.optional_text = node;
+      return f.kind == FieldKind::terminal || f.kind == FieldKind::optional_terminal;
+    }
+    return false;
+  });
+}
+
+SensedCurrent sensed_current(const Circuit& circuit, const std::string& sense) {
+  if (const Element* whole = circuit.find(sense)) {
+    if (has_role(whole->data, Role::branch_current)) return {whole, "", ""};
+    const std::vector<std::string> terminals = terminal_names(whole->data);
+    if (has_role(whole->data, Role::single_current)) return {whole, terminals.front(), ""};
+    std::string list;
+    for (const auto& t : terminals) list += (list.empty() ? "" : ", ") + sense + "." + t;
+    return {whole, "",
+            "'" + sense + "' (" + std::string(keyword(whole->data)) +
+                ") carries a different current at each terminal; name one (" + list + ")"};
+  }
+  const auto dot = sense.rfind('.');
+  const Element* owner = dot == std::string::npos ? nullptr : circuit.find(sense.substr(0, dot));
+  if (owner == nullptr) return {nullptr, "", "no element named '" + sense + "'"};
+  const std::string terminal = sense.substr(dot + 1);
+  const std::vector<std::string> terminals = terminal_names(owner->data);
+  if (std::find(terminals.begin(), terminals.end(), terminal) == terminals.end()) {
+    return {owner, terminal,
+            "'" + owner->name + "' has no connected terminal named '" + terminal + "'"};
+  }
+  return {owner, terminal, ""};
 }
 
 std::optional<Amplifier> amplifier(const ElementData& data) {

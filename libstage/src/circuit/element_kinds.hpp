@@ -49,6 +49,26 @@ std::vector<std::string> nodes(const ElementData& data);
 
 bool has_role(const ElementData& data, Role role);
 
+// The names of its terminals that are connected, in the language's order
+// ("a", "b"; "collector", "base", "emitter", and "substrate" when given).
+std::vector<std::string> terminal_names(const ElementData& data);
+
+// Connects its terminal `terminal` to `node`; false if it has no such terminal.
+bool set_terminal(ElementData& data, std::string_view terminal, const std::string& node);
+
+// What `sense = name` of a current-controlled source names (spec section 3):
+// an element whose reported current is a branch of its own (terminal
+// empty); another element with one current, at its first terminal; or
+// `<element>.<terminal>`, the current into the element at that terminal.
+// An element or terminal that cannot be sensed leaves `problem` saying why,
+// with `element` null when there is no such element.
+struct SensedCurrent {
+  const Element* element = nullptr;
+  std::string terminal;
+  std::string problem;
+};
+SensedCurrent sensed_current(const Circuit& circuit, const std::string& sense);
+
 // The nodes of an amplifying element (a transistor) by its descriptor's
 // AmplifierTerminals, with the terminals' names and its polarity.
 struct Amplifier {

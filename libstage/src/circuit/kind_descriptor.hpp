@@ -130,7 +130,7 @@ enum class Role : unsigned {
   none = 0,
   independent_source = 1u << 0,  // drives a circuit: an input, a supply
   stores_energy = 1u << 1,       // its mean power over a period is stored, not spent
-  sensed_current = 1u << 2,      // carries a branch current that `sense =` may name
+  branch_current = 1u << 2,      // its reported current is a branch unknown of its own
   one_port = 1u << 3,            // two terminals, one current: may be a load
   single_current = 1u << 4,      // one current flows through it, `<name>.current`
   holds_voltage = 1u << 5,       // fixes the voltage between its terminals

@@ -58,13 +58,13 @@ std::optional<Problem> model_problem(const std::string& name, const Model& model
   return std::nullopt;
 }
 
-// A sensed element must carry a branch current (spec section 3).
+// What `sense =` names must be an element's current or a terminal of an
+// element (spec section 3).
 std::optional<Problem> sense_problem(const Circuit& circuit, const std::string& name,
                                      const std::string& sense) {
-  const Element* e = circuit.find(sense);
-  if (e != nullptr && kinds::has_role(e->data, kinds::Role::sensed_current)) return std::nullopt;
-  return Problem{name, "'" + name + "' senses '" + sense +
-                           "', which is not a voltage source or an inductor of the circuit"};
+  const kinds::SensedCurrent sensed = kinds::sensed_current(circuit, sense);
+  if (sensed.problem.empty()) return std::nullopt;
+  return Problem{name, "'" + name + "' senses '" + sense + "': " + sensed.problem};
 }
 
 // True when the circuit has a model of the kind E's `model =` refers to.

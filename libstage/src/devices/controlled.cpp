@@ -1,6 +1,7 @@
 // Stamps of the controlled sources.
 #include "devices/controlled.hpp"
 
+#include "devices/ammeter.hpp"
 #include "mna/topology.hpp"
 #include "mna/topology_check.hpp"
 #include "stage/errors.hpp"
@@ -13,7 +14,7 @@ mna::Index sensed_branch(mna::PatternBuilder& pattern, const std::string& device
   if (!branch) {
     throw Error(
         ErrorKind::invalid_request,
-        "'" + device + "' senses '" + sense + "', which is not a voltage source or inductor",
+        "'" + device + "' senses '" + sense + "', which is no element's current or terminal",
         {device, sense});
   }
   return *branch;
@@ -139,17 +140,18 @@ std::unique_ptr<mna::Device> make_device(const std::string& name,
 }
 
 std::unique_ptr<mna::Device> make_device(const std::string& name,
-                                         const CurrentControlledCurrentSource& e, const Circuit&,
-                                         mna::Topology& t) {
+                                         const CurrentControlledCurrentSource& e,
+                                         const Circuit& circuit, mna::Topology& t) {
   const auto a = t.node(e.a), b = t.node(e.b);
-  return std::make_unique<CccsDevice>(name, a, b, e.sense, e.gain);
+  return std::make_unique<CccsDevice>(name, a, b, sensed_branch_owner(circuit, e.sense), e.gain);
 }
 
 std::unique_ptr<mna::Device> make_device(const std::string& name,
-                                         const CurrentControlledVoltageSource& e, const Circuit&,
-                                         mna::Topology& t) {
+                                         const CurrentControlledVoltageSource& e,
+                                         const Circuit& circuit, mna::Topology& t) {
   const auto p = t.node(e.p), n = t.node(e.n);
-  return std::make_unique<CcvsDevice>(name, p, n, t.branch(name), e.sense, e.gain);
+  return std::make_unique<CcvsDevice>(name, p, n, t.branch(name),
+                                      sensed_branch_owner(circuit, e.sense), e.gain);
 }
 
 }  // namespace stage::devices

@@ -1,7 +1,8 @@
 // The four linear controlled sources. Voltage-output kinds own a branch
 // current (delivered out of p, like an independent voltage source);
-// current-controlled kinds read the branch current of their sensed element,
-// which is resolved in declare() once every device exists.
+// current-controlled kinds read the branch current of their sensed element
+// (its own, or its ammeter's: devices/ammeter.hpp), which is resolved in
+// declare() once every device exists.
 #pragma once
 
 #include <memory>
@@ -84,7 +85,8 @@ class CcvsDevice final : public mna::Device {
   mna::Slot k_s_ = 0;
 };
 
-// The branch unknown of the element a current-controlled source senses.
+// The branch unknown owned by `sense` (sensed_branch_owner), which a
+// current-controlled source reads.
 mna::Index sensed_branch(mna::PatternBuilder& pattern, const std::string& device,
                          const std::string& sense);
 

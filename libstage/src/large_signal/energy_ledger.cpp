@@ -15,16 +15,21 @@ EnergyLedger::EnergyLedger(const Circuit& circuit, const mna::System& system)
   for (const auto& device : system.devices()) {
     const Element* element = circuit.find(device->name());
     const std::size_t first = terminals_.size();
+    // A terminal shared with another of the same device (base tied to
+    // collector) is one row: counting it twice would double its power.
+    const auto add_terminal = [&](mna::Index index) {
+      if (std::find(terminals_.begin() + first, terminals_.end(), index) == terminals_.end()) {
+        terminals_.push_back(index);
+      }
+    };
     for (const std::string& name :
          element == nullptr ? std::vector<std::string>{} : kinds::nodes(element->data)) {
       const auto index = name == kGround ? std::optional<mna::Index>(0) : topology.find_node(name);
       if (!index) throw Error(ErrorKind::invalid_request, "no node named '" + name + "'", {name});
-      // A terminal shared with another of the same device (base tied to
-      // collector) is one row: counting it twice would double its power.
-      if (std::find(terminals_.begin() + first, terminals_.end(), *index) == terminals_.end()) {
-        terminals_.push_back(*index);
-      }
+      add_terminal(*index);
     }
+    // A sensed terminal sits on its own node behind an ammeter.
+    for (const mna::Index index : topology.terminal_nodes(device->name())) add_terminal(index);
     offsets_.push_back(terminals_.size());
   }
   const std::size_t devices = offsets_.size() - 1;

@@ -95,8 +95,10 @@ TransientResult SineDrive::run(double amplitude, int periods, DriveMeasurement& 
   m.element_power.clear();
   if (ledger) {
     const std::vector<double> power = ledger->mean_power();
+    // Per element: a device no element describes (an ammeter) has none.
     for (std::size_t d = 0; d < power.size(); ++d) {
-      m.element_power.emplace_back(system.devices()[d]->name(), power[d]);
+      const std::string& name = system.devices()[d]->name();
+      if (simulation_.circuit().find(name) != nullptr) m.element_power.emplace_back(name, power[d]);
     }
   }
   return result;

@@ -42,6 +42,20 @@ Index Topology::internal_node(const std::string& device, const std::string& suff
   return add(device + ":" + suffix, UnknownKind::voltage, device);
 }
 
+Index Topology::terminal_node(const std::string& element, const std::string& terminal) {
+  const Index i = internal_node(element, terminal);
+  nodes_.emplace(names_[i], i);
+  terminal_nodes_.emplace(element, i);
+  return i;
+}
+
+std::vector<Index> Topology::terminal_nodes(const std::string& element) const {
+  std::vector<Index> out;
+  const auto [first, last] = terminal_nodes_.equal_range(element);
+  for (auto it = first; it != last; ++it) out.push_back(it->second);
+  return out;
+}
+
 Index Topology::add_unknown(const std::string& owner, UnknownKind kind) {
   std::string name = owner + "." + std::string(to_string(kind));
   const auto [it, inserted] = owned_.emplace(name, static_cast<Index>(names_.size()));

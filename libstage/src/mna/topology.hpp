@@ -35,6 +35,14 @@ class Topology {
   // A node inside a device (for example behind a series resistance), named
   // "<device>:<suffix>" so that failure messages can point at it.
   Index internal_node(const std::string& device, const std::string& suffix);
+  // A node between element `element`'s terminal `terminal` and the circuit
+  // node it is written on, where an ammeter measures the current into the
+  // element there: an internal node named "<element>:<terminal>", which
+  // node() then returns for that name (the element's device is made with the
+  // terminal on it).
+  Index terminal_node(const std::string& element, const std::string& terminal);
+  // The terminal nodes terminal_node added for `element`.
+  std::vector<Index> terminal_nodes(const std::string& element) const;
   // An unknown of `kind` that device `owner` adds to the system, named
   // "<owner>.<kind>" ("q1.temperature"): at most one of each kind per owner
   // (a second throws std::logic_error, a device's mistake).
@@ -69,7 +77,8 @@ class Topology {
   std::vector<UnknownKind> kinds_;
   std::vector<std::string> owners_;
   std::unordered_map<std::string, Index> nodes_;
-  std::unordered_map<std::string, Index> owned_;  // add_unknown's, by name
+  std::unordered_map<std::string, Index> owned_;                // add_unknown's, by name
+  std::unordered_multimap<std::string, Index> terminal_nodes_;  // by element
 };
 
 }  // namespace stage::mna

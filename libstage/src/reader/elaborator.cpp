@@ -275,23 +275,33 @@ std::string Elaborator::node(const ast::Expr& e, const Frame& frame) {
   return global;
 }
 
+// `sense = name`: an element's current or `<element>.<terminal>` (spec
+// section 3), with near names suggested when it is neither.
+void Elaborator::check_sensed(const Reference& r) const {
+  const kinds::SensedCurrent sensed = kinds::sensed_current(deck_.circuit, r.name);
+  if (sensed.problem.empty()) return;
+  if (sensed.element == nullptr) {
+    std::vector<std::string> names;
+    for (const Element& e : deck_.circuit.elements()) {
+      names.push_back(e.name);
+      for (const auto& t : kinds::terminal_names(e.data)) names.push_back(e.name + "." + t);
+    }
+    r.file->source.fail(r.offset, sensed.problem + reader::suggestion(r.name, names));
+  }
+  const std::string hint =
+      sensed.terminal.empty()
+          ? ""
+          : reader::suggestion(sensed.terminal, kinds::terminal_names(sensed.element->data));
+  r.file->source.fail(r.offset, sensed.problem + hint);
+}
+
 void Elaborator::check_references() {
   for (const Reference& r : references_) {
     const auto fail_here = [&](const std::string& message) {
       r.file->source.fail(r.offset, message);
     };
     if (r.model_kind.empty()) {
-      const auto it = element_kinds_.find(r.name);
-      if (it == element_kinds_.end()) {
-        std::vector<std::string> names;
-        for (const auto& [name, kind] : element_kinds_) names.push_back(name);
-        fail_here("no element named '" + r.name + "'" + reader::suggestion(r.name, names));
-      }
-      const Element* sensed = deck_.circuit.find(r.name);
-      if (sensed == nullptr || !kinds::has_role(sensed->data, kinds::Role::sensed_current)) {
-        fail_here("'" + r.name + "' is a " + it->second +
-                  "; sense = needs a voltage source or an inductor");
-      }
+      check_sensed(r);
       continue;
     }
     const auto model = models_.find(r.name);

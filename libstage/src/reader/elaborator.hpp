@@ -64,6 +64,7 @@ class Elaborator {
                                  const reader::Value& replaced, const reader::Scope& scope) const;
   void instantiate_block(const ast::Instance& instance, const Frame& frame);
   void check_references();
+  void check_sensed(const Reference& r) const;
   std::string node(const ast::Expr& e, const Frame& frame);
   std::string element_name(const std::string& local, const Frame& frame) const;
   [[noreturn]] void fail(const Frame& frame, int offset, const std::string& message) const;

@@ -13,8 +13,8 @@ struct KindOf<VoltageControlledVoltageSource> {
       terminal("p", &E::p), terminal("n", &E::n),
       control_pair("control", &E::control_p, &E::control_n),
       value("gain", &E::gain, Quantity::dimensionless).required()};
-  static constexpr Descriptor<E> descriptor{spellings, fields,
-                                            Role::single_current | Role::holds_voltage};
+  static constexpr Descriptor<E> descriptor{
+      spellings, fields, Role::single_current | Role::branch_current | Role::holds_voltage};
 };
 
 template <>
@@ -44,8 +44,8 @@ struct KindOf<CurrentControlledVoltageSource> {
   static constexpr Field<E> fields[] = {terminal("p", &E::p), terminal("n", &E::n),
                                         sensed_element("sense", &E::sense),
                                         value("gain", &E::gain, Quantity::resistance).required()};
-  static constexpr Descriptor<E> descriptor{spellings, fields,
-                                            Role::single_current | Role::holds_voltage};
+  static constexpr Descriptor<E> descriptor{
+      spellings, fields, Role::single_current | Role::branch_current | Role::holds_voltage};
 };
 
 }  // namespace stage::kinds

@@ -43,7 +43,7 @@ struct KindOf<Inductor> {
       optional_value("initial", &Inductor::initial_current, Quantity::current)};
   static constexpr Descriptor<Inductor> descriptor{
       spellings, fields,
-      Role::one_port | Role::single_current | Role::stores_energy | Role::sensed_current,
+      Role::one_port | Role::single_current | Role::stores_energy | Role::branch_current,
       "inductance"};
 };
 

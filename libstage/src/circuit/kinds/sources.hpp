@@ -26,7 +26,7 @@ struct KindOf<VoltageSource> {
                                                terminal("n", &VoltageSource::n), Quantity::voltage);
   static constexpr Descriptor<VoltageSource> descriptor{
       spellings, fields,
-      Role::independent_source | Role::single_current | Role::sensed_current | Role::holds_voltage,
+      Role::independent_source | Role::single_current | Role::branch_current | Role::holds_voltage,
       "dc"};
 };
 
