@@ -69,6 +69,11 @@ stage::ReadOptions read_options(const Settings& s) {
   return options;
 }
 
+// "1 analysis", "3 analyses" (the library's reports have their own, internal).
+std::string counted(std::size_t count, const char* one, const char* many) {
+  return std::to_string(count) + " " + (count == 1 ? one : many);
+}
+
 // `stage check`: everything `run` checks before it solves anything. A file
 // of models alone (a model library) has nothing to run and is fine.
 int check(const Settings& s) {
@@ -77,12 +82,13 @@ int check(const Settings& s) {
   const std::size_t models = c.models().size();
   if (c.elements().empty() && deck.analyses.empty()) {
     if (models == 0) throw stage::InputError({s.file, 0, 0}, "the file defines nothing");
-    std::cout << s.file << ": " << models << " models, no elements (a model library); no errors\n";
+    std::cout << s.file << ": " << counted(models, "model", "models")
+              << ", no elements (a model library); no errors\n";
     return 0;
   }
   stage::check_deck(deck);
-  std::cout << s.file << ": " << c.elements().size() << " elements, " << deck.analyses.size()
-            << " analyses; no errors\n";
+  std::cout << s.file << ": " << counted(c.elements().size(), "element", "elements") << ", "
+            << counted(deck.analyses.size(), "analysis", "analyses") << "; no errors\n";
   return 0;
 }
 

@@ -5,6 +5,7 @@
 
 #include "analysis/response_checks.hpp"
 #include "stage/frequency.hpp"
+#include "stage/validate.hpp"
 
 namespace {
 
@@ -123,6 +124,27 @@ TEST(Filters, SeriesRlcBandPass) {
   EXPECT_NEAR(*r.figures.phase_at_deg, 0.0, 1e-7);
   const std::size_t at = 40;
   stage::test::expect_response(r.input_impedance[at], kRs, kTolerance, "Zin at f0", f0);
+}
+
+// from = to asks for the one frequency: the response there is the exact
+// H = 1 / (1 + jwRC), and no corner or unity-gain crossing is made up from a
+// single point (they need a band). The validation accepts it; to < from not.
+TEST(Filters, SingleFrequencyHasNoCorners) {
+  const double f0 = 1 / (2 * M_PI * kR * kC);  // at the corner, where a band would find one
+  const auto r = stage::run_frequency(rc_low_pass(), sweep(f0, f0));
+  ASSERT_EQ(r.frequencies.size(), 1u);
+  EXPECT_EQ(r.frequencies[0], f0);
+  expect_sweep(r, [](double f) { return 1.0 / (1.0 + jw(f) * kR * kC); });
+  EXPECT_EQ(r.figures.midband_frequency, f0);
+  EXPECT_FALSE(r.figures.lower_cutoff);
+  EXPECT_FALSE(r.figures.upper_cutoff);
+  EXPECT_FALSE(r.figures.unity_gain_frequency);
+  const std::string full = r.full_report();
+  EXPECT_NE(full.find("1 point\n"), std::string::npos) << full;
+  EXPECT_EQ(full.find("-3 dB"), std::string::npos) << full;
+  EXPECT_EQ(r.brief_report().find("-3 dB"), std::string::npos) << r.brief_report();
+  EXPECT_FALSE(stage::validate(rc_low_pass(), sweep(f0, f0)).has_value());
+  EXPECT_TRUE(stage::validate(rc_low_pass(), sweep(f0, f0 / 2)).has_value());
 }
 
 }  // namespace

@@ -138,7 +138,9 @@ TEST(Impedance, OptionsAreChecked) {
   auto o = options("vin", stage::SignalRef::node("out"), {});
   EXPECT_FALSE(stage::frequency_options_error(c, o));
   auto bad = o;
-  bad.to = bad.from;
+  bad.to = bad.from;  // one frequency: allowed
+  EXPECT_FALSE(stage::frequency_options_error(c, bad));
+  bad.to = bad.from / 2;
   EXPECT_TRUE(stage::frequency_options_error(c, bad));
   bad = o;
   bad.per_decade = 0;

@@ -165,6 +165,91 @@ TEST(Command, CsvWritesOneFilePerAnalysis) {
   EXPECT_TRUE(fs::exists(dir / "3_headroom.csv"));
 }
 
+std::string read_file(const fs::path& path) {
+  std::ifstream in(path);
+  return {std::istreambuf_iterator<char>(in), std::istreambuf_iterator<char>()};
+}
+
+// The CSV files name every quantity as the JSON does (spec section 7): node
+// names as they are, "<element>.current", "<device>.<key>"; a sweep's
+// columns carry the transistor's figures too, and the spectrum its DC and
+// THD. `check` counts in the right number.
+TEST(Command, CsvNamesAreTheJsonNames) {
+  const auto file = write_temp(
+      "csv_names.stage",
+      "model plain = npn { }\nvcc = voltage(vcc, gnd, 10 V)\n"
+      "vin = voltage(in, gnd, wave = sine(amplitude = 1 mV, frequency = 1 kHz, offset = 0.7 V))\n"
+      "rb = resistor(in, b, 1 kΩ)\nq1 = npn(c, b, gnd, model = plain)\n"
+      "rc = resistor(vcc, c, 1 kΩ)\n"
+      "analyze bias()\nanalyze sweep(source = vin, from = 0.6 V, to = 0.7 V, step = 0.1 V)\n"
+      "analyze transient(stop = 3 ms, max_step = 10 us)\n"
+      "analyze spectrum(signal = c, fundamental = 1 kHz, harmonics = 3)\n");
+  const auto checked = run("check " + file.string());
+  EXPECT_NE(checked.out.find("5 elements, 4 analyses"), std::string::npos) << checked.out;
+  const fs::path dir = fs::temp_directory_path() / "stage_command_test_csv_names";
+  fs::remove_all(dir);
+  const auto o = run("run " + file.string() + " --csv " + dir.string());
+  ASSERT_EQ(o.status, 0) << o.out;
+  const std::string bias = read_file(dir / "1_bias.csv");
+  EXPECT_EQ(bias.find("v("), std::string::npos) << bias;
+  for (const char* row : {"\nc,", "\nrc.current,", "\nq1.collector_current,", "\nq1.region,"}) {
+    EXPECT_NE(bias.find(row), std::string::npos) << row << " in\n" << bias;
+  }
+  const std::string sweep = read_file(dir / "2_sweep.csv");
+  EXPECT_EQ(sweep.substr(0, sweep.find(",vcc.current")), "vin,vcc,in,b,c") << sweep;
+  EXPECT_NE(sweep.find(",q1.collector_current,"), std::string::npos) << sweep;
+  EXPECT_NE(sweep.find(",q1.vbe,"), std::string::npos) << sweep;
+  const std::string transient = read_file(dir / "3_transient.csv");
+  EXPECT_EQ(transient.substr(0, transient.find('\n')),
+            "time_s,vcc,in,b,c,vcc.current,vin.current,rb.current,rc.current");
+  const std::string spectrum = read_file(dir / "4_spectrum.csv");
+  EXPECT_EQ(spectrum.substr(0, spectrum.find('\n')), "n,frequency_Hz,amplitude,phase_deg,thd");
+  EXPECT_NE(spectrum.find("\n0,0,"), std::string::npos) << spectrum;  // DC as n = 0
+
+  const auto tables = run("run " + file.string());
+  EXPECT_NE(tables.out.find("q1 IC"), std::string::npos) << tables.out;
+  EXPECT_NE(tables.out.find("\n  600.0 mV "), std::string::npos) << tables.out;
+  const auto dc = tables.out.find(", DC ");
+  ASSERT_NE(dc, std::string::npos) << tables.out;
+  EXPECT_TRUE(tables.out.substr(dc, tables.out.find('\n', dc) - dc).ends_with(" V")) << tables.out;
+  EXPECT_EQ(tables.out.find("0.000 f"), std::string::npos) << tables.out;
+}
+
+// A CSV file that cannot be written in its folder (a folder stands where
+// the file should go) is a not_written error naming the file: status 2.
+TEST(Command, CsvFileThatCannotBeWrittenIsNamed) {
+  const fs::path dir = fs::temp_directory_path() / "stage_command_test_csv_blocked";
+  fs::remove_all(dir);
+  fs::create_directories(dir / "1_bias.csv");
+  const auto file = write_temp("blocked_csv.stage",
+                               "v1 = voltage(a, gnd, 1 V)\nr1 = resistor(a, gnd, 1 kΩ)\n"
+                               "analyze bias()\n");
+  const auto o = run("run " + file.string() + " --csv " + dir.string());
+  EXPECT_EQ(o.status, 2) << o.out;
+  EXPECT_NE(o.out.find("error (not_written): cannot write '" + (dir / "1_bias.csv").string()),
+            std::string::npos)
+      << o.out;
+}
+
+// A frequency analysis at one frequency (from = to) runs and has no
+// corners: the JSON holds null for them.
+TEST(Command, FrequencyAtOneFrequency) {
+  const auto file = write_temp("one_frequency.stage",
+                               "vin = voltage(in, gnd, dc = 0 V, ac = 1 V)\n"
+                               "r1 = resistor(in, out, 1 kΩ)\nc1 = capacitor(out, gnd, 1 uF)\n"
+                               "analyze frequency(from = 1 kHz, to = 1 kHz, input = vin, "
+                               "output = out)\n");
+  const auto o = run("run " + file.string() + " --json", Stderr::dropped);
+  ASSERT_EQ(o.status, 0) << o.out;
+  const auto frequency = nlohmann::json::parse(o.out)["analyses"][0];
+  ASSERT_EQ(frequency["frequency_Hz"].size(), 1u);
+  EXPECT_TRUE(frequency["lower_cutoff_Hz"].is_null());
+  EXPECT_TRUE(frequency["upper_cutoff_Hz"].is_null());
+  // |H| = 1 / sqrt(1 + (wRC)^2) of the RC low-pass (exact), wRC = 2 pi 1e3 1e3 1e-6.
+  const double wrc = 2 * M_PI * 1e3 * 1e3 * 1e-6;
+  EXPECT_NEAR(frequency["gain_dB"][0].get<double>(), -10 * std::log10(1 + wrc * wrc), 1e-9);
+}
+
 // A model whose saturation current has drifted 20 % from the one its
 // reference Gummel curve was generated with fails the check (exit 1) and the
 // message names the curve; the library's own model passes (exit 0).

@@ -47,7 +47,8 @@ TEST(SiPrefixes, PrintTheStandardSymbol) {
 
 // Engineering notation: the value over 10^(3k), k chosen so that the
 // figure lies in [1, 1000), with `digits` significant digits (definition);
-// figures outside femto to tera keep the nearest of them.
+// figures below femto are printed in femto until they round to zero, which
+// is printed plainly, and figures beyond tera in powers of ten.
 TEST(SiFormat, PrintsEngineeringNotation) {
   EXPECT_EQ(text::si(0.0047, "A"), "4.700 mA");
   EXPECT_EQ(text::si(4.7e-6, "A"), "4.700 µA");
@@ -57,8 +58,20 @@ TEST(SiFormat, PrintsEngineeringNotation) {
   EXPECT_EQ(text::si(4700, ""), "4.700k");
   EXPECT_EQ(text::si(0.99996, "A"), "1.000 A");  // rounds up into the next prefix
   EXPECT_EQ(text::si(1e-18, "A"), "0.001 fA");   // below femto: printed in femto
-  EXPECT_EQ(text::si(0, "A"), "0.000 A");
-  EXPECT_EQ(text::si(std::numeric_limits<double>::infinity(), "A"), "inf A");
+  EXPECT_EQ(text::si(0, "A"), "0 A");
+  EXPECT_EQ(text::si(-4e-20, "V"), "0 V");  // would be "-0.000 fV"
+  EXPECT_EQ(text::si(0, ""), "0");
+  EXPECT_EQ(text::si(999.9e12, "Ω"), "999.9 TΩ");
+  EXPECT_EQ(text::si(2.2088e169, "Ω"), "2.209e+169 Ω");  // not 63 digits of tera
+  EXPECT_EQ(text::si(std::numeric_limits<double>::infinity(), "Ω"), "∞ Ω");
+  EXPECT_EQ(text::si(-std::numeric_limits<double>::infinity(), "A"), "-∞ A");
+}
+
+// The noun follows the count (English grammar).
+TEST(SiFormat, CountsInTheRightNumber) {
+  EXPECT_EQ(text::counted(1, "analysis", "analyses"), "1 analysis");
+  EXPECT_EQ(text::counted(0, "analysis", "analyses"), "0 analyses");
+  EXPECT_EQ(text::counted(3, "period", "periods"), "3 periods");
 }
 
 // Curve files read the language's prefixes (curve-format.md: "as in

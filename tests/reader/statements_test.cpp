@@ -158,6 +158,22 @@ TEST(Analyses, EveryKind) {
   EXPECT_EQ(deck.analyses[8].where.line, 15);
 }
 
+// A frequency analysis from = to is the one frequency; to below from is an
+// error at `to`. A sweep's values carry their quantity for the reports' unit.
+TEST(Analyses, SingleFrequencyAndSweptQuantity) {
+  const std::string circuit =
+      "let rl = 32 Ω\nvin = voltage(in, gnd, 0, ac = 1)\nr1 = resistor(in, out, rl)\n";
+  const Deck deck = read(circuit +
+                         "analyze frequency(from = 1 kHz, to = 1 kHz, input = vin, output = out)\n"
+                         "analyze sweep(parameter = rl, values = (8 Ω, 16 Ω))\n");
+  const auto& f = std::get<FrequencyOptions>(deck.analyses[0].options);
+  EXPECT_DOUBLE_EQ(f.from, 1e3);
+  EXPECT_DOUBLE_EQ(f.to, 1e3);
+  EXPECT_EQ(std::get<SweepOptions>(deck.analyses[1].options).quantity, Quantity::resistance);
+  expect_error(circuit + "analyze frequency(from = 2 kHz, to = 1 kHz, input = vin, output = out)\n",
+               4, 33, "to must not be below from");
+}
+
 TEST(Overrides, ReplaceLetValues) {
   ReadOptions options;
   options.overrides["rl"] = 8;

@@ -11,6 +11,7 @@
 
 #include "stage/errors.hpp"
 #include "stage/signal.hpp"
+#include "stage/units.hpp"
 
 namespace stage {
 
@@ -21,6 +22,9 @@ struct SweepOptions {
   Target target = Target::source;
   std::string name;            // source or parameter name; empty for temperature
   std::vector<double> values;  // from/to/step is expanded by the reader
+  // What the values are, for the reports' unit: run_sweep sets it for a
+  // source or the temperature, the reader for a parameter with a unit.
+  Quantity quantity = Quantity::dimensionless;
 };
 
 struct FrequencyOptions {

@@ -92,8 +92,9 @@ std::optional<std::string> load_error(const Circuit& circuit, const FrequencyOpt
 
 std::optional<std::string> frequency_options_error(const Circuit& circuit,
                                                    const FrequencyOptions& options) {
-  if (!(options.from > 0) || !std::isfinite(options.to) || !(options.from < options.to)) {
-    return std::string("the frequency range needs 0 < from < to");
+  // from = to is one frequency: a single point, with no band for corners.
+  if (!(options.from > 0) || !std::isfinite(options.to) || !(options.from <= options.to)) {
+    return std::string("the frequency range needs 0 < from <= to");
   }
   if (options.per_decade <= 0) return std::string("per_decade must be at least 1");
   if (options.at && !(*options.at > 0 && std::isfinite(*options.at))) {

@@ -12,17 +12,17 @@
 namespace stage::text {
 namespace {
 
-// Reports print from femto to tera: a figure outside is shown with the
-// nearest of them (0.001 fA), as it always has been.
+// Reports print from femto to tera: a smaller figure is shown in femto
+// (0.001 fA) down to where it rounds to zero, a larger one in powers of ten.
 constexpr int kSmallestExponent = -15;
 constexpr int kLargestExponent = 12;
 
 }  // namespace
 
 std::string si(double value, std::string_view unit, int digits) {
-  const std::string space = unit.empty() ? "" : " ";
+  const std::string suffix = unit.empty() ? "" : " " + std::string(unit);
   if (std::isnan(value)) return "nan";
-  if (std::isinf(value)) return std::string(value < 0 ? "-inf" : "inf") + space + std::string(unit);
+  if (std::isinf(value)) return (value < 0 ? "-∞" : "∞") + suffix;
   int exponent = 0;
   if (value != 0.0) {
     exponent = static_cast<int>(std::floor(std::log10(std::abs(value)) / 3.0)) * 3;
@@ -35,14 +35,22 @@ std::string si(double value, std::string_view unit, int digits) {
   };
   // 999.96 m rounds to "1000.0 m": show it as 1.000 of the next prefix.
   const double step = std::pow(10.0, -decimals_for(scaled));
-  if (std::abs(std::round(scaled / step) * step) >= 1000 && exponent < kLargestExponent) {
+  const double rounded = std::round(scaled / step) * step;
+  // Below what the smallest prefix shows ("-0.000 f"): zero, plainly.
+  if (rounded == 0.0) return "0" + suffix;
+  char buffer[64];
+  if (std::abs(rounded) >= 1000) {
+    if (exponent == kLargestExponent) {
+      // Beyond the largest prefix: powers of ten keep the column narrow.
+      std::snprintf(buffer, sizeof buffer, "%.*e", std::max(0, digits - 1), value);
+      return std::string(buffer) + suffix;
+    }
     exponent += 3;
     scaled /= 1000;
   }
-  const int decimals = decimals_for(scaled);
-  char buffer[64];
-  std::snprintf(buffer, sizeof buffer, "%.*f", decimals, scaled);
-  return std::string(buffer) + space + std::string(*standard_prefix(exponent)) + std::string(unit);
+  std::snprintf(buffer, sizeof buffer, "%.*f", decimals_for(scaled), scaled);
+  return std::string(buffer) + (unit.empty() ? "" : " ") + std::string(*standard_prefix(exponent)) +
+         std::string(unit);
 }
 
 std::string fixed(double value, std::string_view unit, int decimals) {
@@ -55,6 +63,10 @@ std::string percent(double ratio) {
   char buffer[32];
   std::snprintf(buffer, sizeof buffer, "%.4g %%", in_percent(ratio));
   return buffer;
+}
+
+std::string counted(std::size_t count, std::string_view one, std::string_view many) {
+  return std::to_string(count) + " " + std::string(count == 1 ? one : many);
 }
 
 std::string joined(const std::vector<std::string>& names, std::string_view separator) {

@@ -9,8 +9,9 @@
 
 namespace stage::text {
 
-// 0.0047 -> "4.70 m" + unit; keeps `digits` significant digits; "inf" for
-// infinity. A unit of "" gives a bare number with prefix.
+// 0.0047 -> "4.700 m" + unit; keeps `digits` significant digits; "∞" for
+// infinity, "0" for zero and for what rounds to zero in femto, powers of ten
+// beyond tera. A unit of "" gives a bare number with prefix.
 std::string si(double value, std::string_view unit, int digits = 4);
 
 // Decibels, degrees and percentages read best without an SI prefix
@@ -18,6 +19,9 @@ std::string si(double value, std::string_view unit, int digits = 4);
 // with four significant digits.
 std::string fixed(double value, std::string_view unit, int decimals = 2);
 std::string percent(double ratio);
+
+// "1 analysis", "3 analyses": a count with its noun in the right number.
+std::string counted(std::size_t count, std::string_view one, std::string_view many);
 
 // Names in a list for a message: "a, b, c" (or another separator).
 std::string joined(const std::vector<std::string>& names, std::string_view separator = ", ");

@@ -10,6 +10,7 @@
 #include "analysis/step_interpolant.hpp"
 #include "analysis/transient.hpp"
 #include "circuit/element_kinds.hpp"
+#include "common/si_format.hpp"
 #include "large_signal/energy_ledger.hpp"
 #include "mna/system.hpp"
 #include "simulation/simulation_access.hpp"
@@ -26,6 +27,11 @@ constexpr int kHarmonics = 9;
 // The DC value the sine rides on: the input source's own.
 double dc_of(const Circuit& circuit, const std::string& input) {
   return *kinds::own_value(circuit.find(input)->data);
+}
+
+// The unit of the input's amplitude: a voltage source's is a voltage.
+std::string_view amplitude_unit(const Circuit& circuit, const std::string& input) {
+  return kinds::has_role(circuit.find(input)->data, kinds::Role::holds_voltage) ? "V" : "A";
 }
 
 }  // namespace
@@ -120,7 +126,9 @@ DriveMeasurement SineDrive::measure(double amplitude) const {
     if (spectrum.settled || periods * 2 > kMaxPeriods) {
       if (!spectrum.settled) {
         // The results that use this measurement say so; the log is for tracing.
-        spdlog::debug("sine drive at {:.4g}: {}", amplitude, spectrum.message);
+        spdlog::debug("sine drive at {}: {}",
+                      text::si(amplitude, amplitude_unit(simulation_.circuit(), input_)),
+                      spectrum.message);
         m.settled = false;
         m.unsettled = spectrum.message;
       }

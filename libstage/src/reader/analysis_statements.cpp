@@ -186,6 +186,7 @@ SweepOptions sweep_options(const AnalysisReading& r) {
   const BoundArguments args = r.bind(slots);
   SweepOptions sweep;
   const SweepTarget target = sweep_target(r, args, sweep);
+  if (target.checked) sweep.quantity = target.quantity;
   const auto read = [&](const ast::Expr& e, reader::EvaluationRules rules) {
     if (target.checked) {
       return reader::evaluate_as(e, target.quantity, r.globals, r.source, false, rules);
@@ -217,7 +218,8 @@ FrequencyOptions frequency_options(const AnalysisReading& r) {
   FrequencyOptions f;
   f.from = r.positive(args, "from", Quantity::frequency, f.from);
   f.to = r.positive(args, "to", Quantity::frequency, f.to);
-  if (f.to <= f.from) r.source.fail(args.offset("to"), "to must be above from");
+  // to = from asks for the one frequency.
+  if (f.to < f.from) r.source.fail(args.offset("to"), "to must not be below from");
   f.per_decade = r.whole(args, "per_decade", f.per_decade);
   f.input = r.input(args);
   f.output = r.signal(*args.get("output"));

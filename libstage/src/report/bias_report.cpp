@@ -47,6 +47,40 @@ void print_records(std::ostream& out, const std::vector<Point>& records,
   table.print(out);
 }
 
+// A named value of a bias point as a column of a sweep or a row of a CSV.
+struct Cell {
+  std::string name;
+  std::string text;
+};
+
+// Every device's words and figures as cells: for CSV all of them, named as
+// in the JSON ("q1.collector_current") and written in full; for a table the
+// headed ones ("q1 IC") in engineering notation.
+enum class Layout { table, csv };
+std::vector<Cell> device_cells(const BiasResult& r, Layout layout) {
+  std::vector<Cell> cells;
+  const bool csv = layout == Layout::csv;
+  const auto name = [csv](const std::string& device, std::string_view key,
+                          std::string_view heading) {
+    return device + (csv ? "." + std::string(key) : " " + std::string(heading));
+  };
+  for_each_device_kind(r, [&](const auto& records, const auto& report) {
+    for (const auto& point : records) {
+      for (const auto& w : report.words) {
+        if (csv || !w.heading.empty())
+          cells.push_back({name(point.name, w.key, w.heading), w.text(point)});
+      }
+      for (const auto& f : report.figures) {
+        const double value = point.*f.value;
+        if (csv || !f.heading.empty())
+          cells.push_back(
+              {name(point.name, f.key, f.heading), csv ? csv_number(value) : si(value, f.unit)});
+      }
+    }
+  });
+  return cells;
+}
+
 Json pairs_json(const std::vector<std::pair<std::string, double>>& pairs) {
   Json object = Json::object();
   for (const auto& [name, value] : pairs) object[name] = value;
@@ -57,6 +91,22 @@ std::string temperature_text(double kelvin) {
   char buffer[32];
   std::snprintf(buffer, sizeof buffer, "%.2f °C", kelvin - 273.15);
   return buffer;
+}
+
+// The swept value as the table shows it: a temperature in °C, a ratio in
+// percent, else in the unit of what was swept.
+std::string swept_text(const SweepOptions& options, double value) {
+  if (options.target == SweepOptions::Target::temperature) return temperature_text(value);
+  switch (options.quantity) {
+    case Quantity::temperature:
+      return temperature_text(value);
+    case Quantity::dimensionless:
+      return si(value, "");
+    case Quantity::ratio:
+      return percent(value);
+    default:
+      return si(value, unit_name(options.quantity));
+  }
 }
 
 }  // namespace
@@ -107,19 +157,10 @@ void print_table(std::ostream& out, const BiasResult& r) {
 
 void write_csv(std::ostream& out, const BiasResult& r) {
   out << "quantity,value\n";
-  for (const auto& [name, v] : r.node_voltages)
-    out << "v(" << name << ")," << csv_number(v) << '\n';
+  for (const auto& [name, v] : r.node_voltages) out << name << ',' << csv_number(v) << '\n';
   for (const auto& [name, i] : r.element_currents) out << name << ',' << csv_number(i) << '\n';
-  // Finite figures only, as in the JSON (where infinity is null).
-  for_each_device_kind(r, [&](const auto& records, const auto& report) {
-    for (const auto& point : records) {
-      for (const auto& f : report.figures) {
-        const double value = point.*f.value;
-        if (std::isfinite(value))
-          out << point.name << '.' << f.key << ',' << csv_number(value) << '\n';
-      }
-    }
-  });
+  for (const auto& cell : device_cells(r, Layout::csv))
+    out << cell.name << ',' << cell.text << '\n';
 }
 
 Json to_json(const SweepResult& r) {
@@ -141,25 +182,26 @@ Json to_json(const SweepResult& r) {
 
 void print_table(std::ostream& out, const SweepResult& r) {
   const bool temperature = r.options.target == SweepOptions::Target::temperature;
-  out << "Sweep of " << (temperature ? "temperature" : r.options.name) << ": " << r.points.size()
-      << " points\n\n";
+  out << "Sweep of " << (temperature ? "temperature" : r.options.name) << ": "
+      << text::counted(r.points.size(), "point", "points") << "\n\n";
   if (r.points.empty()) return;
   std::vector<std::string> header{temperature ? "temperature" : r.options.name};
   const BiasResult& first = r.points.front().bias;
-  for (const auto& [name, v] : first.node_voltages) header.push_back("v(" + name + ")");
+  for (const auto& [name, v] : first.node_voltages) header.push_back(name);
   for (const auto& [name, v] : first.element_currents) header.push_back(name);
+  for (auto& cell : device_cells(first, Layout::table)) header.push_back(std::move(cell.name));
   TextTable t(header);
   for (const auto& p : r.points) {
-    std::vector<std::string> row{temperature ? temperature_text(p.value) : si(p.value, "")};
+    std::vector<std::string> row{swept_text(r.options, p.value)};
     for (const auto& [name, v] : p.bias.node_voltages) row.push_back(si(v, "V"));
     for (const auto& [name, i] : p.bias.element_currents) row.push_back(si(i, "A"));
+    for (auto& cell : device_cells(p.bias, Layout::table)) row.push_back(std::move(cell.text));
     t.add_row(row);
   }
   t.print(out);
   for (const auto& p : r.points) {
     for (const auto& warning : p.bias.warnings) {
-      out << "warning at " << (temperature ? temperature_text(p.value) : si(p.value, "")) << ": "
-          << warning << '\n';
+      out << "warning at " << swept_text(r.options, p.value) << ": " << warning << '\n';
     }
   }
 }
@@ -168,13 +210,15 @@ void write_csv(std::ostream& out, const SweepResult& r) {
   if (r.points.empty()) return;
   out << (r.options.target == SweepOptions::Target::temperature ? "temperature_K" : r.options.name);
   const BiasResult& first = r.points.front().bias;
-  for (const auto& [name, v] : first.node_voltages) out << ",v(" << name << ")";
+  for (const auto& [name, v] : first.node_voltages) out << ',' << name;
   for (const auto& [name, v] : first.element_currents) out << ',' << name;
+  for (const auto& cell : device_cells(first, Layout::csv)) out << ',' << cell.name;
   out << '\n';
   for (const auto& p : r.points) {
     out << csv_number(p.value);
     for (const auto& [name, v] : p.bias.node_voltages) out << ',' << csv_number(v);
     for (const auto& [name, i] : p.bias.element_currents) out << ',' << csv_number(i);
+    for (const auto& cell : device_cells(p.bias, Layout::csv)) out << ',' << cell.text;
     out << '\n';
   }
 }

@@ -42,6 +42,10 @@ void TextTable::print(std::ostream& out, int indent) const {
   for (const auto& row : rows_) line(row);
 }
 
+std::string_view signal_unit(std::string_view signal) {
+  return signal.ends_with(".current") ? "A" : "V";
+}
+
 std::string csv_number(double value) {
   if (std::isinf(value)) return value < 0 ? "-inf" : "inf";
   char buffer[32];

@@ -34,6 +34,10 @@ class TextTable {
   std::vector<std::vector<std::string>> rows_;
 };
 
+// The unit of a recorded signal: "<element>.current" is a current ("A"),
+// every other signal a voltage ("V").
+std::string_view signal_unit(std::string_view signal);
+
 // A value for a CSV cell: full precision, "inf" written out.
 std::string csv_number(double value);
 

@@ -78,7 +78,7 @@ Json to_json(const FrequencyResult& r) {
 
 void print_table(std::ostream& out, const FrequencyResult& r) {
   out << "Frequency response of " << r.output << " relative to " << r.options.input << ": "
-      << r.frequencies.size() << " points\n\n";
+      << text::counted(r.frequencies.size(), "point", "points") << "\n\n";
   const bool with_output = !r.output_impedance.empty();
   std::vector<std::string> header{"frequency", "gain", "phase", "|Zin|", "∠Zin"};
   if (with_output) header.insert(header.end(), {"|Zout|", "∠Zout"});
@@ -97,12 +97,16 @@ void print_table(std::ostream& out, const FrequencyResult& r) {
 
   const FrequencyFigures& fig = r.figures;
   out << '\n';
+  // One frequency has no band: no midband, corners or unity-gain crossing.
+  const bool band = r.frequencies.size() > 1;
   TextTable figures({"figure", "value"});
-  figures.add_row({"midband gain",
+  figures.add_row({band ? "midband gain" : "gain",
                    fixed(fig.midband_gain_dB, "dB") + " at " + si(fig.midband_frequency, "Hz")});
-  figures.add_row({"lower -3 dB frequency", optional_text(fig.lower_cutoff, "Hz")});
-  figures.add_row({"upper -3 dB frequency", optional_text(fig.upper_cutoff, "Hz")});
-  figures.add_row({"unity-gain frequency", optional_text(fig.unity_gain_frequency, "Hz")});
+  if (band) {
+    figures.add_row({"lower -3 dB frequency", optional_text(fig.lower_cutoff, "Hz")});
+    figures.add_row({"upper -3 dB frequency", optional_text(fig.upper_cutoff, "Hz")});
+    figures.add_row({"unity-gain frequency", optional_text(fig.unity_gain_frequency, "Hz")});
+  }
   if (r.options.at) {
     figures.add_row({"gain at " + si(*r.options.at, "Hz"), optional_text(fig.gain_at_dB, "dB")});
     figures.add_row({"phase at " + si(*r.options.at, "Hz"), optional_text(fig.phase_at_deg, "°")});
@@ -138,12 +142,17 @@ std::string FrequencyResult::brief_report() const {
   const std::size_t m = static_cast<std::size_t>(
       std::find(frequencies.begin(), frequencies.end(), figures.midband_frequency) -
       frequencies.begin());
-  out << output << " / " << options.input << ": midband "
+  const bool band = frequencies.size() > 1;
+  out << output << " / " << options.input << ": " << (band ? "midband " : "")
       << report::fixed(figures.midband_gain_dB, "dB") << " at "
-      << report::si(figures.midband_frequency, "Hz") << ", -3 dB "
-      << (figures.lower_cutoff ? report::si(*figures.lower_cutoff, "Hz") : "below sweep") << " to "
-      << (figures.upper_cutoff ? report::si(*figures.upper_cutoff, "Hz") : "above sweep")
-      << ", |Zin| " << report::si(std::abs(input_impedance[m]), "Ω");
+      << report::si(figures.midband_frequency, "Hz");
+  if (band) {
+    out << ", -3 dB "
+        << (figures.lower_cutoff ? report::si(*figures.lower_cutoff, "Hz") : "below sweep")
+        << " to "
+        << (figures.upper_cutoff ? report::si(*figures.upper_cutoff, "Hz") : "above sweep");
+  }
+  out << ", |Zin| " << report::si(std::abs(input_impedance[m]), "Ω");
   if (!output_impedance.empty())
     out << ", |Zout| " << report::si(std::abs(output_impedance[m]), "Ω");
   return out.str();

@@ -4,7 +4,6 @@
 #include <cmath>
 
 namespace stage::report {
-namespace {}  // namespace
 
 Json to_json(const SpectrumResult& r) {
   Json harmonics = Json::array();
@@ -20,8 +19,10 @@ Json to_json(const SpectrumResult& r) {
 }
 
 void print_table(std::ostream& out, const SpectrumResult& r) {
+  const std::string_view unit = signal_unit(r.signal);
   out << "Spectrum of " << r.signal << ": fundamental " << si(r.fundamental, "Hz") << ", "
-      << r.periods << " period(s), DC " << si(r.dc, "") << "\n";
+      << text::counted(static_cast<std::size_t>(r.periods), "period", "periods") << ", DC "
+      << si(r.dc, unit) << "\n";
   out << "THD " << percent(r.thd);
   if (r.thd_plus_noise) out << ", THD+N " << percent(*r.thd_plus_noise);
   out << "\n";
@@ -32,17 +33,23 @@ void print_table(std::ostream& out, const SpectrumResult& r) {
   for (const auto& h : r.harmonics) {
     char phase[32];
     std::snprintf(phase, sizeof phase, "%.2f°", h.phase_deg);
-    table.add_row({std::to_string(h.n), si(h.n * r.fundamental, "Hz"), si(h.amplitude, ""),
+    table.add_row({std::to_string(h.n), si(h.n * r.fundamental, "Hz"), si(h.amplitude, unit),
                    first > 0 ? percent(h.amplitude / first) : "-", phase});
   }
   table.print(out);
 }
 
+// The harmonics, DC as n = 0 (the constant term of the Fourier series), and
+// the THD (and THD+N) of the whole spectrum on every row, as in the JSON.
 void write_csv(std::ostream& out, const SpectrumResult& r) {
-  out << "n,frequency_Hz,amplitude,phase_deg\n";
+  const std::string distortion =
+      csv_number(r.thd) + (r.thd_plus_noise ? "," + csv_number(*r.thd_plus_noise) : "");
+  out << "n,frequency_Hz,amplitude,phase_deg,thd" << (r.thd_plus_noise ? ",thd_plus_noise" : "")
+      << '\n';
+  out << "0,0," << csv_number(r.dc) << ",0," << distortion << '\n';
   for (const auto& h : r.harmonics) {
     out << h.n << ',' << csv_number(h.n * r.fundamental) << ',' << csv_number(h.amplitude) << ','
-        << csv_number(h.phase_deg) << '\n';
+        << csv_number(h.phase_deg) << ',' << distortion << '\n';
   }
 }
 

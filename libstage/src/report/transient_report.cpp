@@ -6,12 +6,6 @@
 namespace stage::report {
 namespace {
 
-// Reported currents are named "<element>.current"; every other signal is a
-// voltage.
-std::string_view unit_of(const std::string& signal) {
-  return signal.ends_with(".current") ? "A" : "V";
-}
-
 // Up to this many samples the table shows them all.
 constexpr std::size_t kFullTableRows = 30;
 
@@ -49,7 +43,7 @@ void print_table(std::ostream& out, const TransientResult& r) {
     TextTable table(header);
     for (std::size_t k = 0; k < r.time.size(); ++k) {
       std::vector<std::string> row{si(r.time[k], "s")};
-      for (const auto& s : r.signals) row.push_back(si(s.values[k], unit_of(s.name)));
+      for (const auto& s : r.signals) row.push_back(si(s.values[k], signal_unit(s.name)));
       table.add_row(row);
     }
     table.print(out);
@@ -58,7 +52,7 @@ void print_table(std::ostream& out, const TransientResult& r) {
   TextTable table({"signal", "min", "max", "final"});
   for (const auto& s : r.signals) {
     const auto [lo, hi] = std::minmax_element(s.values.begin(), s.values.end());
-    const auto unit = unit_of(s.name);
+    const auto unit = signal_unit(s.name);
     table.add_row({s.name, si(*lo, unit), si(*hi, unit), si(s.values.back(), unit)});
   }
   table.print(out);

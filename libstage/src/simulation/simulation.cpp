@@ -115,6 +115,11 @@ SweepResult Simulation::sweep(const SweepOptions& options, const ProgressCallbac
     ~Restore() { undo(); }
   } restored{[&] { set(restore); }};
   SweepResult result{options, {}};
+  result.options.quantity =
+      temperature ? Quantity::temperature
+      : kinds::has_role(state_->circuit.find(options.name)->data, kinds::Role::holds_voltage)
+          ? Quantity::voltage
+          : Quantity::current;
   for (double value : options.values) {
     if (progress) {
       progress("sweep: point " + std::to_string(result.points.size() + 1) + " of " +
