@@ -81,18 +81,27 @@ TEST_P(FirstOrder, BiasStartIsSteady) {
   EXPECT_LT(max_error(r, "out", [](double) { return kV; }), 1e-9);
 }
 
-// A step through a pulse source: the corner at 1 ms is landed on exactly and
-// the response after it is V (1 - e^{-(t - 1 ms)/RC}) (rise 1 ns: the
+// A step through a pulse source: the corners at 1 ms and at the end of its
+// edge are landed on exactly and the response after it is
+// V (1 - e^{-(t - 1 ms)/RC}) (rise 1 ns level to level: the
 // response to the ramp differs from the step's by at most V rise / (2 RC)).
 TEST_P(FirstOrder, PulseCornersAreLandedOn) {
   stage::Circuit c = rc(std::nullopt, 0.0);
   auto& source = std::get<stage::VoltageSource>(c.find("v1")->data);
-  source.wave = stage::PulseWave{0.0, kV, 1e-3, 1e-9, 1e-9, 1.0, 2.0};
+  const stage::PulseWave pulse{.low = 0.0,
+                               .high = kV,
+                               .period = 2.0,
+                               .high_time = 1.0,
+                               .rise = 0.8e-9,
+                               .fall = 0.8e-9,
+                               .delay = 1e-3};
+  source.wave = pulse;
   stage::TransientOptions o;
   o.stop = 6e-3;
   const auto r = stage::run_transient(c, o, stage::testing::solver(GetParam()));
   EXPECT_NE(std::find(r.time.begin(), r.time.end(), 1e-3), r.time.end());
-  EXPECT_NE(std::find(r.time.begin(), r.time.end(), 1e-3 + 1e-9), r.time.end());
+  const double edge_end = 1e-3 + stage::pulse_shape(pulse).rise;
+  EXPECT_NE(std::find(r.time.begin(), r.time.end(), edge_end), r.time.end());
   const auto exact = [](double t) {
     return t < 1e-3 ? 0.0 : kV * (1 - std::exp(-(t - 1e-3) / kTau));
   };

@@ -34,17 +34,21 @@ stage::TransientResult across_resistor(const stage::Waveform& wave, double stop,
   return stage::run_transient(c, o);
 }
 
-// +-1 V trapezoid wave, 100 ns edges, 499.9 us high (half the period
-// measured at mid-edge), 4 ms at a 1 us step, 7 harmonics. The Fourier
-// series of a square wave, 4/(n pi) on odd n (Oppenheim & Willsky, example
-// 3.5), times the edges' sinc(n pi f t_rise) (convolution with a box of
-// width t_rise; textbook). Odd harmonics within 0.05 %; even ones, zero by
-// half-wave symmetry, below 1e-5 of the fundamental; exactly periodic, so
-// settled.
+// +-1 V trapezoid wave, 100 ns edges level to level (80 ns 10-90 %), high
+// for half the period at half amplitude (499.9 us flat), 4 ms at a 1 us step, 7 harmonics. The
+// Fourier series of a square wave, 4/(n pi) on odd n (Oppenheim & Willsky, example 3.5), times the
+// edges' sinc(n pi f t_rise) (convolution with a box of width t_rise; textbook). Odd harmonics
+// within 0.05 %; even ones, zero by half-wave symmetry, below 1e-5 of the fundamental; exactly
+// periodic, so settled.
 TEST(SampledWaveform, TrapezoidWaveSpectrum) {
   const double rise = 100e-9;
-  const auto r =
-      across_resistor(stage::PulseWave{-1, 1, 0, rise, rise, kT / 2 - rise, kT}, 4 * kT, 1e-6);
+  const stage::PulseWave wave{.low = -1,
+                              .high = 1,
+                              .period = kT,
+                              .high_time = kT / 2,
+                              .rise = 0.8 * rise,
+                              .fall = 0.8 * rise};
+  const auto r = across_resistor(wave, 4 * kT, 1e-6);
   const auto s = stage::run_spectrum(r, {stage::SignalRef::node("in"), kF, 7});
   for (int n = 1; n <= 7; n += 2) {
     const double x = n * pi * kF * rise;
@@ -133,8 +137,14 @@ TEST(SampledWaveform, SineClippedByDiodeLimiter) {
 // default): the interpolant never reaches across a corner (the waveform's
 // bounds; the quadratic through three samples used to overshoot by volts).
 TEST(SampledWaveform, ResampledPulseStaysWithinItsLevels) {
-  const auto r =
-      across_resistor(stage::PulseWave{-1, 1, 0, 100e-9, 100e-9, 400e-6, kT}, 3 * kT, 1e-6);
+  // 100 ns edges level to level (80 ns 10-90 %) around a 400 us flat top.
+  const stage::PulseWave wave{.low = -1,
+                              .high = 1,
+                              .period = kT,
+                              .high_time = 400e-6 + 100e-9,
+                              .rise = 80e-9,
+                              .fall = 80e-9};
+  const auto r = across_resistor(wave, 3 * kT, 1e-6);
   const auto uniform = stage::resample(r, 0.37e-6);
   const double tolerance = stage::SolverOptions{}.voltage_tolerance;
   for (double v : uniform.signal("in")) {

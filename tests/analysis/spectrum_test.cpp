@@ -74,14 +74,16 @@ TEST(Spectrum, SymmetricallyClippedSine) {
   }
 }
 
-// Square wave +-1 with linear edges of T/100 (a pulse waveform): the square
+// Square wave +-1 with linear edges of T/100 level to level (a pulse
+// waveform, 10-90 % edges of 0.8 T/100, high for T/2 at half amplitude): the square
 // wave's 4/(n pi) on odd n (Oppenheim & Willsky, example 3.5) times the
 // edge's sinc(n pi tr / T) (convolution with a box of width tr). Sampled on
 // the analysis grid itself (T/2048, ending at the last time), so the only
 // error left is aliasing of harmonics near 2048, below 1e-5.
 TEST(Spectrum, SquareWave) {
   const double tr = kT / 100;
-  const stage::Waveform wave = stage::PulseWave{-1, 1, 0, tr, tr, kT / 2 - tr, kT};
+  const stage::Waveform wave = stage::PulseWave{
+      .low = -1, .high = 1, .period = kT, .high_time = kT / 2, .rise = 0.8 * tr, .fall = 0.8 * tr};
   stage::TransientResult r;
   r.signals.push_back({"out", {}});
   for (int k = 0; k <= 3 * 2048; ++k) {

@@ -49,6 +49,18 @@ TEST(Validate, NonFiniteElementValuesAreNamed) {
   EXPECT_EQ(subject_of(wave), "vin");
 }
 
+// The same pulse rule as the reader's: 1 ns edges (10-90 %) leave no room
+// for a 1 ns high time (it needs 0.625 * (rise + fall) = 1.25 ns).
+TEST(Validate, ImpossiblePulseIsNamed) {
+  Circuit c = stage::testing::follower_into_low_load();
+  const stage::PulseWave pulse{.period = 1e-6, .high_time = 1e-9, .rise = 1e-9, .fall = 1e-9};
+  c.find("vin")->data = stage::VoltageSource{"in", "gnd", 0.0, 1.0, 0.0, pulse};
+  const auto p = stage::validate(c);
+  ASSERT_TRUE(p.has_value());
+  EXPECT_EQ(p->subject, "vin");
+  EXPECT_NE(p->message.find("high_time"), std::string::npos) << p->message;
+}
+
 TEST(Validate, ModelParametersOutsideTheirRangeAreNamed) {
   Circuit c = stage::testing::follower_into_low_load();
   stage::BipolarModel m = stage::testing::generic_npn();

@@ -24,7 +24,7 @@ TEST(Statements, SourcesAndWaves) {
   const Deck deck = read(
       "v1 = voltage(in, gnd, dc = 1 V, ac = 0.5, ac_phase = 90 deg,\n"
       "             wave = sine(amplitude = 0.2 V, frequency = 1 kHz, offset = 1 V))\n"
-      "v2 = voltage(p, gnd, wave = pulse(low = 0 V, high = 5 V, width = 1 us, period = 2 us))\n"
+      "v2 = voltage(p, gnd, wave = pulse(low = 0 V, high = 5 V, high_time = 1 us, period = 2 us))\n"
       "i1 = current(a, gnd, wave = piecewise((0 s, 0 A), (1 ms, 2 mA), repeat = true))\n"
       "r = resistor(in, p, 1k)  # comment\n");
   const auto& v1 = element<VoltageSource>(deck, "v1");
@@ -37,7 +37,7 @@ TEST(Statements, SourcesAndWaves) {
   EXPECT_DOUBLE_EQ(sine.offset, 1);
   const auto& pulse = std::get<PulseWave>(*element<VoltageSource>(deck, "v2").wave);
   EXPECT_DOUBLE_EQ(pulse.high, 5);
-  EXPECT_DOUBLE_EQ(pulse.width, 1e-6);
+  EXPECT_DOUBLE_EQ(pulse.high_time, 1e-6);
   const auto& pw = std::get<PiecewiseWave>(*element<CurrentSource>(deck, "i1").wave);
   ASSERT_EQ(pw.points.size(), 2u);
   EXPECT_DOUBLE_EQ(pw.points[1].first, 1e-3);

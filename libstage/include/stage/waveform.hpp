@@ -2,6 +2,7 @@
 // the corners a transient must land on.
 #pragma once
 
+#include <string>
 #include <utility>
 #include <variant>
 #include <vector>
@@ -18,16 +19,32 @@ struct SineWave {
   bool operator==(const SineWave&) const = default;
 };
 
+// A repeating pulse as a designer specifies it (spec section 3). Its rising
+// edge starts at `delay`; edges are linear, and `rise`/`fall` are their
+// 10 %–90 % times, so an edge takes 1.25 times as long from level to level.
 struct PulseWave {
   double low = 0.0;
   double high = 5.0;
-  double delay = 0.0;
-  double rise = 1e-9;
-  double fall = 1e-9;
-  double width = 1e-6;
   double period = 2e-6;
+  double high_time = 1e-6;  // per period, at or above half amplitude
+  double rise = 1e-9;       // 10 %–90 %
+  double fall = 1e-9;       // 90 %–10 %
+  double delay = 0.0;
   bool operator==(const PulseWave&) const = default;
 };
+
+// One period of a pulse from the start of its rising edge: level to level in
+// `rise`, flat at `high` for `top`, level to level in `fall`, then low.
+struct PulseShape {
+  double rise;
+  double top;
+  double fall;
+};
+PulseShape pulse_shape(const PulseWave& w);
+
+// Why a pulse cannot be drawn (non-finite or negative times, a high time too
+// short for its edges, a period too short for the pulse), or empty.
+std::string pulse_problem(const PulseWave& w);
 
 struct PiecewiseWave {
   std::vector<std::pair<double, double>> points;  // (time, value), time ascending

@@ -21,15 +21,7 @@ std::optional<Problem> waveform_problem(const std::string& subject, const Wavefo
     }
     if (s->frequency < 0 || s->delay < 0) return bad("needs a frequency and delay of 0 or more");
   } else if (const auto* p = std::get_if<PulseWave>(&wave)) {
-    for (double v : {p->low, p->high, p->delay, p->rise, p->fall, p->width, p->period}) {
-      if (!std::isfinite(v)) return bad("needs finite values");
-    }
-    if (p->delay < 0 || p->rise < 0 || p->fall < 0 || p->width < 0) {
-      return bad("needs a delay, rise, fall and width of 0 or more");
-    }
-    if (!(p->period > 0) || p->period < p->rise + p->width + p->fall) {
-      return bad("needs a positive period of at least rise + width + fall");
-    }
+    if (std::string why = pulse_problem(*p); !why.empty()) return bad(why);
   } else {
     const auto& points = std::get<PiecewiseWave>(wave).points;
     if (points.empty()) return bad("needs at least one point");

@@ -5,6 +5,7 @@
 #include <cmath>
 
 #include "common/constants.hpp"
+#include "common/si_format.hpp"
 
 namespace stage {
 namespace {
@@ -17,16 +18,17 @@ double sine_value(const SineWave& w, double t) {
          w.amplitude * std::exp(-w.damping * s) * std::sin(kTwoPi * w.frequency * s + phase);
 }
 
-// Within each period: rise, high for width, fall, low for the rest.
+// Within each period: rise, high for the flat top, fall, low for the rest.
 double pulse_value(const PulseWave& w, double t) {
   if (t < w.delay) return w.low;
+  const PulseShape shape = pulse_shape(w);
   double s = t - w.delay;
   if (w.period > 0) s = std::fmod(s, w.period);
-  if (s < w.rise) return w.low + (w.high - w.low) * (w.rise > 0 ? s / w.rise : 1.0);
-  s -= w.rise;
-  if (s < w.width) return w.high;
-  s -= w.width;
-  if (s < w.fall) return w.high + (w.low - w.high) * (w.fall > 0 ? s / w.fall : 1.0);
+  if (s < shape.rise) return w.low + (w.high - w.low) * s / shape.rise;
+  s -= shape.rise;
+  if (s < shape.top) return w.high;
+  s -= shape.top;
+  if (s < shape.fall) return w.high + (w.low - w.high) * s / shape.fall;
   return w.low;
 }
 
@@ -50,7 +52,9 @@ void add_if_inside(double t, double from, double to, std::vector<double>& out) {
 }
 
 void pulse_corners(const PulseWave& w, double from, double to, std::vector<double>& out) {
-  const double offsets[] = {0.0, w.rise, w.rise + w.width, w.rise + w.width + w.fall};
+  const PulseShape shape = pulse_shape(w);
+  const double offsets[] = {0.0, shape.rise, shape.rise + shape.top,
+                            shape.rise + shape.top + shape.fall};
   if (w.period <= 0) {
     for (double o : offsets) add_if_inside(w.delay + o, from, to, out);
     return;
@@ -76,6 +80,36 @@ void piecewise_corners(const PiecewiseWave& w, double from, double to, std::vect
 }
 
 }  // namespace
+
+// A linear edge covers 80 % of its swing in its 10 %–90 % time, so it takes
+// 1.25 times that from level to level; half of each edge lies at or above
+// half amplitude, so the flat top is the high time less half of both edges.
+PulseShape pulse_shape(const PulseWave& w) {
+  constexpr double kFullEdgePer1090 = 1.25;  // 1 / 0.8
+  const double rise = kFullEdgePer1090 * w.rise, fall = kFullEdgePer1090 * w.fall;
+  return {rise, w.high_time - 0.5 * (rise + fall), fall};
+}
+
+std::string pulse_problem(const PulseWave& w) {
+  for (double v : {w.low, w.high, w.period, w.high_time, w.rise, w.fall, w.delay}) {
+    if (!std::isfinite(v)) return "needs finite values";
+  }
+  if (w.delay < 0 || w.rise < 0 || w.fall < 0) return "needs a delay, rise and fall of 0 or more";
+  if (!(w.period > 0)) return "needs a positive period";
+  const PulseShape shape = pulse_shape(w);
+  if (shape.top < 0) {
+    return "has a high_time of " + text::si(w.high_time, "s") +
+           ", shorter than its edges allow: half of each edge lies above half amplitude, "
+           "so high_time must be at least 0.625 × (rise + fall) = " +
+           text::si(0.5 * (shape.rise + shape.fall), "s");
+  }
+  if (w.period < shape.rise + shape.top + shape.fall) {
+    return "has a period of " + text::si(w.period, "s") +
+           ", shorter than the pulse: it needs at least high_time + 0.625 × (rise + fall) = " +
+           text::si(shape.rise + shape.top + shape.fall, "s");
+  }
+  return {};
+}
 
 double waveform_value(const Waveform& wave, double t) {
   struct Visitor {

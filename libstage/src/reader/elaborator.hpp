@@ -75,7 +75,7 @@ class Elaborator {
   E read_element(const kinds::Descriptor<E>& kind, const kinds::Spelling<E>& spelling,
                  const ast::Instance& instance, const Frame& frame);
   std::pair<std::string, std::string> node_pair(const ast::Expr& e, int offset, const Frame& frame);
-  Waveform waveform(const ast::Expr& e, Quantity level, const Frame& frame);
+  Waveform waveform(const ast::Expr& e, Quantity level, const Frame& frame);  // waveforms.cpp
   double value(const BoundArguments& args, std::string_view name, Quantity q, const Frame& frame,
                double fallback = 0, bool allow_infinity = false);
 

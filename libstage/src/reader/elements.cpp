@@ -1,6 +1,6 @@
 // Building each element kind of spec section 3 from its arguments: terminals
 // become (hierarchical) node names, values are checked for unit and physical
-// range, waveforms and controlling references are read.
+// range, waveforms (waveforms.cpp) and controlling references are read.
 #include <cmath>
 
 #include "reader/elaborator.hpp"
@@ -118,77 +118,6 @@ std::pair<std::string, std::string> Elaborator::node_pair(const ast::Expr& e, in
     frame.file->source.fail(offset, "expected control = (node, node)");
   }
   return {node(tuple->get().items[0], frame), node(tuple->get().items[1], frame)};
-}
-
-Waveform Elaborator::waveform(const ast::Expr& e, Quantity level, const Frame& frame) {
-  const reader::SourceText& source = frame.file->source;
-  const auto* call = boost::get<x3::forward_ast<ast::Call>>(&ast::unwrap(e));
-  if (!call) source.fail(ast::offset_of(e), "expected sine(…), pulse(…) or piecewise(…)");
-  const ast::Call& c = call->get();
-  const auto non_negative = [&](const BoundArguments& args, std::string_view slot, Quantity q,
-                                double fallback) {
-    const double v = value(args, slot, q, frame, fallback);
-    if (v < 0) source.fail(args.offset(slot), std::string(slot) + " cannot be negative");
-    return v;
-  };
-  if (c.name == "sine") {
-    static constexpr Slot slots[] = {{"amplitude", true}, {"frequency", true}, {"offset", true},
-                                     {"delay", true},     {"phase", true},     {"damping", true}};
-    const BoundArguments args(c, slots, "sine", source);
-    SineWave w;
-    w.amplitude = value(args, "amplitude", level, frame, w.amplitude);
-    w.frequency = non_negative(args, "frequency", Quantity::frequency, w.frequency);
-    w.offset = value(args, "offset", level, frame, w.offset);
-    w.delay = non_negative(args, "delay", Quantity::time, w.delay);
-    w.phase_deg = value(args, "phase", Quantity::angle, frame, w.phase_deg);
-    w.damping = value(args, "damping", Quantity::frequency, frame, w.damping);
-    return w;
-  }
-  if (c.name == "pulse") {
-    static constexpr Slot slots[] = {{"low", true},   {"high", true}, {"delay", true},
-                                     {"rise", true},  {"fall", true}, {"width", true},
-                                     {"period", true}};
-    const BoundArguments args(c, slots, "pulse", source);
-    PulseWave w;
-    w.low = value(args, "low", level, frame, w.low);
-    w.high = value(args, "high", level, frame, w.high);
-    w.delay = non_negative(args, "delay", Quantity::time, w.delay);
-    w.rise = non_negative(args, "rise", Quantity::time, w.rise);
-    w.fall = non_negative(args, "fall", Quantity::time, w.fall);
-    w.width = non_negative(args, "width", Quantity::time, w.width);
-    w.period = non_negative(args, "period", Quantity::time, w.period);
-    if (w.period < w.rise + w.width + w.fall) {
-      source.fail(args.offset("period"), "the pulse period is shorter than rise + width + fall");
-    }
-    return w;
-  }
-  if (c.name == "piecewise") {
-    PiecewiseWave w;
-    for (const ast::Argument& a : c.arguments) {
-      if (a.key) {
-        if (*a.key != "repeat") {
-          source.fail(a.offset, "piecewise has no argument '" + *a.key + "' (only repeat)");
-        }
-        w.repeat = require_choice(a.value, {"true", "false"}, source) == "true";
-        continue;
-      }
-      const auto* point = boost::get<x3::forward_ast<ast::Tuple>>(&ast::unwrap(a.value));
-      if (!point || point->get().items.size() != 2) {
-        source.fail(a.offset, "expected a point (time, value)");
-      }
-      const double t =
-          reader::evaluate_as(point->get().items[0], Quantity::time, *frame.scope, source);
-      const double v = reader::evaluate_as(point->get().items[1], level, *frame.scope, source);
-      if (!w.points.empty() && t <= w.points.back().first) {
-        source.fail(a.offset, "piecewise times must increase");
-      }
-      w.points.emplace_back(t, v);
-    }
-    if (w.points.empty()) source.fail(c.offset, "piecewise needs at least one (time, value) point");
-    return w;
-  }
-  source.fail(c.offset, "unknown waveform '" + c.name + "'" +
-                            reader::suggestion(c.name, {"sine", "pulse", "piecewise"}));
 }
 
 }  // namespace stage::elaborate
