@@ -61,11 +61,14 @@ TEST(Diode, BreakdownCurrentAtBreakdownVoltage) {
 // current at a small forward bias.
 TEST(Diode, SaturationCurrentTemperatureScaling) {
   DiodeModel m;
+  m.saturation_current = 1e-14;
   m.emission_coefficient = 1.3;
+  m.bandgap_energy = 1.12;  // eV, silicon at 300 K (Sze and Ng, app. F; from memory)
+  m.saturation_current_temperature_exponent = 3;
   for (double t : {233.15, 300.15, 398.15}) {
     const double nvt = 1.3 * thermal_voltage(t);
     const double ratio = t / stage::kRoomTemperature;
-    const double expected = 1e-14 * std::pow(ratio, 3 / 1.3) * std::exp((ratio - 1) * 1.11 / nvt);
+    const double expected = 1e-14 * std::pow(ratio, 3 / 1.3) * std::exp((ratio - 1) * 1.12 / nvt);
     const double v = 0.4;
     const double is = at(m, v, t).current / (std::exp(v / nvt) - 1);
     EXPECT_NEAR(is, expected, 1e-12 * expected) << t;
@@ -100,8 +103,9 @@ TEST(Diode, DepletionCapacitanceAgainstTemperature) {
   m.junction_capacitance = 10e-12;
   m.junction_potential = 0.8;
   m.grading = 0.5;
+  m.bandgap_energy = 1.12;  // eV, silicon at 300 K (Sze and Ng, app. F; from memory)
   const double t = 373.15, ratio = t / stage::kRoomTemperature;
-  const double phi = 0.8 * ratio - 3 * thermal_voltage(t) * std::log(ratio) - 1.11 * (ratio - 1);
+  const double phi = 0.8 * ratio - 3 * thermal_voltage(t) * std::log(ratio) - 1.12 * (ratio - 1);
   const double c0 = 10e-12 * std::pow(0.8 / phi, 0.5);
   const double v = -2;
   const double c = c0 / std::pow(1 - v / phi, 0.5);

@@ -28,4 +28,11 @@ TEST(ModelBody, UnitStillReadOnTheSameLine) {
   EXPECT_DOUBLE_EQ(deck.circuit.diode_models().at("d").junction_capacitance, 4e-12);
 }
 
+// Excess phase is a delay in seconds (spec section 4).
+TEST(ModelBody, ExcessPhaseIsADelayTime) {
+  const auto deck =
+      stage::read_text("model q = npn { excess_phase_delay = 150 ps }\n", "delay.stage");
+  EXPECT_DOUBLE_EQ(deck.circuit.bipolar_models().at("q").excess_phase_delay, 150e-12);
+}
+
 }  // namespace

@@ -108,6 +108,9 @@ TEST(Models, TablesCoverTheSpec) {
       EXPECT_TRUE(row.gummel_poon_only);
     } else if (row.name == "reference_temperature") {
       EXPECT_EQ(row.quantity, Quantity::temperature);
+    } else if (row.name == "excess_phase_delay") {
+      EXPECT_EQ(row.quantity, Quantity::time);  // a delay in seconds, not degrees
+      EXPECT_TRUE(row.gummel_poon_only);
     }
   }
 }

@@ -1,6 +1,8 @@
 // Device model parameters (spec section 4) as plain structs, with the table
 // that maps each `.stage` parameter name to its field and unit. Defaults are
-// the spec's; a value of infinity means "effect absent".
+// the spec's, each on the ground its table states: every effect a designer
+// switches on deliberately defaults to off (zero, or infinity where infinity
+// switches it off); the rest are silicon physics at 300 K.
 #pragma once
 
 #include <limits>
@@ -19,6 +21,13 @@ namespace stage {
 
 inline constexpr double kInfinity = std::numeric_limits<double>::infinity();
 inline constexpr double kRoomTemperature = 300.15;  // 27 °C in kelvin
+// Grading exponents of the depletion capacitance: 1/2 for an abrupt
+// junction, 1/3 for a linearly graded one (Sze and Ng, "Physics of
+// Semiconductor Devices", 3rd ed., sec. 2.2; from memory).
+inline constexpr double kAbruptGrading = 0.5;
+inline constexpr double kLinearlyGradedGrading = 1.0 / 3;
+// Silicon band gap at 300 K, eV (Sze and Ng, 3rd ed., appendix F; from memory).
+inline constexpr double kSiliconBandgap = 1.12;
 
 enum class BipolarForm { gummel_poon, ebers_moll };
 
@@ -34,7 +43,7 @@ struct BipolarModel {
   double knee_current_forward = kInfinity;
   double knee_current_reverse = kInfinity;
   double be_leakage_current = 0;
-  double be_leakage_emission = 1.5;
+  double be_leakage_emission = 2;
   double bc_leakage_current = 0;
   double bc_leakage_emission = 2;
   double base_resistance = 0;
@@ -43,24 +52,24 @@ struct BipolarModel {
   double emitter_resistance = 0;
   double collector_resistance = 0;
   double be_capacitance = 0;
-  double be_potential = 0.75;
-  double be_grading = 0.33;
+  double be_potential = 0.95;
+  double be_grading = kAbruptGrading;
   double bc_capacitance = 0;
-  double bc_potential = 0.75;
-  double bc_grading = 0.33;
+  double bc_potential = 0.78;
+  double bc_grading = kLinearlyGradedGrading;
   double bc_internal_fraction = 1;
   double cs_capacitance = 0;
-  double cs_potential = 0.75;
-  double cs_grading = 0;
+  double cs_potential = 0.66;
+  double cs_grading = kAbruptGrading;
   double forward_transit_time = 0;
   double reverse_transit_time = 0;
   double transit_bias_coefficient = 0;
   double transit_bc_voltage = kInfinity;
   double transit_high_current = 0;
-  double excess_phase = 0;  // degrees
+  double excess_phase_delay = 0;  // s
   double depletion_fill_coefficient = 0.5;
   double beta_temperature_exponent = 0;
-  double bandgap_energy = 1.11;  // eV
+  double bandgap_energy = kSiliconBandgap;  // eV
   double saturation_current_temperature_exponent = 3;
   double reference_temperature = kRoomTemperature;
   double flicker_coefficient = 0;
@@ -73,13 +82,13 @@ struct DiodeModel {
   double emission_coefficient = 1;
   double series_resistance = 0;
   double junction_capacitance = 0;
-  double junction_potential = 1;
-  double grading = 0.5;
+  double junction_potential = 0.89;
+  double grading = kAbruptGrading;
   double transit_time = 0;
   double breakdown_voltage = kInfinity;
   double breakdown_current = 1e-3;
   double depletion_fill_coefficient = 0.5;
-  double bandgap_energy = 1.11;
+  double bandgap_energy = kSiliconBandgap;  // eV
   double saturation_current_temperature_exponent = 3;
   double reference_temperature = kRoomTemperature;
   bool operator==(const DiodeModel&) const = default;

@@ -63,7 +63,7 @@ constexpr std::array kBipolar{
        kExtra},
     BP{"transit_high_current", &B::transit_high_current, Quantity::current, R::non_negative,
        kExtra},
-    BP{"excess_phase", &B::excess_phase, Quantity::angle, R::finite, kExtra},
+    BP{"excess_phase_delay", &B::excess_phase_delay, Quantity::time, R::non_negative, kExtra},
     BP{"depletion_fill_coefficient", &B::depletion_fill_coefficient, Quantity::dimensionless,
        R::below_one, kExtra},
     BP{"beta_temperature_exponent", &B::beta_temperature_exponent, Quantity::dimensionless,

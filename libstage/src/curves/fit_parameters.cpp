@@ -30,7 +30,6 @@ constexpr std::array kBounds{
     Bound{"potential", 0.1, 1.5},
     Bound{"internal_fraction", 0, 1},
     Bound{"depletion_fill_coefficient", 0, 1},
-    Bound{"excess_phase", 0, 90},
 };
 
 std::optional<std::pair<double, double>> bounds_of(const std::string& name) {

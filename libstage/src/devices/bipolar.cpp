@@ -1,8 +1,8 @@
 // The bipolar transistor device (spec section 4): wires the Gummel–Poon
 // equations of gummel_poon.hpp to the nodes, with internal nodes behind
 // nonzero base, emitter and collector resistances, Newton limiting of both
-// junctions, and the operating-point report. A pnp is the npn with every
-// voltage and current mirrored.
+// junctions, the excess-phase delay network, and the operating-point
+// report. A pnp is the npn with every voltage and current mirrored.
 #include <spdlog/fmt/fmt.h>
 
 #include <cmath>
@@ -18,8 +18,10 @@ namespace stage::devices {
 namespace {
 
 // Local nodes: the four terminals, then the internal collector, base and
-// emitter (each the terminal itself when its resistance is zero).
-enum : int { kC, kB, kE, kS, kCi, kBi, kEi, kNodes };
+// emitter (each the terminal itself when its resistance is zero), then the
+// node and the inductor current of the excess-phase network (ground when
+// there is no excess phase).
+enum : int { kC, kB, kE, kS, kCi, kBi, kEi, kLag, kDelayed, kNodes };
 using System = LocalSystem<kNodes>;
 
 // A collector current this many times the forward knee current is far into
@@ -32,12 +34,51 @@ constexpr double kFarBeyondKnee = 10;
 // practice, e.g. Sedra and Smith, "Microelectronic Circuits", ch. 6).
 constexpr double kConductionEdge = 0.5;
 
+// The excess-phase network delays the transport current u (npn sense) by
+// tau: u enters node kLag, which holds R, C = tau / (3 R) and an inductance
+// L = R tau to ground; the inductor current i is the delayed transport
+// current, u = L C i'' + (L / R) i' + i, the second-order Bessel low-pass
+// 1 / (1 + s tau + (s tau)^2 / 3) of maximally flat delay tau (Thomson,
+// "Delay networks having maximally flat frequency characteristics", Proc.
+// IEE 1949). At DC the node sits at 0 V and i = u. Any R gives the same
+// transfer; 1 ohm keeps the node's volts the size of the current's amperes.
+constexpr double kLagResistance = 1;
+
 struct JunctionVoltages {
   double vbe = 0, vbc = 0;
 };
 
 JunctionVoltages junction_voltages(double polarity, const std::array<double, kNodes>& x) {
   return {polarity * (x[kBi] - x[kEi]), polarity * (x[kBi] - x[kCi])};
+}
+
+// The transport current u, linearised as `transport`, through the
+// excess-phase network (see kLagResistance) into the collector-emitter path.
+void add_delayed_transport(System& s, double pol, const std::array<double, kNodes>& x,
+                           double transport, const GummelPoonCurrents& i, double delay) {
+  const double delayed = x[kDelayed];  // npn sense, c' -> e'
+  s.f[kCi] += pol * delayed;
+  s.f[kEi] -= pol * delayed;
+  s.g[kCi][kDelayed] += pol;
+  s.g[kEi][kDelayed] -= pol;
+  // Node kLag: current leaving through R and L, the transport current entering.
+  s.f[kLag] += x[kLag] / kLagResistance + delayed - transport;
+  s.g[kLag][kLag] += 1 / kLagResistance;
+  s.g[kLag][kDelayed] += 1;
+  for (const auto& [node, slope] :
+       {std::pair{kBi, i.dict_dvbe + i.dict_dvbc}, {kEi, -i.dict_dvbe}, {kCi, -i.dict_dvbc}}) {
+    s.g[kLag][node] -= pol * slope;
+    s.used[kLag][node] = true;
+  }
+  s.q[kLag] += delay / (3 * kLagResistance) * x[kLag];
+  s.c[kLag][kLag] += delay / (3 * kLagResistance);
+  // The inductor's branch equation L i' - v(kLag) = 0.
+  s.f[kDelayed] -= x[kLag];
+  s.g[kDelayed][kLag] -= 1;
+  s.q[kDelayed] += kLagResistance * delay * delayed;
+  s.c[kDelayed][kDelayed] += kLagResistance * delay;
+  s.used[kCi][kDelayed] = s.used[kEi][kDelayed] = s.used[kLag][kLag] = true;
+  s.used[kLag][kDelayed] = s.used[kDelayed][kLag] = s.used[kDelayed][kDelayed] = true;
 }
 
 // The device's system with the junction-controlled currents and charges
@@ -49,8 +90,12 @@ System local_system(const BipolarParameters& p, double pol, const std::array<dou
   const JunctionVoltages v = junction_voltages(pol, x);
   const double dbe = v.vbe - at.vbe, dbc = v.vbc - at.vbc;
   const GummelPoonCurrents i = gummel_poon_currents(p, at.vbe, at.vbc);
-  add_current(s, pol, kCi, kEi, i.ict + i.dict_dvbe * dbe + i.dict_dvbc * dbc,
-              {{kBi, kEi, i.dict_dvbe}, {kBi, kCi, i.dict_dvbc}});
+  const double transport = i.ict + i.dict_dvbe * dbe + i.dict_dvbc * dbc;
+  if (p.excess_phase_delay > 0) {
+    add_delayed_transport(s, pol, x, transport, i, p.excess_phase_delay);
+  } else {
+    add_current(s, pol, kCi, kEi, transport, {{kBi, kEi, i.dict_dvbe}, {kBi, kCi, i.dict_dvbc}});
+  }
   add_current(s, pol, kBi, kEi, i.ibe + i.dibe_dvbe * dbe, {{kBi, kEi, i.dibe_dvbe}});
   add_current(s, pol, kBi, kCi, i.ibc + i.dibc_dvbc * dbc, {{kBi, kCi, i.dibc_dvbc}});
   if (p.base_resistance > 0) {
@@ -145,6 +190,10 @@ class BipolarDevice final : public mna::Device {
     check.conducts(n[kBi], n[kEi], name());
     check.conducts(n[kBi], n[kCi], name());
     check.capacitive(n[kS], n[kCi], name());
+    if (n[kLag] != mna::kGroundIndex) {
+      check.conducts(n[kLag], mna::kGroundIndex, name());
+      check.fixes_voltage(n[kLag], mna::kGroundIndex, name());
+    }
   }
 
   void check_model_range(const mna::EvalRequest& at, mna::ModelRangeFindings& out) const override {
@@ -198,7 +247,9 @@ class BipolarDevice final : public mna::Device {
                                            kS,
                                            p.collector_resistance > 0 ? int{kCi} : int{kC},
                                            p.base_resistance > 0 ? int{kBi} : int{kB},
-                                           p.emitter_resistance > 0 ? int{kEi} : int{kE}};
+                                           p.emitter_resistance > 0 ? int{kEi} : int{kE},
+                                           p.excess_phase_delay > 0 ? int{kLag} : int{kE},
+                                           p.excess_phase_delay > 0 ? int{kDelayed} : int{kE}};
     const TerminalView view = reduce_to_terminals(s, 4, alias);
     const auto& y = view.conductance;
     const GummelPoonCurrents i = gummel_poon_currents(p, v.vbe, v.vbc);
@@ -238,13 +289,16 @@ class BipolarDevice final : public mna::Device {
     auto inner = [&](double resistance, mna::Index outer, const char* suffix) {
       return resistance > 0 ? topology.internal_node(name, suffix) : outer;
     };
+    const bool delayed = model.excess_phase_delay > 0;
     return {c,
             b,
             e,
             s,
             inner(model.collector_resistance, c, "collector"),
             inner(model.base_resistance, b, "base"),
-            inner(model.emitter_resistance, e, "emitter")};
+            inner(model.emitter_resistance, e, "emitter"),
+            delayed ? topology.internal_node(name, "excess_phase") : mna::kGroundIndex,
+            delayed ? topology.add_unknown(name, mna::UnknownKind::current) : mna::kGroundIndex};
   }
 
   BipolarModel model_;

@@ -93,6 +93,7 @@ BipolarParameters scale_bipolar(const BipolarModel& m, double area, double kelvi
   // every transit_bc_voltage of B-C reverse bias (1.44 ~ 1 / ln 2).
   p.inverse_transit_bc_voltage = inverse(1.44 * m.transit_bc_voltage);
   p.transit_high_current = area * m.transit_high_current;
+  p.excess_phase_delay = m.excess_phase_delay;
   return p;
 }
 

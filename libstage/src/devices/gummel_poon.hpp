@@ -7,9 +7,10 @@
 // normalised base charge qb is exactly 1 and the equations are the Ebers–Moll
 // transport model; `form = ebers_moll` skips the extras outright.
 //
-// Not used here: excess_phase (a delay of the transport current in the
-// small-signal and time-domain response) and the flicker parameters (noise);
-// they are accepted by the reader and have no effect on DC or charges.
+// Not used here: the flicker parameters (noise), accepted by the reader with
+// no effect yet. The excess-phase delay of the transport current is a network
+// of its own that bipolar.cpp wires behind these currents; it does not change
+// DC or the charges.
 #pragma once
 
 #include "stage/models.hpp"
@@ -35,6 +36,7 @@ struct BipolarParameters {
   double fill_coefficient = 0;
   double forward_transit = 0, reverse_transit = 0, transit_bias = 0;
   double inverse_transit_bc_voltage = 0, transit_high_current = 0;
+  double excess_phase_delay = 0;
   double vcrit_be = 0, vcrit_bc = 0;  // where Newton limiting starts
 };
 
