@@ -82,20 +82,8 @@ std::string_view unit_name(Quantity quantity) {
 namespace reader {
 namespace {
 
-// "; did you mean 'kΩ'?" when the word reads with its first letter's case
-// swapped (prefixes are case-sensitive: m is milli, M mega), else "".
-std::string other_case_hint(std::string_view word) {
-  if (word.empty() || !std::isalpha(static_cast<unsigned char>(word[0]))) return "";
-  std::string swapped(word);
-  const auto c = static_cast<unsigned char>(swapped[0]);
-  swapped[0] = static_cast<char>(std::isupper(c) ? std::tolower(c) : std::toupper(c));
-  if (!read_unit(swapped, true).error.empty()) return "";
-  return "; did you mean '" + swapped + "'? (prefixes are case-sensitive: k kilo, m milli, M mega)";
-}
-
-}  // namespace
-
-UnitReading read_unit(std::string_view word, bool touching) {
+// The reading itself; read_unit adds what a failed word probably meant.
+UnitReading read_known_unit(std::string_view word, bool touching) {
   for (const UnitSymbol& unit : kUnits) {
     if (word == unit.symbol) return {unit.scale, unit.offset, unit.quantity, {}};
   }
@@ -114,8 +102,28 @@ UnitReading read_unit(std::string_view word, bool touching) {
       }
     }
   }
-  return {1, 0, std::nullopt,
-          "'" + std::string(word) + "' is not a unit or SI prefix" + other_case_hint(word)};
+  return {1, 0, std::nullopt, "'" + std::string(word) + "' is not a unit or SI prefix"};
+}
+
+// "; did you mean 'kΩ'?" when the word reads with its first letter's case
+// swapped (prefixes are case-sensitive: m is milli, M mega), else "".
+std::string other_case_hint(std::string_view word) {
+  if (word.empty() || !std::isalpha(static_cast<unsigned char>(word[0]))) return "";
+  std::string swapped(word);
+  const auto c = static_cast<unsigned char>(swapped[0]);
+  swapped[0] = static_cast<char>(std::isupper(c) ? std::tolower(c) : std::toupper(c));
+  if (!read_known_unit(swapped, true).error.empty()) return "";
+  return "; did you mean '" + swapped + "'? (prefixes are case-sensitive: k kilo, m milli, M mega)";
+}
+
+}  // namespace
+
+UnitReading read_unit(std::string_view word, bool touching) {
+  UnitReading reading = read_known_unit(word, touching);
+  if (!reading.error.empty() && reading.error.ends_with("is not a unit or SI prefix")) {
+    reading.error += other_case_hint(word);
+  }
+  return reading;
 }
 
 bool units_fit(Quantity given, Quantity wanted) {
