@@ -140,7 +140,10 @@ int main(int argc, char** argv) {
   spdlog::set_level(spdlog::level::warn);
 
   CLI::App app(kDescription, "stage");
-  app.footer(kExamples);
+  // The help ends with the folders `include` searches here, in order.
+  std::string search = "\nModel search path here:";
+  for (const auto& folder : stage::default_model_path()) search += "\n  " + folder.string();
+  app.footer(std::string(kExamples) + search);
   app.set_version_flag("--version", std::string("stage ") + STAGE_VERSION);
   app.require_subcommand(1);
 

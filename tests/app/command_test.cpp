@@ -31,6 +31,10 @@ TEST(Command, VersionAndHelp) {
   EXPECT_EQ(help.status, 0);
   EXPECT_NE(help.out.find("Examples:"), std::string::npos);
   EXPECT_NE(help.out.find("Exit status"), std::string::npos);
+  // The folders `include` searches, ending with the source tree's models/.
+  EXPECT_NE(help.out.find("Model search path here:"), std::string::npos) << help.out;
+  EXPECT_NE(help.out.find(std::string(STAGE_SOURCE_DIR) + "/models"), std::string::npos)
+      << help.out;
 }
 
 TEST(Command, InputErrorNamesLineAndColumnAndExitsTwo) {
