@@ -271,7 +271,14 @@ class BipolarDevice final : public mna::Device {
     // VCE (collector) with the other held.
     op.gm = y[kC][kB];
     op.r_pi = 1 / y[kB][kB];
-    op.r_out = y[kC][kC] > 0 ? 1 / y[kC][kC] : kInfinity;
+    // Without an Early voltage a transistor whose base-collector junction
+    // does not conduct has no output conductance in the model; what y holds
+    // then is the reverse junction's leakage slope, e^(vbc/vt) small, whose
+    // inverse (1e169 Ω) is no resistance a designer could use.
+    const bool early_free_output =
+        p.inverse_early_forward == 0 &&
+        (op.region == Region::forward_active || op.region == Region::cutoff);
+    op.r_out = early_free_output || y[kC][kC] <= 0 ? kInfinity : 1 / y[kC][kC];
     op.c_pi = q.cbe_vbe;
     op.c_mu = q.cbc + q.cbx;
     op.c_cs = q.ccs;
