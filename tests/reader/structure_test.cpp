@@ -147,5 +147,26 @@ TEST_F(Includes, MissingFile) {
   }
 }
 
+// The command passes the default model folders itself; the reader adds them
+// too. Each folder is still searched, and listed, once.
+TEST_F(Includes, MissingFileListsEachFolderOnce) {
+  write("a.stage", "include \"nowhere.stage\"\n");
+  ReadOptions options;
+  options.model_path = default_model_path();
+  options.model_path.push_back(dir_);
+  try {
+    read_file(dir_ / "a.stage", options);
+    FAIL();
+  } catch (const InputError& e) {
+    const std::string message = e.message();
+    for (const auto& folder : options.model_path) {
+      const std::string listed = "\n  " + (folder / "nowhere.stage").lexically_normal().string();
+      const auto first = message.find(listed);
+      ASSERT_NE(first, std::string::npos) << message;
+      EXPECT_EQ(message.find(listed, first + 1), std::string::npos) << message;
+    }
+  }
+}
+
 }  // namespace
 }  // namespace stage::testing

@@ -3,6 +3,7 @@
 // path), refusing include cycles with their chain, then elaborates.
 #include "stage/reader.hpp"
 
+#include <algorithm>
 #include <cstdlib>
 #include <fstream>
 #include <sstream>
@@ -39,8 +40,14 @@ std::string read_whole(const fs::path& path, const SourceLocation& from) {
 class Loader {
  public:
   Loader(SyntaxTree& tree, const ReadOptions& options) : tree_(tree) {
-    search_ = options.model_path;
-    for (const fs::path& p : default_model_path()) search_.push_back(p);
+    // The caller's folders first, then the defaults; a folder named twice
+    // (a caller that passes the defaults itself) is searched once.
+    for (const auto& list : {options.model_path, default_model_path()}) {
+      for (const fs::path& p : list) {
+        if (std::find(search_.begin(), search_.end(), p.lexically_normal()) == search_.end())
+          search_.push_back(p.lexically_normal());
+      }
+    }
   }
 
   // Parses one file and, depth first, everything it includes.
@@ -64,9 +71,13 @@ class Loader {
   void resolve(int from, const ast::Include& include, const fs::path& folder) {
     const reader::SourceText& source = tree_.files[from].source;
     const fs::path written(include.path);
-    std::vector<fs::path> candidates{folder / written};
+    std::vector<fs::path> candidates{(folder / written).lexically_normal()};
     if (written.is_relative()) {
-      for (const fs::path& p : search_) candidates.push_back(p / written);
+      for (const fs::path& p : search_) {
+        fs::path candidate = (p / written).lexically_normal();
+        if (std::find(candidates.begin(), candidates.end(), candidate) == candidates.end())
+          candidates.push_back(std::move(candidate));
+      }
     }
     std::error_code ec;
     for (const fs::path& candidate : candidates) {
