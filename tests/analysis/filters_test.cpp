@@ -62,13 +62,14 @@ TEST(Filters, RcLowPass) {
     stage::test::expect_response(r.input_impedance[i], kR + zc, kTolerance, "Zin", f);
     stage::test::expect_response(r.output_impedance[i], kR * zc / (kR + zc), kTolerance, "Zout", f);
   }
-  // The corner: |H(fu)| = |H(f midband)| / sqrt(2) exactly (the definition),
-  // and f = 1/(2 pi R C) to within the midband sample's own droop: at 10 Hz
+  // The corner: |H(fu)| = |H(f peak)| / sqrt(2) exactly (the definition),
+  // and f = 1/(2 pi R C) to within the peak sample's own droop: at 10 Hz
   // |H|^2 = 1/(1 + (10/fc)^2) moves the corner by (10/fc)^2 / 2 ~ 4e-5.
+  EXPECT_EQ(r.figures.peak_frequency, 10.0);
   ASSERT_TRUE(r.figures.upper_cutoff);
   const double fu = *r.figures.upper_cutoff;
-  const double h_mid = std::abs(1.0 / (1.0 + jw(r.figures.midband_frequency) * kR * kC));
-  EXPECT_NEAR(std::abs(1.0 / (1.0 + jw(fu) * kR * kC)), h_mid / std::sqrt(2.0), kTolerance);
+  const double h_peak = std::abs(1.0 / (1.0 + jw(r.figures.peak_frequency) * kR * kC));
+  EXPECT_NEAR(std::abs(1.0 / (1.0 + jw(fu) * kR * kC)), h_peak / std::sqrt(2.0), kTolerance);
   EXPECT_NEAR(fu, 1 / (2 * M_PI * kR * kC), 5e-5 * fu);
   EXPECT_FALSE(r.figures.lower_cutoff);
   EXPECT_FALSE(r.figures.unity_gain_frequency);  // the gain never exceeds 0 dB
@@ -85,10 +86,56 @@ TEST(Filters, RcHighPass) {
   expect_sweep(r, exact);
   ASSERT_TRUE(r.figures.lower_cutoff);
   const double fl = *r.figures.lower_cutoff;
-  EXPECT_NEAR(std::abs(exact(fl)), std::abs(exact(r.figures.midband_frequency)) / std::sqrt(2.0),
+  EXPECT_NEAR(std::abs(exact(fl)), std::abs(exact(r.figures.peak_frequency)) / std::sqrt(2.0),
               kTolerance);
   EXPECT_NEAR(fl, 1 / (2 * M_PI * kR * kC), 5e-5 * fl);
   EXPECT_FALSE(r.figures.upper_cutoff);
+}
+
+// A flat response (a divider by two) has its whole sweep as its band, so
+// midband is the sweep's centre on a log scale: 10 Hz and 1 MHz give
+// 10^3.5 Hz, which is the grid's 50th point at 20 per decade. Every point
+// has the gain 20 log10(1/2).
+TEST(Filters, FlatResponseHasItsMidbandInTheMiddle) {
+  Circuit c;
+  c.add("vin", stage::VoltageSource{"in", "gnd", 0.0, 1.0});
+  c.add("r1", stage::Resistor{"in", "out", kR});
+  c.add("r2", stage::Resistor{"out", "gnd", kR});
+  const auto r = stage::run_frequency(c, sweep(10, 1e6));
+  EXPECT_NEAR(r.figures.midband_frequency, std::pow(10.0, 3.5), 1e-12 * std::pow(10.0, 3.5));
+  EXPECT_NEAR(r.figures.midband_gain_dB, 20 * std::log10(0.5), 1e-9);
+  EXPECT_FALSE(r.figures.lower_cutoff);
+  EXPECT_FALSE(r.figures.upper_cutoff);
+}
+
+// A band-pass of two first-order sections, the second loading the first
+// lightly (R2 = 1000 R1): corners near fl = 1/(2 pi R1 C1) = 16 Hz and
+// fh = 1/(2 pi R2 C2) = 160 kHz. Midband lands within one grid step of the
+// geometric mean sqrt(fl fh), the centre of the band on a log scale (the
+// band's ends are grid points within one step inside the corners), and the
+// gain there is the exact one of the cascade.
+TEST(Filters, BandPassMidbandIsTheBandsGeometricCentre) {
+  static constexpr double kR1 = 1e3, kC1 = 10e-6, kR2 = 1e6, kC2 = 1e-12;
+  Circuit c;
+  c.add("vin", stage::VoltageSource{"in", "gnd", 0.0, 1.0});
+  c.add("c1", stage::Capacitor{"in", "a", kC1});
+  c.add("r1", stage::Resistor{"a", "gnd", kR1});
+  c.add("r2", stage::Resistor{"a", "out", kR2});
+  c.add("c2", stage::Capacitor{"out", "gnd", kC2});
+  const auto r = stage::run_frequency(c, sweep(1, 1e7));
+  const auto exact = [](double f) {
+    // Node analysis of the ladder: Va (1/R1 + jwC1 + 1/(R2 + Zc2)) = jwC1 Vin.
+    const Complex zc2 = 1.0 / (jw(f) * kC2);
+    const Complex va = jw(f) * kC1 / (1.0 / kR1 + jw(f) * kC1 + 1.0 / (kR2 + zc2));
+    return va * zc2 / (kR2 + zc2);
+  };
+  expect_sweep(r, exact);
+  ASSERT_TRUE(r.figures.lower_cutoff && r.figures.upper_cutoff);
+  const double centre = std::sqrt(*r.figures.lower_cutoff * *r.figures.upper_cutoff);
+  EXPECT_LE(std::abs(std::log10(r.figures.midband_frequency / centre)), 1.0 / 20);
+  EXPECT_NEAR(r.figures.midband_gain_dB,
+              20 * std::log10(std::abs(exact(r.figures.midband_frequency))), 1e-9);
+  EXPECT_GT(r.figures.peak_gain_dB - r.figures.midband_gain_dB, -1e-12);
 }
 
 // Series R-L-C driven by vin, output across R: H = R / (R + jwL + 1/(jwC)).

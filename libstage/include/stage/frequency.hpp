@@ -31,15 +31,20 @@ namespace stage {
 // it is a voltage gain for a voltage input and a voltage output, and carries
 // ohm or siemens otherwise.
 struct FrequencyFigures {
-  // The largest gain on the sweep grid, taken as the midband reference.
+  // The largest gain on the sweep grid, and where it was found.
+  double peak_gain_dB = 0;
+  double peak_frequency = 0;  // Hz
+  // The band is the stretch of the grid around the peak where the gain stays
+  // within 3.0103 dB of it; midband is the grid point nearest the band's
+  // centre on a log scale (the geometric mean of its ends).
   double midband_gain_dB = 0;
-  double midband_frequency = 0;  // Hz, where that largest gain was found
-  // Where the gain has fallen 3.0103 dB (a factor 1/sqrt(2)) below midband,
-  // below and above the midband frequency; located to rounding by re-solving
-  // between grid points. Absent when the sweep does not reach them.
+  double midband_frequency = 0;  // Hz
+  // Where the gain has fallen 3.0103 dB (a factor 1/sqrt(2)) below the peak,
+  // below and above it; located to rounding by re-solving between grid
+  // points. Absent when the sweep does not reach them.
   std::optional<double> lower_cutoff;  // Hz
   std::optional<double> upper_cutoff;  // Hz
-  // Where the gain falls through 0 dB above the midband frequency.
+  // Where the gain falls through 0 dB above the peak.
   std::optional<double> unity_gain_frequency;  // Hz
   // At FrequencyOptions::at, solved there (not interpolated).
   std::optional<double> gain_at_dB;

@@ -1,4 +1,4 @@
-// Midband gain, corners and unity-gain frequency of a sweep.
+// Peak and midband gain, corners and unity-gain frequency of a sweep.
 #include "analysis/frequency_figures.hpp"
 
 #include <algorithm>
@@ -49,10 +49,28 @@ FrequencyFigures find_figures(const std::vector<double>& frequencies,
   FrequencyFigures figures;
   const auto peak =
       static_cast<std::size_t>(std::max_element(gain_dB.begin(), gain_dB.end()) - gain_dB.begin());
-  figures.midband_gain_dB = gain_dB[peak];
-  figures.midband_frequency = frequencies[peak];
+  figures.peak_gain_dB = gain_dB[peak];
+  figures.peak_frequency = frequencies[peak];
 
-  const double corner = figures.midband_gain_dB - kHalfPowerDB;
+  // The band: the grid points on either side of the peak whose gain stays
+  // within the half-power drop of it, ending at a corner or at the sweep's
+  // end. Midband is the grid point nearest its centre on a log scale, so a
+  // flat response's midband sits in the middle of the flat part, not at
+  // whichever end a slight slope happens to favour.
+  const double corner = figures.peak_gain_dB - kHalfPowerDB;
+  std::size_t first = peak, last = peak;
+  while (first > 0 && gain_dB[first - 1] >= corner) --first;
+  while (last + 1 < gain_dB.size() && gain_dB[last + 1] >= corner) ++last;
+  const double centre = std::sqrt(frequencies[first] * frequencies[last]);
+  std::size_t middle = first;
+  for (std::size_t i = first; i <= last; ++i) {
+    if (std::abs(std::log(frequencies[i] / centre)) <
+        std::abs(std::log(frequencies[middle] / centre)))
+      middle = i;
+  }
+  figures.midband_gain_dB = gain_dB[middle];
+  figures.midband_frequency = frequencies[middle];
+
   for (std::size_t i = peak; i > 0; --i) {
     if (gain_dB[i - 1] < corner) {
       figures.lower_cutoff =
@@ -67,7 +85,7 @@ FrequencyFigures find_figures(const std::vector<double>& frequencies,
       break;
     }
   }
-  for (std::size_t i = peak; i + 1 < gain_dB.size() && figures.midband_gain_dB > 0; ++i) {
+  for (std::size_t i = peak; i + 1 < gain_dB.size() && figures.peak_gain_dB > 0; ++i) {
     if (gain_dB[i + 1] < 0.0) {
       figures.unity_gain_frequency =
           locate_crossing(frequencies[i], frequencies[i + 1], 0.0, gain_dB_at);

@@ -61,6 +61,8 @@ Json to_json(const FrequencyResult& r) {
             {"phase_deg", r.phase_deg}};
   add_impedance(json, "input_impedance", r.input_impedance);
   if (!r.output_impedance.empty()) add_impedance(json, "output_impedance", r.output_impedance);
+  json["peak_gain_dB"] = fig.peak_gain_dB;
+  json["peak_frequency_Hz"] = fig.peak_frequency;
   json["midband_gain_dB"] = fig.midband_gain_dB;
   json["midband_frequency_Hz"] = fig.midband_frequency;
   json["lower_cutoff_Hz"] = optional_number(fig.lower_cutoff);
@@ -103,6 +105,8 @@ void print_table(std::ostream& out, const FrequencyResult& r) {
   figures.add_row({band ? "midband gain" : "gain",
                    fixed(fig.midband_gain_dB, "dB") + " at " + si(fig.midband_frequency, "Hz")});
   if (band) {
+    figures.add_row(
+        {"peak gain", fixed(fig.peak_gain_dB, "dB") + " at " + si(fig.peak_frequency, "Hz")});
     figures.add_row({"lower -3 dB frequency", optional_text(fig.lower_cutoff, "Hz")});
     figures.add_row({"upper -3 dB frequency", optional_text(fig.upper_cutoff, "Hz")});
     figures.add_row({"unity-gain frequency", optional_text(fig.unity_gain_frequency, "Hz")});
