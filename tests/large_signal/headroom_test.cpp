@@ -88,6 +88,31 @@ TEST(FollowerHeadroom, IndependentOfTheStartingAmplitude) {
   EXPECT_LT(high.transient_runs, 40);
 }
 
+// The follower's output capacitor charges through the 100 ohm load with a
+// time constant of about 100 uF x 100 ohm = 10 ms, ten periods at 1 kHz
+// (first-order RC, any circuits text): four periods leave e^-0.4, two
+// thirds, of its start-up drift, so a search held to four periods marks its
+// clip levels approximate and names the option that lifts the bound; 256
+// periods leave e^-25.6, and nothing is marked.
+bool names_settle_periods(const stage::HeadroomResult& h) {
+  for (const auto& note : h.notes)
+    if (note.find("settle_periods") != std::string::npos) return true;
+  return false;
+}
+
+TEST(FollowerHeadroom, AnUnsettledClipLevelNamesSettlePeriods) {
+  auto held = options(0.01);
+  held.settle_periods = 4;
+  EXPECT_TRUE(
+      names_settle_periods(stage::run_headroom(stage::testing::follower_into_low_load(), held)));
+  auto raised = options(0.01);
+  raised.settle_periods = 256;
+  EXPECT_FALSE(
+      names_settle_periods(stage::run_headroom(stage::testing::follower_into_low_load(), raised)));
+  held.settle_periods = 1;
+  EXPECT_THROW(stage::run_headroom(stage::testing::follower_into_low_load(), held), stage::Error);
+}
+
 // A common-emitter stage: its collector rises until the transistor cuts off,
 // at most ICQ (RC || RL) above the quiescent point, and falls until it
 // saturates, at most VCEQ (RC || RL) / R'ac below it (the share of the VCE

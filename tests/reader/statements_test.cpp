@@ -128,8 +128,9 @@ TEST(Analyses, EveryKind) {
       "analyze transient(stop = 5 ms, max_step = 2 us, start = zero,\n"
       "                  signals = (out, r1.current, (in, out)), uniform_step = 1 us)\n"
       "analyze spectrum(signal = out, fundamental = 1 kHz, harmonics = 5, include_noise = true)\n"
-      "analyze headroom(input = vin, output = out, frequency = 2 kHz, load = rload)\n"
-      "analyze characterize(input = vin, output = (out, gnd))\n");
+      "analyze headroom(input = vin, output = out, frequency = 2 kHz, load = rload,\n"
+      "                 settle_periods = 128)\n"
+      "analyze characterize(input = vin, output = (out, gnd), settle_periods = 8)\n");
   ASSERT_EQ(deck.analyses.size(), 9u);
   EXPECT_EQ(analysis_kind(deck.analyses[0].options), "bias");
   const auto& s1 = std::get<SweepOptions>(deck.analyses[1].options);
@@ -156,9 +157,11 @@ TEST(Analyses, EveryKind) {
   EXPECT_DOUBLE_EQ(*t.resample_step, 1e-6);
   EXPECT_TRUE(std::get<SpectrumOptions>(deck.analyses[6].options).with_noise);
   EXPECT_DOUBLE_EQ(std::get<HeadroomOptions>(deck.analyses[7].options).frequency, 2e3);
-  EXPECT_EQ(std::get<CharacterizeOptions>(deck.analyses[8].options).output.kind,
-            SignalRef::Kind::node_pair);
-  EXPECT_EQ(deck.analyses[8].where.line, 15);
+  EXPECT_EQ(std::get<HeadroomOptions>(deck.analyses[7].options).settle_periods, 128);
+  const auto& c = std::get<CharacterizeOptions>(deck.analyses[8].options);
+  EXPECT_EQ(c.output.kind, SignalRef::Kind::node_pair);
+  EXPECT_EQ(c.settle_periods, 8);
+  EXPECT_EQ(deck.analyses[8].where.line, 16);
 }
 
 // A frequency analysis from = to is the one frequency; to below from is an

@@ -68,6 +68,10 @@ struct HeadroomOptions {
   // Transient runs the search may take (each one settles the stage at one
   // drive level) before it gives up with a search_exhausted error.
   int max_runs = 100;
+  // Each run simulates whole periods until the last two agree (doubling from
+  // four); a stage with slow coupling capacitors may need more than this
+  // many, in which case its figures are marked approximate.
+  int settle_periods = 64;
 };
 
 struct CharacterizeOptions {
@@ -75,6 +79,7 @@ struct CharacterizeOptions {
   SignalRef output;
   double frequency = 1e3;
   std::optional<std::string> load;
+  int settle_periods = 64;  // as HeadroomOptions::settle_periods
 };
 
 using AnalysisOptions = std::variant<BiasOptions, SweepOptions, FrequencyOptions, TransientOptions,

@@ -21,6 +21,7 @@
 
 #include "analysis/step_interpolant.hpp"
 #include "common/constants.hpp"
+#include "common/si_format.hpp"
 #include "stage/errors.hpp"
 
 namespace stage {
@@ -159,9 +160,8 @@ SpectrumResult run_spectrum(const TransientResult& tr, const SpectrumOptions& op
     result.period_change = rms_fundamental > 0 ? change / rms_fundamental : change;
     if (result.period_change > kSettleLimit) {
       result.settled = false;
-      result.message = "the last two periods differ by " +
-                       std::to_string(in_percent(result.period_change)) +
-                       " % of the fundamental (RMS): the waveform has not settled; run longer";
+      result.message = "the last two periods differ by " + text::percent(result.period_change) +
+                       " of the fundamental (RMS): the waveform has not settled";
     }
   }
   return result;

@@ -17,12 +17,22 @@ constexpr double kMaxResampledPoints = 1e7;
 constexpr double kMaxSteps = 1e8;  // stop / max_step: a run the step bound alone makes endless
 constexpr int kMaxHarmonics = 1000;
 constexpr int kMaxHeadroomRuns = 1000;
+// Two periods are the fewest that show whether a waveform repeats; 10 000 of
+// 400 steps each bound one run's work.
+constexpr int kMinSettlePeriods = 2, kMaxSettlePeriods = 10000;
 
 std::optional<Problem> problem(std::string subject, std::string message) {
   return Problem{std::move(subject), std::move(message)};
 }
 
 bool positive_finite(double v) { return std::isfinite(v) && v > 0; }
+
+std::optional<Problem> settle_periods_in_range(int periods) {
+  if (periods < kMinSettlePeriods || periods > kMaxSettlePeriods) {
+    return problem("settle_periods", "settle_periods must be a whole number from 2 to 10000");
+  }
+  return std::nullopt;
+}
 
 std::optional<Problem> independent_source(const Circuit& circuit, const std::string& input) {
   const Element* e = circuit.find(input);
@@ -114,6 +124,7 @@ std::optional<Problem> check(const Circuit& circuit, const HeadroomOptions& o) {
   if (o.max_runs < 1 || o.max_runs > kMaxHeadroomRuns) {
     return problem("max_runs", "a headroom search takes from 1 to 1000 transient runs");
   }
+  if (auto p = settle_periods_in_range(o.settle_periods)) return p;
   if (auto p = independent_source(circuit, o.input)) return p;
   if (auto p = large_signal_output(o.output)) return p;
   return load_exists(circuit, o.load);
@@ -121,6 +132,7 @@ std::optional<Problem> check(const Circuit& circuit, const HeadroomOptions& o) {
 
 std::optional<Problem> check(const Circuit& circuit, const CharacterizeOptions& o) {
   if (!positive_finite(o.frequency)) return problem("frequency", "the frequency must be positive");
+  if (auto p = settle_periods_in_range(o.settle_periods)) return p;
   if (auto p = independent_source(circuit, o.input)) return p;
   if (auto p = large_signal_output(o.output)) return p;
   return load_exists(circuit, o.load);

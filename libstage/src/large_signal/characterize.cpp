@@ -139,8 +139,8 @@ CharacterizeResult run_characterize(const Circuit& circuit, const CharacterizeOp
   // search and the power rows share its system and its bias point.
   const LoadProbes load = load_probes(circuit, options);
   const analysis::SineDrive drive(analysis::with_only_ac_input(circuit, options.input), solver,
-                                  options.input, options.output, options.frequency, load.signals(),
-                                  true);
+                                  options.input, options.output, options.frequency,
+                                  options.settle_periods, load.signals(), true);
   r.frequency = drive.simulation().frequency(f);
   r.bias = r.frequency.bias;
   r.gain = amplitude_ratio_from_db(*r.frequency.figures.gain_at_dB);
@@ -153,6 +153,7 @@ CharacterizeResult run_characterize(const Circuit& circuit, const CharacterizeOp
   if (!r.frequency.output_impedance.empty()) r.output_impedance = r.frequency.output_impedance[at];
 
   HeadroomOptions h{options.input, options.output, options.frequency, kHeadroomLimit, options.load};
+  h.settle_periods = options.settle_periods;
   r.headroom = analysis::headroom_search(circuit, drive, h, progress);
   const auto power_at = [&](double amplitude, const std::string& row) {
     return swing_power(circuit, drive, load, options.input, amplitude, options.frequency, row);

@@ -35,7 +35,8 @@ HeadroomResult run_headroom(const Circuit& circuit, const HeadroomOptions& optio
     throw Error(ErrorKind::invalid_request, p->message, {p->subject});
   }
   const analysis::SineDrive drive(analysis::with_only_ac_input(circuit, options.input), solver,
-                                  options.input, options.output, options.frequency);
+                                  options.input, options.output, options.frequency,
+                                  options.settle_periods);
   return analysis::headroom_search(circuit, drive, options, progress);
 }
 
@@ -252,9 +253,10 @@ ClipLevel clip_level(bool positive, const Findings& f) {
   }
   const DriveMeasurement& clipped = f.runs.measured().at(clip.input_amplitude);
   if (!clipped.settled) {
-    f.notes.push_back(name + " side: its clip level is approximate: at " +
-                      text::si(clipped.amplitude, "V") + " of drive, after " +
-                      std::to_string(clipped.periods) + " periods, " + clipped.unsettled);
+    f.notes.push_back(
+        name + " side: its clip level is approximate: at " + text::si(clipped.amplitude, "V") +
+        " of drive, after " + std::to_string(clipped.periods) + " periods, " + clipped.unsettled +
+        "; a larger settle_periods (now " + std::to_string(clipped.periods) + ") lets it settle");
   }
   return clip;
 }

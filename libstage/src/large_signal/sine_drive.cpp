@@ -20,7 +20,6 @@ namespace stage::analysis {
 namespace {
 
 constexpr int kFirstPeriods = 4;         // simulated before the last period is judged settled
-constexpr int kMaxPeriods = 64;          // coupling capacitors get this long to settle
 constexpr double kStepsPerPeriod = 400;  // step bound: peaks read to ~3e-5 relative
 constexpr int kHarmonics = 9;
 
@@ -37,16 +36,17 @@ std::string_view amplitude_unit(const Circuit& circuit, const std::string& input
 }  // namespace
 
 SineDrive::SineDrive(const Circuit& circuit, const SolverOptions& solver, std::string input,
-                     SignalRef output, double frequency, std::vector<SignalRef> record,
-                     bool energy_ledger)
+                     SignalRef output, double frequency, int settle_periods,
+                     std::vector<SignalRef> record, bool energy_ledger)
     : simulation_(circuit, solver),
       input_(std::move(input)),
       output_(std::move(output)),
       frequency_(frequency),
       input_dc_(dc_of(circuit, input_)),
+      settle_periods_(settle_periods),
       record_(std::move(record)),
       energy_ledger_(energy_ledger),
-      periods_(kFirstPeriods) {}
+      periods_(std::min(kFirstPeriods, settle_periods)) {}
 
 TransientResult SineDrive::run(double amplitude, int periods, DriveMeasurement& m) const {
   // The sine rides on the source's DC value, so the bias point, solved once
@@ -115,7 +115,7 @@ DriveMeasurement SineDrive::measure(double amplitude) const {
   m.amplitude = amplitude;
   // Start from the length the last measurement needed: the circuit's time
   // constants do not change with the amplitude.
-  for (int periods = periods_;; periods *= 2) {
+  for (int periods = periods_;; periods = std::min(2 * periods, settle_periods_)) {
     m.transient = run(amplitude, periods, m);
     m.periods = periods;
     const SpectrumResult spectrum = run_spectrum(m.transient, {output_, frequency_, kHarmonics}, 1);
@@ -123,7 +123,7 @@ DriveMeasurement SineDrive::measure(double amplitude) const {
     m.fundamental = spectrum.harmonics.front().amplitude;
     m.average = spectrum.dc;
     periods_ = periods;
-    if (spectrum.settled || periods * 2 > kMaxPeriods) {
+    if (spectrum.settled || periods >= settle_periods_) {
       if (!spectrum.settled) {
         // The results that use this measurement say so; the log is for tracing.
         spdlog::debug("sine drive at {}: {}",

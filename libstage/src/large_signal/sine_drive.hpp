@@ -57,9 +57,11 @@ class SineDrive {
   // signals kept in each measurement's transient (load current and voltage,
   // for power); `energy_ledger` fills each measurement's element_power.
   // Every run is solved with `solver`.
+  // A measurement simulates whole periods, doubling from four, until the
+  // last two agree or `settle_periods` have run.
   SineDrive(const Circuit& circuit, const SolverOptions& solver, std::string input,
-            SignalRef output, double frequency, std::vector<SignalRef> record = {},
-            bool energy_ledger = false);
+            SignalRef output, double frequency, int settle_periods,
+            std::vector<SignalRef> record = {}, bool energy_ledger = false);
 
   DriveMeasurement measure(double amplitude) const;
   int runs() const { return runs_; }
@@ -78,6 +80,7 @@ class SineDrive {
   SignalRef output_;
   double frequency_;
   double input_dc_ = 0;
+  int settle_periods_;
   std::vector<SignalRef> record_;
   bool energy_ledger_ = false;
   mutable int runs_ = 0;

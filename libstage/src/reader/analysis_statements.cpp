@@ -278,7 +278,8 @@ HeadroomOptions headroom_options(const AnalysisReading& r) {
                                    {"output", false, true},
                                    {"frequency"},
                                    {"distortion_limit"},
-                                   {"load"}};
+                                   {"load"},
+                                   {"settle_periods"}};
   const BoundArguments args = r.bind(slots);
   HeadroomOptions h;
   h.input = r.input(args);
@@ -286,18 +287,20 @@ HeadroomOptions headroom_options(const AnalysisReading& r) {
   h.frequency = r.positive(args, "frequency", Quantity::frequency, h.frequency);
   h.distortion_limit = r.positive(args, "distortion_limit", Quantity::ratio, h.distortion_limit);
   h.load = r.optional_element(args, "load");
+  h.settle_periods = r.whole(args, "settle_periods", h.settle_periods);
   return h;
 }
 
 CharacterizeOptions characterize_options(const AnalysisReading& r) {
   static constexpr Slot slots[] = {
-      {"input", false, true}, {"output", false, true}, {"frequency"}, {"load"}};
+      {"input", false, true}, {"output", false, true}, {"frequency"}, {"load"}, {"settle_periods"}};
   const BoundArguments args = r.bind(slots);
   CharacterizeOptions c;
   c.input = r.input(args);
   c.output = r.signal(*args.get("output"));
   c.frequency = r.positive(args, "frequency", Quantity::frequency, c.frequency);
   c.load = r.optional_element(args, "load");
+  c.settle_periods = r.whole(args, "settle_periods", c.settle_periods);
   return c;
 }
 

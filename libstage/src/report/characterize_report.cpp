@@ -89,7 +89,8 @@ void print_table(std::ostream& out, const CharacterizeResult& r) {
                                   {"full", &r.full_swing},
                                   {"within-limit", &r.limit_swing}}) {
       if (*s && !(*s)->settled) {
-        out << "  note: the " << name << " swing is approximate: " << (*s)->unsettled << '\n';
+        out << "  note: the " << name << " swing is approximate: " << (*s)->unsettled
+            << "; a larger settle_periods lets it settle\n";
       }
     }
   }

@@ -4,6 +4,15 @@
 #include <cmath>
 
 namespace stage::report {
+namespace {
+
+// The spectrum of a statement reads the transient before it, whose `stop`
+// is what the user lengthens.
+std::string unsettled_warning(const SpectrumResult& r) {
+  return r.message + "; a later stop in the transient before it lets it settle";
+}
+
+}  // namespace
 
 Json to_json(const SpectrumResult& r) {
   Json harmonics = Json::array();
@@ -14,7 +23,7 @@ Json to_json(const SpectrumResult& r) {
          {"dc", r.dc},         {"harmonics", harmonics}, {"thd", r.thd}};
   if (r.thd_plus_noise) j["thd_plus_noise"] = *r.thd_plus_noise;
   j["settled"] = r.settled;
-  if (!r.settled) j["warning"] = r.message;
+  if (!r.settled) j["warning"] = unsettled_warning(r);
   return j;
 }
 
@@ -26,7 +35,7 @@ void print_table(std::ostream& out, const SpectrumResult& r) {
   out << "THD " << percent(r.thd);
   if (r.thd_plus_noise) out << ", THD+N " << percent(*r.thd_plus_noise);
   out << "\n";
-  if (!r.settled) out << "warning: " << r.message << "\n";
+  if (!r.settled) out << "warning: " << unsettled_warning(r) << "\n";
   out << '\n';
   TextTable table({"n", "frequency", "amplitude", "relative", "phase"});
   const double first = r.harmonics.empty() ? 0.0 : r.harmonics.front().amplitude;
