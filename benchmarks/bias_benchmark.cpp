@@ -5,6 +5,9 @@
 // refactor+solve of the same matrix.
 #include <benchmark/benchmark.h>
 
+#include <algorithm>
+#include <cmath>
+
 #include "analysis/newton.hpp"
 #include "analysis/operating_point.hpp"
 #include "benchmark_support.hpp"
@@ -57,10 +60,16 @@ stage::Circuit generate(int kind, int transistors) {
   return kind == 0 ? follower_chain(transistors) : differential_pairs(transistors);
 }
 
+// Arguments: circuit kind, transistors, and optionally k for a relative
+// tolerance of 10^-k (default: the SolverOptions default). Counters: Newton
+// iterations, and the largest KCL residual at the solution, so the cost and
+// the gain of a tighter tolerance read side by side.
 void BM_BiasFromZero(benchmark::State& state) {
   const auto circuit = generate(static_cast<int>(state.range(0)), static_cast<int>(state.range(1)));
   stage::mna::System system = stage::assemble(circuit);
-  stage::analysis::NewtonSolver newton(system, stage::SolverOptions{});
+  stage::SolverOptions solver;
+  if (state.range(2) > 0) solver.relative_tolerance = std::pow(10.0, -state.range(2));
+  stage::analysis::NewtonSolver newton(system, solver);
   std::vector<double> x(static_cast<std::size_t>(system.size()) + 1);
   int iterations = 0;
   for (auto _ : state) {
@@ -69,6 +78,14 @@ void BM_BiasFromZero(benchmark::State& state) {
   }
   state.counters["newton_iterations"] = iterations;
   state.counters["unknowns"] = system.size();
+  auto w = system.make_workspace();
+  system.evaluate(system.request(x.data()), w);
+  double largest = 0;
+  for (stage::mna::Index i = 1; i <= system.size(); ++i) {
+    if (system.topology().kind(i) == stage::mna::UnknownKind::voltage)
+      largest = std::max(largest, std::abs(w.f[i]));
+  }
+  state.counters["largest_kcl_residual_A"] = largest;
   // Seconds per Newton iteration: elapsed / (runs * iterations per run).
   state.counters["seconds_per_newton_iteration"] = benchmark::Counter(
       iterations, benchmark::Counter::kIsIterationInvariantRate | benchmark::Counter::kInvert);
@@ -103,11 +120,19 @@ void BM_RefactorSolve(benchmark::State& state) {
 
 void Sizes(benchmark::internal::Benchmark* b) {
   for (int kind : {0, 1}) {
-    for (int n : {10, 100, 500, 2000}) b->Args({kind, n});
+    for (int n : {10, 100, 500, 2000}) b->Args({kind, n, 0});
+  }
+}
+
+// The default relative tolerance (1e-4) against 1e-5 and 1e-6.
+void Tolerances(benchmark::internal::Benchmark* b) {
+  for (int kind : {0, 1}) {
+    for (int k : {4, 5, 6}) b->Args({kind, 500, k});
   }
 }
 
 BENCHMARK(BM_BiasFromZero)->Apply(Sizes)->Unit(benchmark::kMicrosecond);
+BENCHMARK(BM_BiasFromZero)->Apply(Tolerances)->Unit(benchmark::kMicrosecond);
 BENCHMARK(BM_DeviceEvaluation)->Apply(Sizes)->Unit(benchmark::kMicrosecond);
 BENCHMARK(BM_RefactorSolve)->Apply(Sizes)->Unit(benchmark::kMicrosecond);
 

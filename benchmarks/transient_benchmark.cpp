@@ -6,6 +6,7 @@
 // same matrix G + a C, the floor a step's cost is measured against.
 #include <benchmark/benchmark.h>
 
+#include <cmath>
 #include <string>
 
 #include "analysis/follower_chain.hpp"
@@ -73,6 +74,13 @@ void BM_TransientRcLadderConstantStep(benchmark::State& state) {
   run(state, rc_ladder(10000), "n10000", 5, 2000);
 }
 void BM_TransientFollowers(benchmark::State& state) { run(state, follower_array(100), "e99"); }
+// The same at a relative tolerance of 10^-k, k = 4 (the default), 5, 6: the
+// cost of a tighter Newton and step-error criterion.
+void BM_TransientFollowersByTolerance(benchmark::State& state) {
+  stage::SolverOptions solver;
+  solver.relative_tolerance = std::pow(10.0, -static_cast<double>(state.range(0)));
+  run(state, follower_array(100), "e99", 5, 100, solver);
+}
 // The twenty-follower chain, 10 mV at 1 kHz, 2 ms at most 10 us a step (the
 // run of issue 10), by integration method: 0 TR-BDF2, 1 trapezoidal rule,
 // 2 BDF2.
@@ -111,6 +119,7 @@ BENCHMARK(BM_TransientRcLadderConstantStep)->Unit(benchmark::kMillisecond);
 BENCHMARK(BM_KluSolveRcLadder)->Unit(benchmark::kMicrosecond);
 BENCHMARK(BM_TransientFollowers)->Unit(benchmark::kMillisecond);
 BENCHMARK(BM_KluRefactorSolveFollowers)->Unit(benchmark::kMicrosecond);
+BENCHMARK(BM_TransientFollowersByTolerance)->DenseRange(4, 6)->Unit(benchmark::kMillisecond);
 BENCHMARK(BM_TransientFollowerChain)->DenseRange(0, 2)->Unit(benchmark::kMillisecond);
 
 }  // namespace
