@@ -71,6 +71,14 @@ TEST(BipolarDerivatives, FullGummelPoonCurrentCrowdingAwayFromReference) {
   for (Polarity p : {Polarity::npn, Polarity::pnp}) worst_over_grid(m, p, 1.0, 350.0);
 }
 
+// The excess-phase network adds a node, a current unknown and their
+// stamps, including the transport current's derivatives entering the node.
+TEST(BipolarDerivatives, FullGummelPoonWithExcessPhase) {
+  BipolarModel m = full_bipolar_model();
+  m.excess_phase_delay = 50e-12;
+  for (Polarity p : {Polarity::npn, Polarity::pnp}) worst_over_grid(m, p);
+}
+
 TEST(BipolarDerivatives, GummelPoonWithoutResistancesOrCharges) {
   BipolarModel m = full_bipolar_model();
   m.base_resistance = m.emitter_resistance = m.collector_resistance = 0;

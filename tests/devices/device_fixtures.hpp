@@ -108,7 +108,11 @@ inline std::vector<double> bipolar_state(DerivativeCheck& check, Polarity polari
   for (const auto& [name, v] : inner) {
     terminals[name.substr(0, 1)] = v + (has_internal(name) ? s * drop.at(name) : 0.0);
   }
-  return check.state(terminals, [&](const std::string& n) { return inner.at(n.substr(2)); });
+  // The excess-phase network's node carries a few millivolts (its current
+  // unknown, not a node, stays at zero: the network is linear in it).
+  return check.state(terminals, [&](const std::string& n) {
+    return n == "q:excess_phase" ? 0.003 : inner.at(n.substr(2));
+  });
 }
 
 }  // namespace stage::testing

@@ -305,7 +305,9 @@ class BipolarDevice final : public mna::Device {
             inner(model.base_resistance, b, "base"),
             inner(model.emitter_resistance, e, "emitter"),
             delayed ? topology.internal_node(name, "excess_phase") : mna::kGroundIndex,
-            delayed ? topology.add_unknown(name, mna::UnknownKind::current) : mna::kGroundIndex};
+            delayed
+                ? topology.internal_unknown(name, "excess_phase_current", mna::UnknownKind::current)
+                : mna::kGroundIndex};
   }
 
   BipolarModel model_;

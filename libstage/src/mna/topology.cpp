@@ -39,7 +39,12 @@ Index Topology::node(const std::string& name) {
 }
 
 Index Topology::internal_node(const std::string& device, const std::string& suffix) {
-  return add(device + ":" + suffix, UnknownKind::voltage, device);
+  return internal_unknown(device, suffix, UnknownKind::voltage);
+}
+
+Index Topology::internal_unknown(const std::string& device, const std::string& suffix,
+                                 UnknownKind kind) {
+  return add(device + ":" + suffix, kind, device);
 }
 
 Index Topology::terminal_node(const std::string& element, const std::string& terminal) {

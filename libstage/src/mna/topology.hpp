@@ -35,6 +35,9 @@ class Topology {
   // A node inside a device (for example behind a series resistance), named
   // "<device>:<suffix>" so that failure messages can point at it.
   Index internal_node(const std::string& device, const std::string& suffix);
+  // Any unknown inside a device, named likewise: a current that an inner
+  // network of the device needs (not a branch current of the element).
+  Index internal_unknown(const std::string& device, const std::string& suffix, UnknownKind kind);
   // A node between element `element`'s terminal `terminal` and the circuit
   // node it is written on, where an ammeter measures the current into the
   // element there: an internal node named "<element>:<terminal>", which
