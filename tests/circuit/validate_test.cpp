@@ -61,6 +61,17 @@ TEST(Validate, ImpossiblePulseIsNamed) {
   EXPECT_NE(p->message.find("high_time"), std::string::npos) << p->message;
 }
 
+// A node built in C++ named like the node an ammeter inserts for sensing
+// q1's collector current ("q1:collector") is refused, naming the element.
+TEST(Validate, NodeNamesWithAColonAreRefused) {
+  Circuit c = stage::testing::follower_into_low_load();
+  c.add("rx", stage::Resistor{"q1:collector", "gnd", 1e3});
+  const auto p = stage::validate(c);
+  ASSERT_TRUE(p.has_value());
+  EXPECT_EQ(p->subject, "rx");
+  EXPECT_NE(p->message.find("q1:collector"), std::string::npos) << p->message;
+}
+
 TEST(Validate, ModelParametersOutsideTheirRangeAreNamed) {
   Circuit c = stage::testing::follower_into_low_load();
   stage::BipolarModel m = stage::testing::generic_npn();

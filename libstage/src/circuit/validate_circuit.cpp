@@ -105,7 +105,22 @@ std::optional<Problem> field_problem(const Circuit& circuit, const std::string& 
   return std::nullopt;
 }
 
+// `:` joins a device and a part of it in the names of unknowns inside
+// devices ("q1:base", and the node an ammeter inserts at "q1:collector"),
+// so a circuit node named so could be taken for one of them.
+std::optional<Problem> node_name_problem(const Element& element) {
+  for (const std::string& node : kinds::nodes(element.data)) {
+    if (node.find(':') != std::string::npos) {
+      return Problem{element.name, "'" + element.name + "' is connected to node '" + node +
+                                       "': ':' is kept for the nodes inside devices "
+                                       "(\"q1:base\"); choose a name without it"};
+    }
+  }
+  return std::nullopt;
+}
+
 std::optional<Problem> element_problem(const Circuit& circuit, const Element& element) {
+  if (auto p = node_name_problem(element)) return p;
   return kinds::with_descriptor(
       element.data, [&](const auto& e, const auto& kind) -> std::optional<Problem> {
         for (const auto& field : kind.fields) {
