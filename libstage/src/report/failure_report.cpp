@@ -22,8 +22,8 @@ Json to_json(const AnalysisFailure& f) {
 }
 
 void print_table(std::ostream& out, const AnalysisFailure& f) {
-  out << "Failed: analyze " << f.kind << " (line " << f.where.line << ", "
-      << to_string(f.error_kind) << ")\n  " << f.message << '\n';
+  out << "Failed: analyze " << f.kind << " at " << f.where.file << ':' << f.where.line << ':'
+      << f.where.column << " (" << to_string(f.error_kind) << ")\n  " << f.message << '\n';
 }
 
 void write_csv(std::ostream& out, const AnalysisFailure& f) {
