@@ -1,5 +1,5 @@
-// The `curves` subcommands: read a model library (.stage file with `model`
-// statements) and curve files, then check the model against them or fit
+// The `curves` subcommands: read model libraries (.stage files with `model`
+// statements) and curve files, then check the models against them or fit
 // chosen parameters to them. Output is readable tables on stdout; the
 // model's curves go to CSV files with --csv, the fitted model statement to
 // stdout and, with --output, to a file.
@@ -11,6 +11,7 @@
 #include <fstream>
 #include <iostream>
 #include <memory>
+#include <span>
 
 #include "exit_status.hpp"
 #include "stage/curves.hpp"
@@ -23,17 +24,19 @@ namespace {
 constexpr const char* kExamples = R"(
 Examples:
   stage curves check models/transistors.stage models/curves/small_npn_*.csv
+  stage curves check models/transistors.stage models/diodes.stage models/curves/*.csv
   stage curves check models/transistors.stage gummel.csv --model small_npn --tolerance 2%
   stage curves fit models/transistors.stage gummel.csv output.csv --model small_npn \
       --params saturation_current beta_forward early_voltage_forward --output fitted.stage
 
-Curve files: libstage/src/curves/curve-format.md. Exit status: 0 every curve within
+Files ending in .stage are model libraries, searched in the order given: the
+first that defines a model supplies it. Every other file is a curve file:
+libstage/src/curves/curve-format.md. Exit status: 0 every curve within
 tolerance (check) or a converged fit, 1 a curve out of tolerance or no convergence,
 2 bad input, 3 a point the simulator could not solve.)";
 
 struct CurvesSettings {
-  std::string model_file;
-  std::vector<std::string> curve_files;
+  std::vector<std::string> files;  // model libraries and curve files, in any order
   std::string model;
   std::vector<std::string> tolerances;
   std::string csv_dir;
@@ -66,14 +69,20 @@ stage::ToleranceOverride parse_tolerances(const std::vector<std::string>& texts)
   return o;
 }
 
-std::string model_name_for(const stage::Curve& curve, const CurvesSettings& s,
-                           const stage::Circuit& library) {
-  if (!s.model.empty()) return s.model;
-  if (!curve.model.empty()) return curve.model;
-  if (library.models().size() == 1) return library.models().names().front();
-  throw stage::InputError(
-      {curve.file.string(), 0, 0},
-      "the curve names no model and " + s.model_file + " holds several: give --model NAME");
+// The model a curve is checked against or fitted from: --model, else the
+// curve file's `model` line, else the libraries' only model.
+stage::DeviceModel model_for(const stage::Curve& curve, const CurvesSettings& s,
+                             std::span<const stage::ModelSource> libraries) {
+  if (!s.model.empty()) return stage::find_device_model(libraries, s.model, {"--model", 0, 0});
+  if (!curve.model.empty()) return stage::find_device_model(libraries, curve.model, curve.model_at);
+  std::vector<std::string> names;
+  for (const auto& library : libraries) {
+    for (const std::string& n : library.models.names()) names.push_back(n);
+  }
+  if (names.size() == 1) return stage::find_device_model(libraries, names.front(), {});
+  throw stage::InputError({curve.file.string(), 0, 0},
+                          "the curve names no model and the model libraries hold several: give "
+                          "--model NAME");
 }
 
 // Reference and model side by side, one row per point, for plotting.
@@ -105,15 +114,29 @@ void write_comparison_csv(const std::filesystem::path& path, const stage::CurveC
 }
 
 struct Inputs {
-  stage::Deck library;
+  std::vector<stage::ModelSource> libraries;
   std::vector<stage::Curve> curves;
+  std::vector<std::string> curve_files;
 };
 
+// Files ending in .stage are model libraries; every other file is a curve.
 Inputs read_inputs(const CurvesSettings& s) {
   stage::ReadOptions options;
   options.model_path = stage::default_model_path();
-  Inputs in{stage::read_file(s.model_file, options), {}};
-  for (const auto& file : s.curve_files) in.curves.push_back(stage::read_curve_file(file));
+  Inputs in;
+  for (const auto& file : s.files) {
+    if (std::filesystem::path(file).extension() == ".stage") {
+      in.libraries.push_back({file, stage::read_file(file, options).circuit.models()});
+    } else {
+      in.curves.push_back(stage::read_curve_file(file));
+      in.curve_files.push_back(file);
+    }
+  }
+  if (in.libraries.empty() || in.curves.empty()) {
+    throw stage::InputError({"command line", 0, 0},
+                            "expected at least one model library (a .stage file) and one curve "
+                            "file (any other name)");
+  }
   return in;
 }
 
@@ -123,9 +146,7 @@ int check(const CurvesSettings& s) {
   std::vector<stage::CurveCheckResult> results;
   for (auto& curve : in.curves) {
     stage::apply_tolerance(curve, tolerance);
-    const auto model = stage::find_device_model(
-        in.library.circuit, model_name_for(curve, s, in.library.circuit), s.model_file);
-    results.push_back(stage::check_curve(curve, model));
+    results.push_back(stage::check_curve(curve, model_for(curve, s, in.libraries)));
     if (!s.csv_dir.empty()) {
       stage::create_output_folder(s.csv_dir);
       const auto path = std::filesystem::path(s.csv_dir) / (curve.name + "_model.csv");
@@ -145,15 +166,15 @@ int check(const CurvesSettings& s) {
 
 int fit(const CurvesSettings& s) {
   const Inputs in = read_inputs(s);
-  const std::string name = model_name_for(in.curves.front(), s, in.library.circuit);
+  const stage::DeviceModel start = model_for(in.curves.front(), s, in.libraries);
+  const std::string& name = start.name;
   for (const auto& curve : in.curves) {
-    if (model_name_for(curve, s, in.library.circuit) != name) {
+    if (model_for(curve, s, in.libraries).name != name) {
       throw stage::InputError({curve.file.string(), 0, 0}, "the curves name different models ('" +
                                                                name + "' and '" + curve.model +
                                                                "'): give --model NAME");
     }
   }
-  const auto start = stage::find_device_model(in.library.circuit, name, s.model_file);
   const stage::FitResult result = stage::fit_model(start, in.curves, s.params);
   std::cout << result.report() << "\n";
   const std::string statement =
@@ -162,7 +183,7 @@ int fit(const CurvesSettings& s) {
   if (!s.output.empty()) {
     std::ofstream out(s.output);
     out << "# Fitted by `stage curves fit` to:";
-    for (const auto& file : s.curve_files) out << " " << file;
+    for (const auto& file : in.curve_files) out << " " << file;
     out << "\n" << statement;
     if (!out) {
       throw stage::Error(stage::ErrorKind::not_written,
@@ -186,10 +207,10 @@ CLI::App* add_curves_commands(CLI::App& app, int& exit_status) {
   curves->require_subcommand(1);
 
   auto common = [&](CLI::App* cmd) {
-    cmd->add_option("model_file", s->model_file,
-                    "Model library (.stage file with `model` statements)")
+    cmd->add_option("files", s->files,
+                    "Model libraries (.stage files with `model` statements; the first that "
+                    "defines a model supplies it) and reference curve files, in any order")
         ->required();
-    cmd->add_option("curve_files", s->curve_files, "Reference curve files")->required();
     cmd->add_option("--model", s->model, "Model to use (default: the curve file's `model` line)");
   };
 

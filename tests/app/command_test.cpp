@@ -8,6 +8,7 @@
 #include <cmath>
 #include <filesystem>
 #include <fstream>
+#include <iterator>
 #include <nlohmann/json.hpp>
 #include <sstream>
 
@@ -272,6 +273,73 @@ TEST(Command, CurvesCheckFailsOnADriftedModel) {
   const auto failing = run("curves check " + drifted.string() + " " + curve + " --model drifted");
   EXPECT_EQ(failing.status, 1) << failing.out;
   EXPECT_NE(failing.out.find("small_npn_gummel"), std::string::npos) << failing.out;
+}
+
+std::string models(const std::string& name) {
+  return std::string(STAGE_SOURCE_DIR) + "/models/" + name;
+}
+
+// Transistor and diode curves in one run, each checked against the library
+// that defines its model; the curves are the libraries' own (generated from
+// these models), so every one passes. A model found in none of the libraries
+// is an input error at the curve file's `model` line naming every file searched.
+TEST(Command, CurvesCheckSearchesSeveralModelLibraries) {
+  const std::string npn = models("curves/small_npn_gummel.csv");
+  const std::string diode = models("curves/signal_diode_forward.csv");
+  const std::string libraries = models("transistors.stage") + " " + models("diodes.stage");
+  const auto both = run("curves check " + libraries + " " + npn + " " + diode);
+  EXPECT_EQ(both.status, 0) << both.out;
+  EXPECT_NE(both.out.find("small_npn_gummel"), std::string::npos) << both.out;
+  EXPECT_NE(both.out.find("signal_diode_forward"), std::string::npos) << both.out;
+  // Curves before libraries read the same.
+  EXPECT_EQ(run("curves check " + diode + " " + libraries).status, 0);
+
+  const auto unknown = write_temp("unknown_model.csv",
+                                  "curve, diode_forward\nmodel, no_such_diode\n"
+                                  "sweep, forward_voltage, V\nmeasure, forward_current, A\n"
+                                  "points\n0.6, 1e-3\n");
+  const auto missing = run("curves check " + libraries + " " + unknown.string());
+  EXPECT_EQ(missing.status, 2) << missing.out;
+  EXPECT_NE(missing.out.find(unknown.string() + ":2:8: no model named 'no_such_diode' in " +
+                             models("transistors.stage") + ", " + models("diodes.stage")),
+            std::string::npos)
+      << missing.out;
+
+  const auto no_library = run("curves check " + npn);
+  EXPECT_EQ(no_library.status, 2) << no_library.out;
+  EXPECT_NE(no_library.out.find("model library"), std::string::npos) << no_library.out;
+  const auto help = run("curves check --help");
+  EXPECT_NE(help.out.find(".stage are model libraries"), std::string::npos) << help.out;
+}
+
+// `curves fit` output: an uncertainty is never a rounded zero, a dimensionless
+// parameter's comment has no empty unit, stdout and the --output file end
+// with a newline, and the written statement reads as a model.
+TEST(Command, CurvesFitWritesCleanOutput) {
+  const std::string gummel = models("curves/small_npn_gummel.csv");
+  const auto fitted = fs::temp_directory_path() / "stage_command_test_fitted.stage";
+  const auto fit = run("curves fit " + models("transistors.stage") + " " + gummel +
+                           " --params saturation_current beta_forward --output " + fitted.string(),
+                       Stderr::dropped);
+  ASSERT_EQ(fit.status, 0) << fit.out;
+  EXPECT_EQ(fit.out.back(), '\n') << fit.out;
+  EXPECT_EQ(fit.out.find(" 0.0 fA"), std::string::npos) << fit.out;
+  EXPECT_EQ(fit.out.find(" 0 A"), std::string::npos) << fit.out;
+  EXPECT_EQ(fit.out.find("# ,"), std::string::npos) << fit.out;
+  EXPECT_NE(fit.out.find("beta_forward"), std::string::npos) << fit.out;
+  std::ifstream in(fitted);
+  const std::string written((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+  ASSERT_FALSE(written.empty());
+  EXPECT_EQ(written.back(), '\n') << written;
+  EXPECT_EQ(written.find("# ,"), std::string::npos) << written;
+  // The statement derives from small_npn, so it reads after the library
+  // that defines it; fitted back to small_npn's own curve, it passes.
+  const auto library =
+      write_temp("fitted_library.stage",
+                 "include \"transistors.stage\"\ninclude \"" + fitted.string() + "\"\n");
+  const auto check =
+      run("curves check " + library.string() + " " + gummel + " --model small_npn_fitted");
+  EXPECT_EQ(check.status, 0) << check.out;
 }
 
 // Numbers equal to a relative 1e-6 (or 1e-9 absolute near zero: residuals of

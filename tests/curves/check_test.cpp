@@ -3,6 +3,8 @@
 // and the quantity of the worst point.
 #include <gtest/gtest.h>
 
+#include <set>
+
 #include "curve_builders.hpp"
 #include "stage/errors.hpp"
 
@@ -43,6 +45,27 @@ TEST(CurveCheck, ShiftedModelFailsAndNamesCurveAndPoint) {
   EXPECT_NE(text.find("collector_current"), std::string::npos) << text;
   const std::string table = check_table(std::vector{r});
   EXPECT_NE(table.find("FAIL"), std::string::npos) << table;
+}
+
+// The table counts failing points (rows), not values: a 20 % larger
+// saturation current moves IC and IB of a Gummel point alike (IB = IC / beta
+// in the ideal region, Ebers–Moll), so points fail in both columns and the
+// values out of tolerance outnumber the points.
+TEST(CurveCheck, FailingPointsAreCountedOncePerRow) {
+  BipolarModel shifted = round_trip_npn();
+  shifted.saturation_current *= 1.2;
+  const Curve ref = gummel_reference();
+  const auto r = check_curve(ref, {"shifted", shifted});
+  std::set<int> failing_lines;
+  for (const auto& e : r.failing) failing_lines.insert(e.line);
+  ASSERT_GT(r.failing.size(), failing_lines.size());
+  EXPECT_EQ(r.failing_points, failing_lines.size());
+  EXPECT_LE(r.failing_points, ref.points.size());
+  const std::string points = std::to_string(failing_lines.size()) + " points";
+  const std::string table = check_table(std::vector{r});
+  EXPECT_NE(table.find("FAIL (" + points + ")"), std::string::npos) << table;
+  EXPECT_NE(r.summary().find(": " + points + " out of tolerance"), std::string::npos)
+      << r.summary();
 }
 
 // A looser tolerance from outside (the command's --tolerance) lets the same

@@ -119,8 +119,31 @@ TEST(FitResult, ModelStatementDerivesFromTheStartModel) {
   EXPECT_EQ(r.model_statement("fitted"),
             "model fitted = small_npn {\n"
             "  saturation_current = 1.25e-14       # A, ± 2e-16 (1 sd)\n"
-            "  beta_forward       = 180            # , ± 3 (1 sd)\n"
+            "  beta_forward       = 180            # ± 3 (1 sd)\n"
             "}\n");
+}
+
+// The report shows each uncertainty with two significant digits in the SI
+// prefix its size calls for (a = 1e-18, f = 1e-15, m = 1e-3: the SI
+// prefixes), also below femto, where a fixed number of decimals in fA would
+// print a zero that is not zero.
+TEST(FitResult, ReportShowsUncertaintiesWithSignificantDigits) {
+  FitResult r;
+  r.model.name = "small_npn";
+  auto parameter = [](std::string name, Quantity q, double value, double uncertainty) {
+    FittedParameter p{std::move(name), q, value, value, uncertainty};
+    p.log_scale = true;
+    return p;
+  };
+  r.parameters = {parameter("saturation_current", Quantity::current, 1e-14, 3.2e-18),
+                  parameter("be_leakage_current", Quantity::current, 1e-13, 9.97e-16),
+                  parameter("beta_forward", Quantity::dimensionless, 180, 0.71)};
+  const std::string report = r.report();
+  EXPECT_NE(report.find(" 3.2 aA "), std::string::npos) << report;
+  EXPECT_NE(report.find(" 1.0 fA "), std::string::npos) << report;  // 997 aA to 2 digits
+  EXPECT_NE(report.find(" 710m "), std::string::npos) << report;
+  EXPECT_EQ(report.find(" 0.0 fA"), std::string::npos) << report;
+  EXPECT_EQ(report.find(" 0 A"), std::string::npos) << report;
 }
 
 }  // namespace

@@ -24,6 +24,7 @@
 #include <vector>
 
 #include "stage/circuit.hpp"
+#include "stage/errors.hpp"
 #include "stage/models.hpp"
 
 namespace stage {
@@ -81,7 +82,8 @@ struct Curve {
   std::string name;  // the file's `name` line, or the file's stem
   std::filesystem::path file;
   CurveKind kind = CurveKind::forward_gummel;
-  std::string model;  // the `model` line: which model the curve belongs to; may be empty
+  std::string model;        // the `model` line: which model the curve belongs to; may be empty
+  SourceLocation model_at;  // where the `model` line names it (file, line, column)
   CurveQuantity swept = CurveQuantity::base_emitter_voltage;
   std::vector<CurveQuantity> measured;
   std::optional<CurveQuantity> stepped;  // a per-point condition column (base_current)
@@ -108,7 +110,18 @@ struct DeviceModel {
   bool is_bipolar() const { return std::holds_alternative<BipolarModel>(parameters); }
 };
 
-// Throws InputError (naming `name` and the models there are) when absent.
+// A model library as read from its file: the models it defines.
+struct ModelSource {
+  std::string file;
+  Models models;
+};
+
+// Searches the libraries in the order given: the first that defines `name`
+// supplies the model. Throws InputError at `asked_at` (where the name was
+// given) naming the model, every file searched and the models there are.
+DeviceModel find_device_model(std::span<const ModelSource> libraries, const std::string& name,
+                              const SourceLocation& asked_at);
+// One library; an error is placed at the library file.
 DeviceModel find_device_model(const Circuit& library, const std::string& name,
                               const std::string& library_file = "model library");
 
@@ -141,7 +154,8 @@ struct CurveCheckResult {
   double rms_error = 0;    // root mean square of the errors
   double worst_over_tolerance = 0;
   PointError worst;
-  std::vector<PointError> failing;  // |error| > tolerance
+  std::vector<PointError> failing;  // |error| > tolerance, one per value
+  std::size_t failing_points = 0;   // points (rows) with at least one value in `failing`
   Curve computed;                   // the model's curve
 
   bool passed() const { return failing.empty(); }
@@ -196,9 +210,11 @@ struct FitResult {
   std::string stop_reason;  // why Levenberg–Marquardt stopped
   bool converged = false;
 
-  // `model <name> = <base> { parameter = value  # unit, ± uncertainty ... }`
+  // `model <name> = <base> { parameter = value  # unit, ± uncertainty (1 sd) ... }`,
+  // the comment without `unit, ` for a dimensionless parameter; ends with a newline.
   std::string model_statement(const std::string& name) const;
-  std::string report() const;  // fitted values, uncertainty, residuals per curve
+  // Fitted values, uncertainties (two significant digits), residuals per curve.
+  std::string report() const;
 };
 
 // Fits `parameter_names` (long names of the model's parameter table) of

@@ -2,6 +2,7 @@
 // fixtures, point-by-point errors, worst and RMS error per curve, the
 // failing points named by file line, and the table the command prints.
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <sstream>
 
@@ -31,13 +32,23 @@ std::string error_text(double error, bool by_ratio, bool sign = true) {
 
 }  // namespace
 
+DeviceModel find_device_model(std::span<const ModelSource> libraries, const std::string& name,
+                              const SourceLocation& asked_at) {
+  std::vector<std::string> files, known;
+  for (const auto& library : libraries) {
+    if (const auto model = library.models.find(name)) return {name, *model};
+    files.push_back(library.file);
+    for (const std::string& n : library.models.names()) known.push_back(n);
+  }
+  throw InputError(asked_at, "no model named '" + name + "' in " + text::joined(files) +
+                                 "; the models there are: " +
+                                 (known.empty() ? std::string("none") : text::joined(known)));
+}
+
 DeviceModel find_device_model(const Circuit& library, const std::string& name,
                               const std::string& library_file) {
-  if (const auto model = library.models().find(name)) return {name, *model};
-  std::string known;
-  for (const std::string& n : library.models().names()) known += " " + n;
-  throw InputError({library_file, 0, 0}, "no model named '" + name + "'; the models there are:" +
-                                             (known.empty() ? std::string(" none") : known));
+  const std::array one{ModelSource{library_file, library.models()}};
+  return find_device_model(one, name, {library_file, 0, 0});
 }
 
 Curve compute_curve(const Curve& reference, const DeviceModel& model) {
@@ -72,6 +83,7 @@ CurveCheckResult compare_curves(const Curve& reference, const Curve& computed) {
   r.computed = computed;
   double sum = 0;
   int count = 0;
+  std::vector<bool> point_failed(reference.points.size(), false);
   for (std::size_t k = 0; k < reference.measured.size(); ++k) {
     const CurveQuantity q = reference.measured[k];
     const bool log_scale = curves::spans_decades(reference, k);
@@ -89,9 +101,13 @@ CurveCheckResult compare_curves(const Curve& reference, const Curve& computed) {
         r.worst = e;
       }
       r.worst_error = std::max(r.worst_error, std::abs(e.error));
-      if (over > 1) r.failing.push_back(e);
+      if (over > 1) {
+        r.failing.push_back(e);
+        point_failed[i] = true;
+      }
     }
   }
+  r.failing_points = static_cast<std::size_t>(std::ranges::count(point_failed, true));
   r.rms_error = std::sqrt(sum / std::max(count, 1));
   return r;
 }
@@ -111,9 +127,8 @@ void apply_tolerance(Curve& curve, const ToleranceOverride& override_with) {
 
 std::string CurveCheckResult::summary() const {
   if (passed()) return curve + ": within tolerance";
-  std::string text = curve + ": " + std::to_string(failing.size()) + " point" +
-                     (failing.size() == 1 ? "" : "s") + " out of tolerance, worst at " +
-                     worst.describe(computed) + "\n";
+  std::string text = curve + ": " + text::counted(failing_points, "point", "points") +
+                     " out of tolerance, worst at " + worst.describe(computed) + "\n";
   constexpr std::size_t kShown = 5;
   for (std::size_t i = 0; i < std::min(failing.size(), kShown); ++i) {
     text += "  " + failing[i].describe(computed) + "\n";
@@ -131,7 +146,8 @@ std::string check_table(std::span<const CurveCheckResult> results) {
         {r.curve, std::string(to_string(r.computed.kind)), std::to_string(r.computed.points.size()),
          error_text(r.worst_error, r.by_ratio, false), error_text(r.rms_error, r.by_ratio, false),
          report::si(r.worst_over_tolerance, "", 3),
-         r.passed() ? "pass" : "FAIL (" + std::to_string(r.failing.size()) + " points)"});
+         r.passed() ? "pass"
+                    : "FAIL (" + text::counted(r.failing_points, "point", "points") + ")"});
   }
   std::ostringstream out;
   table.print(out);

@@ -145,6 +145,7 @@ class CurveParser {
     if (key == "name" || key == "model") {
       expect_count(fields, 2, (key + ", TEXT").c_str());
       (key == "name" ? curve_.name : curve_.model) = fields[1].text;
+      if (key == "model") curve_.model_at = {file_, line_number_, fields[1].column};
     } else if (key == "sweep") {
       sweep_line(fields);
     } else if (key == "measure") {

@@ -2,10 +2,13 @@
 // section 4) that records the fitted values, and the readable report.
 #include <spdlog/fmt/fmt.h>
 
+#include <algorithm>
 #include <cmath>
 #include <sstream>
+#include <string_view>
 
 #include "common/constants.hpp"
+#include "common/si_prefixes.hpp"
 #include "report/format.hpp"
 #include "stage/curves.hpp"
 
@@ -14,6 +17,33 @@ namespace {
 
 std::string unit_of(const FittedParameter& p) {
   return p.quantity == Quantity::dimensionless ? std::string() : std::string(unit_name(p.quantity));
+}
+
+// `digits` significant digits with the SI prefix the value calls for, down
+// to atto ("3.2 aA"): report::si stops at femto, where an uncertainty of a
+// few attoamperes would read as zero. Powers of ten beyond the prefixes.
+std::string with_significant_digits(double value, std::string_view unit, int digits) {
+  if (value == 0 || !std::isfinite(value)) return report::si(value, unit, digits);
+  const std::string space = unit.empty() ? "" : " ";
+  // Rounded first, so that 999.7 at two digits reads 1.0 k, not 1000.
+  const double rounded = std::stod(fmt::format("{:.{}e}", value, digits - 1));
+  int exponent = static_cast<int>(std::floor(std::log10(std::abs(rounded)) / 3)) * 3;
+  double scaled = rounded / text::power_of_ten(exponent);
+  if (std::abs(scaled) >= 1000) {  // log10 a hair below an exact power of a thousand
+    exponent += 3;
+    scaled /= 1000;
+  }
+  const auto prefix = text::standard_prefix(exponent);
+  if (!prefix) return fmt::format("{:.{}e}{}{}", value, digits - 1, space, unit);
+  const int integer_digits = std::abs(scaled) >= 100 ? 3 : std::abs(scaled) >= 10 ? 2 : 1;
+  return fmt::format("{:.{}f}{}{}{}", scaled, std::max(0, digits - integer_digits), space, *prefix,
+                     unit);
+}
+
+// "# A, ± 2e-16 (1 sd)"; "# ± 3 (1 sd)" for a dimensionless parameter.
+std::string statement_comment(const FittedParameter& p) {
+  const std::string unit = unit_of(p);
+  return fmt::format("# {}± {:.2g} (1 sd)", unit.empty() ? "" : unit + ", ", p.uncertainty);
 }
 
 }  // namespace
@@ -25,8 +55,7 @@ std::string FitResult::model_statement(const std::string& name) const {
   for (const auto& p : parameters) {
     // Bare numbers are in the parameter's SI unit (spec section 1); the
     // comment keeps the unit and one standard deviation.
-    text += fmt::format("  {:<{}} = {:<13.7g}  # {}, ± {:.2g} (1 sd)\n", p.name, width, p.value,
-                        unit_of(p), p.uncertainty);
+    text += fmt::format("  {:<{}} = {:<13.7g}  {}\n", p.name, width, p.value, statement_comment(p));
   }
   return text + "}\n";
 }
@@ -38,7 +67,7 @@ std::string FitResult::report() const {
     const std::string scale =
         p.log_scale ? "log" : fmt::format("in ({:g}, {:g})", p.bounds->first, p.bounds->second);
     table.add_row({p.name, report::si(p.start, unit), report::si(p.value, unit),
-                   report::si(p.uncertainty, unit, 2),
+                   with_significant_digits(p.uncertainty, unit, 2),
                    fmt::format("{:.2g}", in_percent(p.uncertainty) / std::abs(p.value)), scale});
   }
   std::ostringstream out;
