@@ -12,21 +12,19 @@
 namespace stage::text {
 namespace {
 
-// Reports print from femto to tera: a smaller figure is shown in femto
-// (0.001 fA) down to where it rounds to zero, a larger one in powers of ten.
-constexpr int kSmallestExponent = -15;
+// Reports print up to tera; a larger figure in powers of ten.
 constexpr int kLargestExponent = 12;
 
 }  // namespace
 
-std::string si(double value, std::string_view unit, int digits) {
+std::string si(double value, std::string_view unit, int digits, int smallest_exponent) {
   const std::string suffix = unit.empty() ? "" : " " + std::string(unit);
   if (std::isnan(value)) return "nan";
   if (std::isinf(value)) return (value < 0 ? "-∞" : "∞") + suffix;
   int exponent = 0;
   if (value != 0.0) {
     exponent = static_cast<int>(std::floor(std::log10(std::abs(value)) / 3.0)) * 3;
-    exponent = std::clamp(exponent, kSmallestExponent, kLargestExponent);
+    exponent = std::clamp(exponent, smallest_exponent, kLargestExponent);
   }
   double scaled = value / std::pow(10.0, exponent);
   const auto decimals_for = [digits](double v) {

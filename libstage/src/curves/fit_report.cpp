@@ -5,39 +5,20 @@
 #include <algorithm>
 #include <cmath>
 #include <sstream>
-#include <string_view>
 
 #include "common/constants.hpp"
-#include "common/si_prefixes.hpp"
 #include "report/format.hpp"
 #include "stage/curves.hpp"
 
 namespace stage {
 namespace {
 
+// Uncertainties go down to atto: a few attoamperes on a saturation current
+// must not read as zero.
+constexpr int kAtto = -18;
+
 std::string unit_of(const FittedParameter& p) {
   return p.quantity == Quantity::dimensionless ? std::string() : std::string(unit_name(p.quantity));
-}
-
-// `digits` significant digits with the SI prefix the value calls for, down
-// to atto ("3.2 aA"): report::si stops at femto, where an uncertainty of a
-// few attoamperes would read as zero. Powers of ten beyond the prefixes.
-std::string with_significant_digits(double value, std::string_view unit, int digits) {
-  if (value == 0 || !std::isfinite(value)) return report::si(value, unit, digits);
-  const std::string space = unit.empty() ? "" : " ";
-  // Rounded first, so that 999.7 at two digits reads 1.0 k, not 1000.
-  const double rounded = std::stod(fmt::format("{:.{}e}", value, digits - 1));
-  int exponent = static_cast<int>(std::floor(std::log10(std::abs(rounded)) / 3)) * 3;
-  double scaled = rounded / text::power_of_ten(exponent);
-  if (std::abs(scaled) >= 1000) {  // log10 a hair below an exact power of a thousand
-    exponent += 3;
-    scaled /= 1000;
-  }
-  const auto prefix = text::standard_prefix(exponent);
-  if (!prefix) return fmt::format("{:.{}e}{}{}", value, digits - 1, space, unit);
-  const int integer_digits = std::abs(scaled) >= 100 ? 3 : std::abs(scaled) >= 10 ? 2 : 1;
-  return fmt::format("{:.{}f}{}{}{}", scaled, std::max(0, digits - integer_digits), space, *prefix,
-                     unit);
 }
 
 // "# A, ± 2e-16 (1 sd)"; "# ± 3 (1 sd)" for a dimensionless parameter.
@@ -67,7 +48,7 @@ std::string FitResult::report() const {
     const std::string scale =
         p.log_scale ? "log" : fmt::format("in ({:g}, {:g})", p.bounds->first, p.bounds->second);
     table.add_row({p.name, report::si(p.start, unit), report::si(p.value, unit),
-                   with_significant_digits(p.uncertainty, unit, 2),
+                   report::si(p.uncertainty, unit, 2, kAtto),
                    fmt::format("{:.2g}", in_percent(p.uncertainty) / std::abs(p.value)), scale});
   }
   std::ostringstream out;
