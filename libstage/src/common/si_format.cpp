@@ -15,15 +15,23 @@ namespace {
 // Reports print up to tera; a larger figure in powers of ten.
 constexpr int kLargestExponent = 12;
 
-}  // namespace
+// What a figure smaller than the smallest prefix becomes.
+enum class Below { rounded_in_smallest, power_of_ten };
 
-std::string si(double value, std::string_view unit, int digits, int smallest_exponent) {
+std::string engineering(double value, std::string_view unit, int digits, int smallest_exponent,
+                        Below below) {
   const std::string suffix = unit.empty() ? "" : " " + std::string(unit);
   if (std::isnan(value)) return "nan";
   if (std::isinf(value)) return (value < 0 ? "-∞" : "∞") + suffix;
+  char buffer[64];
+  const auto power_of_ten = [&] {
+    std::snprintf(buffer, sizeof buffer, "%.*e", std::max(0, digits - 1), value);
+    return std::string(buffer) + suffix;
+  };
   int exponent = 0;
   if (value != 0.0) {
     exponent = static_cast<int>(std::floor(std::log10(std::abs(value)) / 3.0)) * 3;
+    if (exponent < smallest_exponent && below == Below::power_of_ten) return power_of_ten();
     exponent = std::clamp(exponent, smallest_exponent, kLargestExponent);
   }
   double scaled = value / std::pow(10.0, exponent);
@@ -36,19 +44,25 @@ std::string si(double value, std::string_view unit, int digits, int smallest_exp
   const double rounded = std::round(scaled / step) * step;
   // Below what the smallest prefix shows ("-0.000 f"): zero, plainly.
   if (rounded == 0.0) return "0" + suffix;
-  char buffer[64];
   if (std::abs(rounded) >= 1000) {
-    if (exponent == kLargestExponent) {
-      // Beyond the largest prefix: powers of ten keep the column narrow.
-      std::snprintf(buffer, sizeof buffer, "%.*e", std::max(0, digits - 1), value);
-      return std::string(buffer) + suffix;
-    }
+    // Beyond the largest prefix: powers of ten keep the column narrow.
+    if (exponent == kLargestExponent) return power_of_ten();
     exponent += 3;
     scaled /= 1000;
   }
   std::snprintf(buffer, sizeof buffer, "%.*f", decimals_for(scaled), scaled);
   return std::string(buffer) + (unit.empty() ? "" : " ") + std::string(*standard_prefix(exponent)) +
          std::string(unit);
+}
+
+}  // namespace
+
+std::string si(double value, std::string_view unit, int digits) {
+  return engineering(value, unit, digits, -15, Below::rounded_in_smallest);
+}
+
+std::string significant(double value, std::string_view unit, int digits) {
+  return engineering(value, unit, digits, -18, Below::power_of_ten);
 }
 
 std::string fixed(double value, std::string_view unit, int decimals) {

@@ -10,11 +10,13 @@
 namespace stage::text {
 
 // 0.0047 -> "4.700 m" + unit; keeps `digits` significant digits; "∞" for
-// infinity, "0" for zero and for what rounds to zero at the smallest prefix
-// (femto by default: a report's -0.000 fV of rounding noise reads as zero;
-// an uncertainty asks for atto, -18), powers of ten beyond tera. A unit of
-// "" gives a bare number with prefix.
-std::string si(double value, std::string_view unit, int digits = 4, int smallest_exponent = -15);
+// infinity, "0" for zero and for what rounds to zero in femto (a report's
+// -0.000 fV of rounding noise reads as zero), powers of ten beyond tera. A
+// unit of "" gives a bare number with prefix.
+std::string si(double value, std::string_view unit, int digits = 4);
+// The same for a figure that is small but never noise (an uncertainty):
+// prefixes down to atto, powers of ten below, zero only for zero.
+std::string significant(double value, std::string_view unit, int digits);
 
 // Decibels, degrees and percentages read best without an SI prefix
 // ("1.2 m°" would only confuse): fixed point, and a ratio as a percentage

@@ -13,10 +13,6 @@
 namespace stage {
 namespace {
 
-// Uncertainties go down to atto: a few attoamperes on a saturation current
-// must not read as zero.
-constexpr int kAtto = -18;
-
 std::string unit_of(const FittedParameter& p) {
   return p.quantity == Quantity::dimensionless ? std::string() : std::string(unit_name(p.quantity));
 }
@@ -48,7 +44,7 @@ std::string FitResult::report() const {
     const std::string scale =
         p.log_scale ? "log" : fmt::format("in ({:g}, {:g})", p.bounds->first, p.bounds->second);
     table.add_row({p.name, report::si(p.start, unit), report::si(p.value, unit),
-                   report::si(p.uncertainty, unit, 2, kAtto),
+                   text::significant(p.uncertainty, unit, 2),
                    fmt::format("{:.2g}", in_percent(p.uncertainty) / std::abs(p.value)), scale});
   }
   std::ostringstream out;
