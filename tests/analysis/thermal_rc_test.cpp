@@ -38,7 +38,8 @@ struct ThermalValues {
 // capacitor charged by a current source through a resistor. Its power
 // scales with source stepping, as an independent source's value does, and
 // may grow with its own temperature (runaway_scale). In a transient from
-// given conditions it starts at the ambient.
+// given conditions it starts at the ambient. Without runaway it is linear,
+// and its excitation (device.hpp) is f at T = 0: -T_amb / R_th - P.
 class ThermalRc final : public stage::mna::Device {
  public:
   ThermalRc(stage::mna::Topology& topology, const ThermalValues& values)
@@ -56,6 +57,10 @@ class ThermalRc final : public stage::mna::Device {
     out.c[slot_] += values_.capacitance;
   }
   bool nonlinear() const override { return values_.runaway_scale != 0.0; }
+  bool has_excitation() const override { return true; }
+  void add_excitation(const stage::mna::EvalRequest& r, double* f) const override {
+    f[t_] -= values_.ambient / values_.resistance + r.source_scale * values_.power;
+  }
   void describe_topology(stage::mna::TopologyCheck&) const override {}
   std::optional<stage::mna::InitialCondition> initial_condition() const override {
     return stage::mna::InitialCondition{t_, stage::mna::kGroundIndex, values_.ambient};

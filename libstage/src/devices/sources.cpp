@@ -41,8 +41,13 @@ void VoltageSourceDevice::evaluate(const mna::EvalRequest& request, mna::EvalOut
   const double delivered = request.x[k_];
   out.f[p_] -= delivered;
   out.f[n_] += delivered;
-  out.f[k_] += request.x[p_] - request.x[n_] - value_.at(request);
+  out.f[k_] += request.x[p_] - request.x[n_];
+  add_excitation(request, out.f);
   slots_.add(out.g, -1.0);
+}
+
+void VoltageSourceDevice::add_excitation(const mna::EvalRequest& request, double* f) const {
+  f[k_] -= value_.at(request);
 }
 
 void VoltageSourceDevice::ac_excitation(std::complex<double>* b) const { b[k_] += value_.phasor(); }
@@ -56,9 +61,13 @@ CurrentSourceDevice::CurrentSourceDevice(std::string name, mna::Index a, mna::In
     : IndependentSource(std::move(name), std::move(value)), a_(a), b_(b) {}
 
 void CurrentSourceDevice::evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) {
+  add_excitation(request, out.f);
+}
+
+void CurrentSourceDevice::add_excitation(const mna::EvalRequest& request, double* f) const {
   const double i = value_.at(request);
-  out.f[a_] += i;
-  out.f[b_] -= i;
+  f[a_] += i;
+  f[b_] -= i;
 }
 
 void CurrentSourceDevice::ac_excitation(std::complex<double>* b) const {

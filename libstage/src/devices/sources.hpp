@@ -49,6 +49,7 @@ class IndependentSource : public mna::Device, public mna::SourceAccess {
     return true;
   }
   void corners(double from, double to, std::vector<double>& out) const override;
+  bool has_excitation() const override { return true; }
   const mna::SourceAccess* source() const override { return this; }
   double value(const mna::EvalRequest& at) const override { return value_.at(at); }
   std::complex<double> phasor() const override { return value_.phasor(); }
@@ -69,6 +70,7 @@ class VoltageSourceDevice final : public IndependentSource {
                       SourceValue value);
   void declare(mna::PatternBuilder& pattern) override;
   void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
+  void add_excitation(const mna::EvalRequest& request, double* f) const override;
   void ac_excitation(std::complex<double>* b) const override;
   void describe_topology(mna::TopologyCheck& check) const override;
   mna::Index branch() const override { return k_; }
@@ -86,6 +88,7 @@ class CurrentSourceDevice final : public IndependentSource {
   CurrentSourceDevice(std::string name, mna::Index a, mna::Index b, SourceValue value);
   void declare(mna::PatternBuilder&) override {}
   void evaluate(const mna::EvalRequest& request, mna::EvalOutput& out) override;
+  void add_excitation(const mna::EvalRequest& request, double* f) const override;
   void ac_excitation(std::complex<double>* b) const override;
   void describe_topology(mna::TopologyCheck& check) const override;
   Ports ports() const override { return {Drives::current, b_, a_, mna::kGroundIndex}; }

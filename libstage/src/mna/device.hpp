@@ -150,14 +150,25 @@ class Device {
   // Changes the element's own value (a resistance, capacitance or
   // inductance, a source's DC value) in place: the matrix pattern stays, so
   // a prepared simulation keeps its factorisation's structure. False for a
-  // kind that has no such value. The caller has checked the value.
+  // kind that has no such value. The caller has checked the value, and calls
+  // through System::set_value so that the system's constant stamp follows.
   virtual bool set_value(double /*value*/) { return false; }
   // Replaces an independent source's waveform (nothing: DC only), likewise
   // in place. False for a kind that has none.
   virtual bool set_waveform(const std::optional<Waveform>& /*wave*/) { return false; }
 
   // True if f or q depend nonlinearly on x (Newton must iterate).
+  //
+  // A linear device (not nonlinear) has f = G x + e and q = C x, with G and
+  // C constant and e, its excitation, the only part that depends on the
+  // request (time, source scale): an independent source's value. The system
+  // stamps every linear device's G and C once, computes G x and C x by
+  // sparse products, and asks only the devices with an excitation to add it
+  // at each evaluation; evaluate() must agree with that split.
   virtual bool nonlinear() const { return false; }
+  virtual bool has_excitation() const { return false; }
+  // Adds e at the request into f (n + 1 entries).
+  virtual void add_excitation(const EvalRequest& /*request*/, double* /*f*/) const {}
 
   // Forget limiting history (new analysis, new starting point).
   virtual void reset_limiting() {}

@@ -4,6 +4,7 @@
 #include <algorithm>
 #include <cmath>
 #include <numeric>
+#include <stdexcept>
 
 #include "mna/topology_check.hpp"
 #include "stage/errors.hpp"
@@ -17,7 +18,14 @@ System::System(const Circuit& circuit, const ElementMaker& make,
     devices_.push_back(make(element, circuit, topology_));
   }
   for (const auto& make : extra) devices_.push_back(make(topology_));
-  for (const auto& d : devices_) nonlinear_ = nonlinear_ || d->nonlinear();
+  for (const auto& d : devices_) {
+    nonlinear_ = nonlinear_ || d->nonlinear();
+    if (d->nonlinear()) {
+      nonlinear_devices_.push_back(d.get());
+    } else if (d->has_excitation()) {
+      excited_.push_back(d.get());
+    }
+  }
 
   TopologyCheck check(topology_);
   for (const auto& d : devices_) d->describe_topology(check);
@@ -57,15 +65,75 @@ Workspace System::make_workspace() const {
           std::vector<double>(nnz)};
 }
 
-void System::evaluate(const EvalRequest& request, Workspace& w) const {
-  std::fill(w.f.begin(), w.f.end(), 0.0);
-  std::fill(w.q.begin(), w.q.end(), 0.0);
-  std::fill(w.g.begin(), w.g.end(), 0.0);
-  std::fill(w.c.begin(), w.c.end(), 0.0);
+namespace {
+
+// y = A x over unknowns 1..n (y[0], ground's row, stays 0), A in the
+// compressed-column values of `pattern`.
+void multiply(const SparsePattern& pattern, const std::vector<double>& a, const double* x,
+              std::vector<double>& y) {
+  std::fill(y.begin(), y.end(), 0.0);
+  for (int col = 0; col < pattern.n; ++col) {
+    const double xc = x[col + 1];
+    if (xc == 0.0) continue;
+    for (int s = pattern.column_start[col]; s < pattern.column_start[col + 1]; ++s) {
+      y[pattern.row[s] + 1] += a[s] * xc;
+    }
+  }
+  y[0] = 0.0;
+}
+
+}  // namespace
+
+// Every linear device evaluated at x = 0: its G and C are the same at every
+// x, and the f it leaves there is its excitation, which is not kept. A
+// device that leaves an f there without saying it has an excitation breaks
+// the contract of device.hpp, and the evaluations would lose its f.
+void System::make_constant_stamp() const {
+  Workspace w = make_workspace();
+  const std::vector<double> zero(w.f.size(), 0.0);
   EvalOutput out = w.output();
-  for (const auto& d : devices_) d->evaluate(request, out);
+  const EvalRequest at = request(zero.data());
+  const auto leaves_f = [&] {
+    return std::any_of(w.f.begin() + 1, w.f.end(), [](double v) { return v != 0.0; });
+  };
+  for (const auto& d : devices_) {
+    if (!d->nonlinear() && !d->has_excitation()) d->evaluate(at, out);
+  }
+  if (leaves_f()) {
+    for (const auto& d : devices_) {  // which one: only on this failure
+      if (d->nonlinear() || d->has_excitation()) continue;
+      std::fill(w.f.begin(), w.f.end(), 0.0);
+      d->evaluate(at, out);
+      if (leaves_f()) throw std::logic_error("device '" + d->name() + "' hides an excitation");
+    }
+  }
+  for (Device* d : excited_) d->evaluate(at, out);
+  constant_g_ = std::move(w.g);
+  constant_c_ = std::move(w.c);
+  constant_stale_ = false;
+}
+
+void System::evaluate(const EvalRequest& request, Workspace& w) const {
+  if (constant_stale_) make_constant_stamp();
+  std::copy(constant_g_.begin(), constant_g_.end(), w.g.begin());
+  std::copy(constant_c_.begin(), constant_c_.end(), w.c.begin());
+  multiply(pattern_, constant_g_, request.x, w.f);
+  multiply(pattern_, constant_c_, request.x, w.q);
+  for (const Device* d : excited_) d->add_excitation(request, w.f.data());
+  EvalOutput out = w.output();
+  for (Device* d : nonlinear_devices_) d->evaluate(request, out);
   w.limited = out.limited;
   w.beyond_model_range = out.beyond_model_range;
+}
+
+bool System::set_value(Device& device, double value) {
+  if (!device.set_value(value)) return false;
+  if (!device.nonlinear()) constant_stale_ = true;
+  return true;
+}
+
+bool System::set_waveform(Device& device, const std::optional<Waveform>& wave) {
+  return device.set_waveform(wave);
 }
 
 EvalRequest System::request(const double* x) const {

@@ -4,6 +4,7 @@
 
 #include <functional>
 #include <memory>
+#include <optional>
 #include <span>
 #include <string>
 #include <vector>
@@ -52,8 +53,14 @@ class System {
   Slot diagonal(Index i) const { return diagonal_[i]; }
 
   Workspace make_workspace() const;
-  // Zeroes `w`, then every device adds its share at request.x.
+  // Fills `w` at request.x: the linear devices' constant G and C and their
+  // products with x, their excitations, then every nonlinear device's share.
   void evaluate(const EvalRequest& request, Workspace& w) const;
+
+  // Change a device's own value or waveform (Device::set_value and
+  // set_waveform), keeping the constant stamp in step.
+  bool set_value(Device& device, double value);
+  bool set_waveform(Device& device, const std::optional<Waveform>& wave);
   // request with this system's temperature filled in.
   EvalRequest request(const double* x) const;
 
@@ -69,6 +76,14 @@ class System {
   SparsePattern pattern_;
   std::vector<Slot> diagonal_;
   bool nonlinear_ = false;
+  // The devices evaluate() calls: the linear ones with an excitation, and
+  // the nonlinear ones. The other linear devices live in the constant stamp.
+  std::vector<Device*> excited_, nonlinear_devices_;
+  // G and C of every linear device, summed; made again by the first
+  // evaluation after a set_value (a System serves one thread at a time).
+  mutable std::vector<double> constant_g_, constant_c_;
+  mutable bool constant_stale_ = true;
+  void make_constant_stamp() const;
   double temperature_ = kRoomTemperature;
 };
 

@@ -172,7 +172,7 @@ void Simulation::set_value(const std::string& element, double value) {
   if (auto why = kinds::own_value_error(e->data, value)) {
     throw Error(ErrorKind::invalid_request, "'" + element + "': " + *why, {element});
   }
-  if (!device->set_value(value)) {
+  if (!state_->system.set_value(*device, value)) {
     throw Error(ErrorKind::invalid_request, "'" + element + "' has no single value to set",
                 {element});
   }
@@ -216,7 +216,7 @@ void Simulation::set_waveform(const std::string& source, const std::optional<Wav
     stored = before;
     throw Error(ErrorKind::invalid_request, p->message, {p->subject});
   }
-  device->set_waveform(wave);
+  state_->system.set_waveform(*device, wave);
 }
 
 void Simulation::set_temperature(double kelvin) {
