@@ -22,7 +22,12 @@ NewtonSolver::NewtonSolver(const mna::System& system, const SolverOptions& optio
 void NewtonSolver::assemble(const NewtonProblem& p, const std::vector<double>& x) {
   const std::size_t n1 = residual_.size();
   const double a = p.reactive_scale;
-  for (std::size_t s = 0; s < jacobian_.size(); ++s) jacobian_[s] = work_.g[s] + a * work_.c[s];
+  const LinearKey key{work_.stamp_version, a, p.shunt};
+  const bool jacobian_stands = key.stamp_version >= 0 && key == jacobian_key_;
+  jacobian_key_ = key;
+  if (!jacobian_stands) {
+    for (std::size_t s = 0; s < jacobian_.size(); ++s) jacobian_[s] = work_.g[s] + a * work_.c[s];
+  }
   for (std::size_t i = 0; i < n1; ++i) residual_[i] = work_.f[i] + a * work_.q[i];
   if (p.reactive_history != nullptr) {
     for (std::size_t i = 0; i < n1; ++i) residual_[i] += p.reactive_history[i];
@@ -31,7 +36,7 @@ void NewtonSolver::assemble(const NewtonProblem& p, const std::vector<double>& x
     const auto& topology = system_.topology();
     for (mna::Index i = 1; i < static_cast<mna::Index>(n1); ++i) {
       if (topology.kind(i) != mna::UnknownKind::voltage) continue;
-      jacobian_[system_.diagonal(i)] += p.shunt;
+      if (!jacobian_stands) jacobian_[system_.diagonal(i)] += p.shunt;
       residual_[i] += p.shunt * x[i];
     }
   }
@@ -42,6 +47,7 @@ void NewtonSolver::assemble(const NewtonProblem& p, const std::vector<double>& x
   std::fill(scale_.begin(), scale_.end(), 0.0);
   for (int col = 0; col < pattern.n; ++col) {
     const double xc = std::abs(x[col + 1]);
+    if (xc == 0.0) continue;
     for (int s = pattern.column_start[col]; s < pattern.column_start[col + 1]; ++s) {
       scale_[pattern.row[s] + 1] += std::abs(jacobian_[s]) * xc;
     }
@@ -95,6 +101,10 @@ NewtonOutcome NewtonSolver::solve(std::vector<double>& x, const NewtonProblem& p
   mna::EvalRequest request = problem.request;
   request.x = x.data();
   bool last_update_small = false;
+  // A linear system is solved by one step from any start; from zero its
+  // first evaluation skips the products (only the excitations remain), so
+  // each solve costs one product with G and C, the one that confirms it.
+  if (!system_.nonlinear()) std::fill(x.begin(), x.end(), 0.0);
   for (int iteration = 0;; ++iteration) {
     request.limit = iteration > 0;
     system_.evaluate(request, work_);
@@ -110,7 +120,9 @@ NewtonOutcome NewtonSolver::solve(std::vector<double>& x, const NewtonProblem& p
       return outcome;
     }
     if (iteration >= problem.max_iterations) return outcome;
-    if (!factored_valid_ || jacobian_ != factored_) {
+    const bool same_linear_jacobian =
+        jacobian_key_.stamp_version >= 0 && factored_valid_ && jacobian_key_ == factored_key_;
+    if (!same_linear_jacobian && (!factored_valid_ || jacobian_ != factored_)) {
       factored_valid_ = lu_.factor(jacobian_.data());
       if (!factored_valid_) {
         outcome.status = NewtonStatus::singular;
@@ -118,6 +130,7 @@ NewtonOutcome NewtonSolver::solve(std::vector<double>& x, const NewtonProblem& p
         return outcome;
       }
       factored_ = jacobian_;
+      factored_key_ = jacobian_key_;
     }
     for (std::size_t i = 0; i < update_.size(); ++i) update_[i] = -residual_[i];
     lu_.solve(update_.data() + 1);

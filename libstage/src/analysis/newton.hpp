@@ -80,6 +80,15 @@ class NewtonSolver {
   std::vector<double> jacobian_;  // nnz + 1
   std::vector<double> factored_;  // the Jacobian behind lu_'s current factors
   bool factored_valid_ = false;
+  // What a linear system's Jacobian was made of: the constant stamp's
+  // version (Workspace::stamp_version), a and the shunt. While they hold,
+  // jacobian_ and the factors stand and are neither rebuilt nor compared.
+  struct LinearKey {
+    int stamp_version = -1;
+    double reactive_scale = 0, shunt = 0;
+    bool operator==(const LinearKey&) const = default;
+  };
+  LinearKey jacobian_key_, factored_key_;
   std::vector<double> residual_;  // n + 1
   std::vector<double> update_;    // n + 1
   std::vector<double> scale_;     // n + 1: size of the terms meeting in each row

@@ -67,19 +67,23 @@ Workspace System::make_workspace() const {
 
 namespace {
 
-// y = A x over unknowns 1..n (y[0], ground's row, stays 0), A in the
-// compressed-column values of `pattern`.
-void multiply(const SparsePattern& pattern, const std::vector<double>& a, const double* x,
-              std::vector<double>& y) {
-  std::fill(y.begin(), y.end(), 0.0);
+// f = G x and q = C x over unknowns 1..n in one pass (f[0] and q[0],
+// ground's row, stay 0), G and C in the compressed-column values of
+// `pattern`.
+void multiply(const SparsePattern& pattern, const std::vector<double>& g,
+              const std::vector<double>& c, const double* x, std::vector<double>& f,
+              std::vector<double>& q) {
+  std::fill(f.begin(), f.end(), 0.0);
+  std::fill(q.begin(), q.end(), 0.0);
   for (int col = 0; col < pattern.n; ++col) {
     const double xc = x[col + 1];
     if (xc == 0.0) continue;
     for (int s = pattern.column_start[col]; s < pattern.column_start[col + 1]; ++s) {
-      y[pattern.row[s] + 1] += a[s] * xc;
+      const int r = pattern.row[s] + 1;
+      f[r] += g[s] * xc;
+      q[r] += c[s] * xc;
     }
   }
-  y[0] = 0.0;
 }
 
 }  // namespace
@@ -111,14 +115,18 @@ void System::make_constant_stamp() const {
   constant_g_ = std::move(w.g);
   constant_c_ = std::move(w.c);
   constant_stale_ = false;
+  ++stamp_version_;
 }
 
 void System::evaluate(const EvalRequest& request, Workspace& w) const {
   if (constant_stale_) make_constant_stamp();
-  std::copy(constant_g_.begin(), constant_g_.end(), w.g.begin());
-  std::copy(constant_c_.begin(), constant_c_.end(), w.c.begin());
-  multiply(pattern_, constant_g_, request.x, w.f);
-  multiply(pattern_, constant_c_, request.x, w.q);
+  const bool linear = nonlinear_devices_.empty();
+  if (!linear || w.stamp_version != stamp_version_) {
+    std::copy(constant_g_.begin(), constant_g_.end(), w.g.begin());
+    std::copy(constant_c_.begin(), constant_c_.end(), w.c.begin());
+  }
+  w.stamp_version = linear ? stamp_version_ : -1;
+  multiply(pattern_, constant_g_, constant_c_, request.x, w.f, w.q);
   for (const Device* d : excited_) d->add_excitation(request, w.f.data());
   EvalOutput out = w.output();
   for (Device* d : nonlinear_devices_) d->evaluate(request, out);

@@ -22,6 +22,11 @@ struct Workspace {
   std::vector<double> g, c;         // nnz + 1
   bool limited = false;             // some device evaluated at a limited junction voltage
   bool beyond_model_range = false;  // some device evaluated outside its model's range
+  // For a system without nonlinear devices: the constant stamp g and c hold
+  // unchanged (System::stamp_version), so that an evaluation need not copy
+  // them again and a solver may keep a factorisation built from them; -1
+  // when they hold anything else.
+  int stamp_version = -1;
   EvalOutput output() { return {f.data(), q.data(), g.data(), c.data()}; }
 };
 
@@ -83,6 +88,7 @@ class System {
   // evaluation after a set_value (a System serves one thread at a time).
   mutable std::vector<double> constant_g_, constant_c_;
   mutable bool constant_stale_ = true;
+  mutable int stamp_version_ = 0;
   void make_constant_stamp() const;
   double temperature_ = kRoomTemperature;
 };
