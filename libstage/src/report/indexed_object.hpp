@@ -1,16 +1,17 @@
 // The object type of the reports' JSON: keys kept in the order written
-// (spec section 7 puts "kind" first) and found through a hash index once an
+// (spec section 7 puts "kind" first) and found through a hash table once an
 // object has more than a few keys. nlohmann::ordered_map finds keys by a
 // linear scan, so filling an object with n node names took O(n²) time.
 #pragma once
 
 #include <algorithm>
+#include <bit>
 #include <cstddef>
+#include <cstdint>
 #include <functional>
 #include <initializer_list>
 #include <memory>
 #include <stdexcept>
-#include <unordered_map>
 #include <utility>
 #include <vector>
 
@@ -18,9 +19,10 @@ namespace stage::report {
 
 // Shaped as nlohmann::basic_json's ObjectType parameter (a template of key,
 // value, comparator and allocator; the last two are not used). The entries
-// are a vector in insertion order; the index maps a key to its position and
-// exists only from kIndexedFrom entries on, below which a scan is quicker
-// and most report objects stay.
+// are a vector in insertion order. From kIndexedFrom entries on (below it a
+// scan is quicker, and most report objects stay there) an open-addressing
+// table of positions finds a key: one probe into a flat array, where a
+// node-based hash map costs an allocation per key and scattered reads.
 template <class Key, class T, class IgnoredLess = std::less<Key>,
           class IgnoredAllocator = std::allocator<std::pair<const Key, T>>>
 class IndexedObject {
@@ -55,22 +57,15 @@ class IndexedObject {
   size_type max_size() const noexcept { return entries_.max_size(); }
   bool empty() const noexcept { return entries_.empty(); }
 
-  const_iterator find(const Key& key) const {
-    if (index_.empty()) {
-      return std::find_if(begin(), end(), [&](const value_type& e) { return e.first == key; });
-    }
-    const auto hit = index_.find(key);
-    return hit == index_.end() ? end() : begin() + static_cast<std::ptrdiff_t>(hit->second);
-  }
-  iterator find(const Key& key) {
-    return begin() + (static_cast<const IndexedObject&>(*this).find(key) - cbegin());
-  }
+  const_iterator find(const Key& key) const { return begin() + position(key); }
+  iterator find(const Key& key) { return begin() + position(key); }
   size_type count(const Key& key) const { return find(key) == end() ? 0 : 1; }
 
   // Adds key → value at the end unless the key is there already (which
   // keeps its place and value), as std::map::emplace does.
   std::pair<iterator, bool> emplace(Key key, T value) {
     if (const auto it = find(key); it != end()) return {it, false};
+    if (size() + 1 >= kEmpty) throw std::length_error("a JSON object of 2^32 keys");
     entries_.emplace_back(std::move(key), std::move(value));
     index_last();
     return {std::prev(end()), true};
@@ -114,7 +109,7 @@ class IndexedObject {
   }
   void clear() noexcept {
     entries_.clear();
-    index_.clear();
+    slots_.clear();
   }
 
   friend bool operator==(const IndexedObject& a, const IndexedObject& b) {
@@ -125,22 +120,54 @@ class IndexedObject {
   }
 
  private:
+  // A slot of the table: the key's hash and its entry's position, or kEmpty;
+  // 32 bits each, so that the table of 100k keys stays in the cache.
+  struct Slot {
+    std::uint32_t hash = 0;
+    std::uint32_t position = kEmpty;
+  };
+  static constexpr std::uint32_t kEmpty = static_cast<std::uint32_t>(-1);
+
+  // The position of `key` among the entries, or size() if it is not there.
+  std::ptrdiff_t position(const Key& key) const {
+    if (slots_.empty()) {
+      return std::find_if(begin(), end(), [&](const value_type& e) { return e.first == key; }) -
+             begin();
+    }
+    const auto hash = static_cast<std::uint32_t>(std::hash<Key>{}(key));
+    for (std::size_t s = hash;; ++s) {
+      const Slot& slot = slots_[s & (slots_.size() - 1)];
+      if (slot.position == kEmpty) return static_cast<std::ptrdiff_t>(size());
+      if (slot.hash == hash && entries_[slot.position].first == key) {
+        return static_cast<std::ptrdiff_t>(slot.position);
+      }
+    }
+  }
+
+  // Keeps the table at most half full, so that probes stay short.
   void index_last() {
-    if (size() == kIndexedFrom) {
+    if (size() < kIndexedFrom) return;
+    if (2 * size() > slots_.size()) {
       rebuild_index();
-    } else if (size() > kIndexedFrom) {
-      index_.emplace(entries_.back().first, size() - 1);
+    } else {
+      place(size() - 1);
     }
   }
   void rebuild_index() {
-    index_.clear();
+    slots_.clear();
     if (size() < kIndexedFrom) return;
-    index_.reserve(size());
-    for (size_type i = 0; i < size(); ++i) index_.emplace(entries_[i].first, i);
+    slots_.resize(std::bit_ceil(2 * size()));
+    for (size_type i = 0; i < size(); ++i) place(i);
+  }
+  void place(size_type entry) {
+    const auto hash = static_cast<std::uint32_t>(std::hash<Key>{}(entries_[entry].first));
+    std::size_t s = hash;
+    while (slots_[s & (slots_.size() - 1)].position != kEmpty) ++s;
+    slots_[s & (slots_.size() - 1)] = {hash, static_cast<std::uint32_t>(entry)};
   }
 
   Entries entries_;
-  std::unordered_map<Key, size_type> index_;
+  std::vector<Slot> slots_;  // a power of two long; empty below kIndexedFrom entries
 };
 
 }  // namespace stage::report
