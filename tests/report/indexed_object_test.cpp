@@ -50,9 +50,15 @@ TEST(IndexedObject, ErasingKeepsTheOthersFoundInOrder) {
   Json json = Json::object();
   Reference reference = Reference::object();
   fill(json, reference, 40);
-  // Erase from the middle until the object drops below the hashed size.
+  // Erase from the middle, by key and by iterator in turn, until the object
+  // drops below the hashed size.
   for (std::size_t k = 10; json.size() >= kIndexedFrom - 2; ++k) {
-    EXPECT_EQ(json.erase(key(k)), reference.erase(key(k)));
+    if (k % 2 == 0) {
+      EXPECT_EQ(json.erase(key(k)), reference.erase(key(k)));
+    } else {
+      json.erase(json.find(key(k)));
+      reference.erase(reference.find(key(k)));
+    }
     EXPECT_EQ(json.dump(), reference.dump()) << "after erasing " << key(k);
     for (const auto& [name, value] : reference.items()) EXPECT_EQ(json.at(name), value);
   }

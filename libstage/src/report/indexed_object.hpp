@@ -6,10 +6,10 @@
 
 #include <algorithm>
 #include <bit>
+#include <compare>
 #include <cstddef>
 #include <cstdint>
 #include <functional>
-#include <initializer_list>
 #include <memory>
 #include <stdexcept>
 #include <utility>
@@ -45,7 +45,6 @@ class IndexedObject {
   IndexedObject(It first, It last) {
     insert(first, last);
   }
-  IndexedObject(std::initializer_list<value_type> init) : IndexedObject(init.begin(), init.end()) {}
 
   iterator begin() noexcept { return entries_.begin(); }
   iterator end() noexcept { return entries_.end(); }
@@ -115,8 +114,8 @@ class IndexedObject {
   friend bool operator==(const IndexedObject& a, const IndexedObject& b) {
     return a.entries_ == b.entries_;
   }
-  friend bool operator<(const IndexedObject& a, const IndexedObject& b) {
-    return a.entries_ < b.entries_;
+  friend auto operator<=>(const IndexedObject& a, const IndexedObject& b) {
+    return a.entries_ <=> b.entries_;
   }
 
  private:
