@@ -128,8 +128,8 @@ Json to_json(const BiasResult& r) {
             {"reciprocal_condition", r.reciprocal_condition},
             {"node_voltages", pairs_json(r.node_voltages)},
             {"element_currents", pairs_json(r.element_currents)},
-            {"devices", devices},
-            {"supplies", supplies}};
+            {"devices", std::move(devices)},
+            {"supplies", std::move(supplies)}};
   if (!r.warnings.empty()) json["warnings"] = r.warnings;
   return json;
 }
@@ -168,16 +168,16 @@ Json to_json(const SweepResult& r) {
   Json points = Json::array();
   for (const auto& p : r.points) {
     Json point{{"value", p.value}};
-    const Json bias = to_json(p.bias);
-    for (const auto& [key, value] : bias.items()) {
-      if (key != "kind") point[key] = value;
+    Json bias = to_json(p.bias);
+    for (auto it = bias.begin(); it != bias.end(); ++it) {
+      if (it.key() != "kind") point[it.key()] = std::move(it.value());
     }
     points.push_back(std::move(point));
   }
   return Json{{"kind", "sweep"},
               {"target", kTargets[static_cast<int>(r.options.target)]},
               {"name", r.options.name},
-              {"points", points}};
+              {"points", std::move(points)}};
 }
 
 void print_table(std::ostream& out, const SweepResult& r) {

@@ -51,7 +51,7 @@ Json to_json(const CharacterizeResult& r) {
          {"output_impedance_ohm", std::abs(r.output_impedance)},
          {"output_impedance_real_ohm", r.output_impedance.real()},
          {"output_impedance_imag_ohm", r.output_impedance.imag()},
-         {"headroom", headroom}};
+         {"headroom", std::move(headroom)}};
   if (r.half_swing) j["half_swing"] = swing_json(*r.half_swing);
   if (r.full_swing) j["full_swing"] = swing_json(*r.full_swing);
   if (r.limit_swing) j["limit_swing"] = swing_json(*r.limit_swing);

@@ -2,8 +2,8 @@
 #include "report/format.hpp"
 
 #include <algorithm>
+#include <charconv>
 #include <cmath>
-#include <cstdio>
 
 namespace stage::report {
 namespace {
@@ -46,11 +46,15 @@ std::string_view signal_unit(std::string_view signal) {
   return signal.ends_with(".current") ? "A" : "V";
 }
 
+// Ten significant digits, as printf's "%.10g" writes them; std::to_chars
+// takes a constant time where printf slows down on tiny values (1e-40 V at
+// the far end of a long ladder).
 std::string csv_number(double value) {
   if (std::isinf(value)) return value < 0 ? "-inf" : "inf";
   char buffer[32];
-  std::snprintf(buffer, sizeof buffer, "%.10g", value);
-  return buffer;
+  const auto end =
+      std::to_chars(buffer, buffer + sizeof buffer, value, std::chars_format::general, 10).ptr;
+  return std::string(buffer, end);
 }
 
 }  // namespace stage::report

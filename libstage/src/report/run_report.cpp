@@ -32,7 +32,7 @@ std::string json_document(const RunResult& run, int indent) {
     analyses.push_back(std::visit([](const auto& r) { return report::to_json(r); }, result));
   }
   const Json document{
-      {"title", run.title}, {"temperature_K", run.temperature}, {"analyses", analyses}};
+      {"title", run.title}, {"temperature_K", run.temperature}, {"analyses", std::move(analyses)}};
   return document.dump(indent);
 }
 

@@ -19,8 +19,12 @@ Json to_json(const SpectrumResult& r) {
   for (const auto& h : r.harmonics) {
     harmonics.push_back(Json{{"n", h.n}, {"amplitude", h.amplitude}, {"phase_deg", h.phase_deg}});
   }
-  Json j{{"kind", "spectrum"}, {"signal", r.signal},     {"fundamental_Hz", r.fundamental},
-         {"dc", r.dc},         {"harmonics", harmonics}, {"thd", r.thd}};
+  Json j{{"kind", "spectrum"},
+         {"signal", r.signal},
+         {"fundamental_Hz", r.fundamental},
+         {"dc", r.dc},
+         {"harmonics", std::move(harmonics)},
+         {"thd", r.thd}};
   if (r.thd_plus_noise) j["thd_plus_noise"] = *r.thd_plus_noise;
   j["settled"] = r.settled;
   if (!r.settled) j["warning"] = unsettled_warning(r);

@@ -26,7 +26,7 @@ const char* method_name(Integration integration) {
 Json to_json(const TransientResult& r) {
   Json signals = Json::object();
   for (const auto& s : r.signals) signals[s.name] = s.values;
-  return Json{{"kind", "transient"}, {"time_s", r.time}, {"signals", signals}};
+  return Json{{"kind", "transient"}, {"time_s", r.time}, {"signals", std::move(signals)}};
 }
 
 void print_table(std::ostream& out, const TransientResult& r) {
