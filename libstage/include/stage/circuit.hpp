@@ -10,9 +10,11 @@
 // blocks look like `x1/q` and `x1/mid`.
 #pragma once
 
+#include <cstdint>
 #include <map>
 #include <optional>
 #include <string>
+#include <string_view>
 #include <variant>
 #include <vector>
 
@@ -128,6 +130,9 @@ class Circuit {
 
   // Adds an element; throws an invalid_request Error on a duplicate name.
   Circuit& add(std::string name, ElementData data);
+  // Makes room for `count` elements in all, so that adding them allocates
+  // once (a reader that knows the size ahead).
+  void reserve(std::size_t count);
   // Takes an element out (the others keep their order); false if there is none.
   bool remove(const std::string& name);
   // Adds a model of any kind (a BipolarModel, a DiodeModel, an AnyModel),
@@ -150,8 +155,12 @@ class Circuit {
   const std::map<std::string, DiodeModel>& diode_models() const { return models_.of<DiodeModel>(); }
 
  private:
+  // Open addressing by name: each slot holds an element's position + 1, or 0.
+  std::size_t slot_of(std::string_view name) const;
+  void index_all(std::size_t slot_count);
+
   std::vector<Element> elements_;
-  std::map<std::string, std::size_t> index_;
+  std::vector<std::uint32_t> slots_;
   Models models_;
 };
 

@@ -3,6 +3,7 @@
 // statements.
 #pragma once
 
+#include <cstdint>
 #include <filesystem>
 #include <map>
 #include <memory>
@@ -24,6 +25,11 @@ struct ReadOptions {
   // command's --set NAME=VALUE; errors name "--set").
   std::map<std::string, double> overrides;
   std::map<std::string, std::string> written_overrides;
+  // The largest file read, in bytes (the main file and each include alone):
+  // a guard against reading something that is no circuit description.
+  // Reading takes several times a file's size in memory. At most 2 GiB - 1,
+  // as offsets in the text are ints. The command's --max-file-size.
+  std::uintmax_t max_file_size = std::uintmax_t{1} << 30;
 };
 
 // The model search path: $STAGE_MODEL_PATH (colon-separated) then the

@@ -33,10 +33,7 @@ void Elaborator::element(const ast::Instance& instance, const Frame& frame) {
     source.fail(instance.call.offset, "unknown element kind or block '" + keyword + "'" +
                                           reader::suggestion(keyword, names));
   }
-  if (element_kinds_.count(name)) {
-    source.fail(instance.offset, "an element named '" + name + "' already exists");
-  }
-  element_kinds_[name] = keyword;
+  if (kind_of(name)) source.fail(instance.offset, "an element named '" + name + "' already exists");
   deck_.places[name] = source.location(instance.offset);
   deck_.circuit.add(name, std::move(*data));
 }

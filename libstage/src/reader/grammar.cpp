@@ -1,6 +1,6 @@
 // The whole Boost.Spirit X3 grammar of the language, kept in this one
 // translation unit because X3 is slow to compile. Statements end at a newline.
-// The grammar reads the text prepared by prepare_for_grammar(), where comments
+// The grammar reads the text as SourceText prepares it, where comments
 // are blanks and the newlines inside ( ) and { } are form feeds, so one
 // skipper (blanks and form feeds) serves everywhere; switching skippers inside
 // recursive rules would make X3 nest contexts without end. A number's unit
@@ -127,10 +127,10 @@ x3::rule<struct block_body_r, std::vector<ast::Statement>> const block_body = "b
 x3::rule<class line_end_r> const line_end = "the end of the statement";
 x3::rule<class statement_end_r> const statement_end = "the end of the statement";
 x3::rule<class block_end_r> const block_end = "a statement, or 'end' to close the block";
-x3::rule<class input_end_r> const input_end =
+// What was expected where no statement could be read.
+constexpr const char* kAnyStatement =
     "a statement (title, let, include, temperature, solver, model, block, analyze, "
     "or name = kind(…))";
-x3::rule<struct file_r, std::vector<ast::Statement>> const file = "a circuit description";
 
 const auto identifier_def = lexeme[(alpha | char_('_')) >> *(alnum | char_('_'))];
 const auto number_def =
@@ -180,15 +180,13 @@ const auto statement_def =
 const auto statement_line_def = statement > statement_end;
 const auto statement_end_def = line_end >> *eol;
 const auto line_end_def = eol | eoi;
-const auto input_end_def = eoi;
-const auto file_def = *eol >> *statement_line > input_end;
 
 BOOST_SPIRIT_DEFINE(identifier, number, name, expression, additive, add_operation, multiplicative,
                     mul_operation, unary, power, power_operation, primary, tuple, call, arguments,
                     argument, keyed_argument, positional_argument, quoted, title, let, include,
                     temperature, solver, instance, model, model_body, analyze, block, ports,
                     defaults, statement, statement_line, statement_end, block_body, line_end,
-                    block_end, input_end, file)
+                    block_end)
 
 #define STAGE_ANNOTATE(r) \
   struct r : annotate {};
@@ -224,7 +222,6 @@ STAGE_ANNOTATE(defaults_r)
 STAGE_ANNOTATE(statement_r)
 STAGE_ANNOTATE(statement_line_r)
 STAGE_ANNOTATE(block_body_r)
-STAGE_ANNOTATE(file_r)
 #undef STAGE_ANNOTATE
 
 }  // namespace grammar
@@ -271,24 +268,46 @@ std::string parse_hint(const std::string& text, int offset, const std::string& e
 
 }  // namespace
 
-ast::File parse(const SourceText& source) {
+StatementStream::StatementStream(const SourceText& source)
+    : source_(source), first_(source.text().data()) {}
+
+std::optional<ast::Statement> StatementStream::next() {
   namespace x3 = boost::spirit::x3;
-  const std::string text = prepare_for_grammar(source);
+  const std::string& text = source_.text();
   const char* const begin = text.data();
-  const char* first = begin;
   const char* const last = begin + text.size();
-  ast::File result;
-  try {
-    x3::parse(first, last,
-              x3::with<grammar::begin_tag>(
-                  begin)[x3::skip(x3::ascii::blank | x3::lit('\f'))[grammar::file]],
-              result.statements);
-  } catch (const x3::expectation_failure<const char*>& failure) {
+  const auto skipper = x3::ascii::blank | x3::lit('\f');
+  const auto fail_at = [&](const char* at, const std::string& expected) {
     // Point at what was found, not at the blanks before it.
-    const char* at = failure.where();
     while (at < last && (*at == ' ' || *at == '\t' || *at == '\f')) ++at;
     const int offset = static_cast<int>(at - begin);
-    source.fail(offset, "expected " + failure.which() + parse_hint(text, offset, failure.which()));
+    source_.fail(offset, "expected " + expected + parse_hint(text, offset, expected));
+  };
+  // The blank lines before the first statement (statement_line eats those
+  // after each one), then the end of the text or one statement.
+  x3::phrase_parse(first_, last, *x3::eol, skipper);
+  if (const char* end = first_; x3::phrase_parse(end, last, x3::eoi, skipper)) {
+    first_ = end;
+    return std::nullopt;
+  }
+  ast::Statement statement;
+  try {
+    if (!x3::parse(first_, last,
+                   x3::with<grammar::begin_tag>(begin)[x3::skip(skipper)[grammar::statement_line]],
+                   statement)) {
+      fail_at(first_, grammar::kAnyStatement);
+    }
+  } catch (const x3::expectation_failure<const char*>& failure) {
+    fail_at(failure.where(), failure.which());
+  }
+  return statement;
+}
+
+ast::File parse(const SourceText& source) {
+  ast::File result;
+  StatementStream stream(source);
+  while (std::optional<ast::Statement> statement = stream.next()) {
+    result.statements.push_back(std::move(*statement));
   }
   return result;
 }
