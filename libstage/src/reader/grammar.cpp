@@ -10,15 +10,14 @@
 #include "reader/grammar.hpp"
 
 #include <boost/fusion/include/adapt_struct.hpp>
+#include <boost/fusion/include/at_c.hpp>
 #include <boost/spirit/home/x3.hpp>
 #include <cctype>
 #include <string>
 
 BOOST_FUSION_ADAPT_STRUCT(stage::ast::Argument, key, value)
 BOOST_FUSION_ADAPT_STRUCT(stage::ast::Call, name, arguments)
-BOOST_FUSION_ADAPT_STRUCT(stage::ast::Unary, signs, operand)
 BOOST_FUSION_ADAPT_STRUCT(stage::ast::Operation, op, operand)
-BOOST_FUSION_ADAPT_STRUCT(stage::ast::Chain, first, rest)
 BOOST_FUSION_ADAPT_STRUCT(stage::ast::Let, name, value)
 BOOST_FUSION_ADAPT_STRUCT(stage::ast::Instance, name, call)
 BOOST_FUSION_ADAPT_STRUCT(stage::ast::Model, name, base, parameters)
@@ -78,6 +77,26 @@ const auto matched_text = [](auto& context) {
   x3::_val(context).offset = offset_at(x3::_attr(context).begin(), context);
 };
 
+// An expression level is its first operand alone when no operator follows
+// (no wrapper nodes for the plain values that most arguments are), else a
+// Chain of that operand and the operations after it.
+const auto operand = [](auto& context) { x3::_val(context) = std::move(x3::_attr(context)); };
+const auto chained = [](auto& context) {
+  ast::Chain chain;
+  chain.offset = ast::offset_of(x3::_val(context));
+  chain.first = std::move(x3::_val(context));
+  chain.rest = std::move(x3::_attr(context));
+  x3::_val(context) = x3::forward_ast<ast::Chain>(std::move(chain));
+};
+// Leading signs and what they apply to.
+const auto signed_operand = [](auto& context) {
+  ast::Unary unary;
+  unary.offset = offset_at(x3::_where(context).begin(), context);
+  unary.signs = std::move(boost::fusion::at_c<0>(x3::_attr(context)));
+  unary.operand = std::move(boost::fusion::at_c<1>(x3::_attr(context)));
+  x3::_val(context) = x3::forward_ast<ast::Unary>(std::move(unary));
+};
+
 auto keyword(const char* word) { return lexeme[lit(word) >> !(alnum | '_')]; }
 
 // Letters and the non-ASCII symbols that units use: µ μ Ω Ω °.
@@ -91,12 +110,12 @@ x3::rule<class identifier_r, std::string> const identifier = "a name";
 x3::rule<struct number_r, ast::Number> const number = "a number";
 x3::rule<struct name_r, ast::Name> const name = "a name";
 x3::rule<struct expression_r, ast::Expr> const expression = "an expression";
-x3::rule<struct additive_r, ast::Chain> const additive = "an expression";
+x3::rule<struct additive_r, ast::Expr> const additive = "an expression";
 x3::rule<struct add_operation_r, ast::Operation> const add_operation = "'+' or '-'";
-x3::rule<struct multiplicative_r, ast::Chain> const multiplicative = "an expression";
+x3::rule<struct multiplicative_r, ast::Expr> const multiplicative = "an expression";
 x3::rule<struct mul_operation_r, ast::Operation> const mul_operation = "'*' or '/'";
-x3::rule<struct unary_r, ast::Unary> const unary = "an expression";
-x3::rule<struct power_r, ast::Chain> const power = "an expression";
+x3::rule<struct unary_r, ast::Expr> const unary = "an expression";
+x3::rule<struct power_r, ast::Expr> const power = "an expression";
 x3::rule<struct power_operation_r, ast::Operation> const power_operation = "'^'";
 x3::rule<struct primary_r, ast::Expr> const primary = "a value";
 x3::rule<struct tuple_r, ast::Tuple> const tuple = "a parenthesised list";
@@ -138,12 +157,12 @@ const auto number_def =
 const auto name_def = raw[lexeme[name_chars >> -('.' >> name_chars)]][matched_text];
 
 const auto expression_def = additive;
-const auto additive_def = multiplicative >> *add_operation;
+const auto additive_def = multiplicative[operand] >> -(+add_operation)[chained];
 const auto add_operation_def = char_("+-") >> multiplicative;
-const auto multiplicative_def = unary >> *mul_operation;
+const auto multiplicative_def = unary[operand] >> -(+mul_operation)[chained];
 const auto mul_operation_def = char_("*/") >> unary;
-const auto unary_def = *char_("+-") >> power;
-const auto power_def = primary >> *power_operation;
+const auto unary_def = (+char_("+-") >> power)[signed_operand] | power[operand];
+const auto power_def = primary[operand] >> -(+power_operation)[chained];
 const auto power_operation_def = char_('^') >> unary;
 const auto primary_def = number | call | name | tuple;
 const auto tuple_def = mark >>
