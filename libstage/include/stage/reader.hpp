@@ -7,7 +7,10 @@
 #include <filesystem>
 #include <map>
 #include <memory>
+#include <optional>
 #include <string>
+#include <string_view>
+#include <utility>
 #include <vector>
 
 #include "stage/analyses.hpp"
@@ -38,6 +41,57 @@ std::vector<std::filesystem::path> default_model_path();
 
 class SyntaxTree;  // reader-internal
 
+// Where each element ("<name>") and model ("model <name>") of a deck was
+// written, looked up as in a std::map of subjects to locations, but kept in
+// a few dozen bytes a subject: a large circuit has millions of elements.
+class Places {
+ public:
+  using value_type = std::pair<const std::string, SourceLocation>;
+
+  // A found subject and its location, or end().
+  class const_iterator {
+   public:
+    const value_type& operator*() const { return *found_; }
+    const value_type* operator->() const { return &*found_; }
+    bool operator==(const const_iterator& other) const {
+      return found_.has_value() == other.found_.has_value() &&
+             (!found_ || found_->first == other.found_->first);
+    }
+
+   private:
+    friend class Places;
+    std::optional<value_type> found_;
+  };
+
+  const_iterator find(const std::string& subject) const;
+  const_iterator end() const { return {}; }
+  std::size_t count(const std::string& subject) const { return find(subject) == end() ? 0 : 1; }
+  std::size_t size() const { return entries_.size(); }
+  bool empty() const { return entries_.empty(); }
+
+  // Makes room for `count` subjects in all (a reader that knows the size).
+  void reserve(std::size_t count);
+  // Records where `subject` was written (again: the newer place stands).
+  void set(std::string_view subject, const SourceLocation& where);
+
+ private:
+  struct Entry {
+    std::uint32_t name;  // offset of the subject in names_
+    std::uint32_t file;  // index into files_
+    int line;
+    int column;
+  };
+  // The names index_ reads.
+  auto names() const {
+    return [this](std::size_t k) { return std::string_view(names_.data() + entries_[k].name); };
+  }
+
+  std::string names_;  // the subjects, each ended by a NUL
+  std::vector<std::string> files_;
+  std::vector<Entry> entries_;
+  detail::NameIndex index_;
+};
+
 // A read circuit description.
 class Deck {
  public:
@@ -47,7 +101,7 @@ class Deck {
   std::filesystem::path file;
   // Where each element ("<name>") and model ("model <name>") was written,
   // for problems found after reading (Problem::subject names them).
-  std::map<std::string, SourceLocation> places;
+  Places places;
 
   // The circuit elaborated again with one `let` parameter set to `value`
   // (parameter sweeps, which keep `solver` as read). Throws InputError if

@@ -39,6 +39,7 @@ void Elaborator::run() {
   const File& main = tree_.files.front();
   collect_blocks(main);
   deck_.circuit.reserve(tree_.instances);
+  deck_.places.reserve(tree_.instances);
   file_statements(main);
   check_references();
   std::vector<std::string> overridden;

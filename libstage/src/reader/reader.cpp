@@ -165,6 +165,40 @@ Deck read_text(const std::string& text, const std::string& file_name, const Read
   return read(file_name, text, options);
 }
 
+Places::const_iterator Places::find(const std::string& subject) const {
+  const_iterator it;
+  if (const std::optional<std::size_t> at = index_.find(subject, names())) {
+    const Entry& e = entries_[*at];
+    it.found_.emplace(subject, SourceLocation{files_[e.file], e.line, e.column});
+  }
+  return it;
+}
+
+void Places::reserve(std::size_t count) {
+  entries_.reserve(count);
+  index_.rebuild(entries_.size(), names(), count);
+}
+
+void Places::set(std::string_view subject, const SourceLocation& where) {
+  // Subjects come file by file: the file is most often the last one seen.
+  std::size_t file = files_.size();
+  while (file > 0 && files_[file - 1] != where.file) --file;
+  if (file == 0) {
+    files_.push_back(where.file);
+    file = files_.size();
+  }
+  const Entry entry{0, static_cast<std::uint32_t>(file - 1), where.line, where.column};
+  if (const std::optional<std::size_t> at = index_.find(subject, names())) {
+    entries_[*at] = {entries_[*at].name, entry.file, entry.line, entry.column};
+    return;
+  }
+  entries_.push_back(entry);
+  entries_.back().name = static_cast<std::uint32_t>(names_.size());
+  names_.append(subject);
+  names_.push_back('\0');
+  index_.added(entries_.size() - 1, entries_.size(), names());
+}
+
 std::string Deck::line_text(const SourceLocation& where) const {
   if (!tree) return {};
   for (const auto& file : tree->files) {

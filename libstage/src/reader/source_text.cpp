@@ -11,6 +11,7 @@ namespace stage::reader {
 
 SourceText::SourceText(std::string file_name, std::string text)
     : file_name_(std::move(file_name)), text_(std::move(text)) {
+  line_starts_.reserve(std::count(text_.begin(), text_.end(), '\n') + 1);
   line_starts_.push_back(0);
   for (std::size_t i = 0; i < text_.size(); ++i) {
     if (text_[i] == '\n') line_starts_.push_back(static_cast<int>(i + 1));
