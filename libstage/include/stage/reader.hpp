@@ -43,7 +43,8 @@ class SyntaxTree;  // reader-internal
 
 // Where each element ("<name>") and model ("model <name>") of a deck was
 // written, looked up as in a std::map of subjects to locations, but kept in
-// a few dozen bytes a subject: a large circuit has millions of elements.
+// a few dozen bytes a subject (a large circuit has millions of elements): the
+// line and column are worked out from the file's text when asked for.
 class Places {
  public:
   using value_type = std::pair<const std::string, SourceLocation>;
@@ -63,31 +64,35 @@ class Places {
     std::optional<value_type> found_;
   };
 
+  // Internal: places in the files of `tree`.
+  explicit Places(std::shared_ptr<const SyntaxTree> tree = nullptr) : tree_(std::move(tree)) {}
+
   const_iterator find(const std::string& subject) const;
   const_iterator end() const { return {}; }
   std::size_t count(const std::string& subject) const { return find(subject) == end() ? 0 : 1; }
   std::size_t size() const { return entries_.size(); }
   bool empty() const { return entries_.empty(); }
 
-  // Makes room for `count` subjects in all (a reader that knows the size).
-  void reserve(std::size_t count);
-  // Records where `subject` was written (again: the newer place stands).
-  void set(std::string_view subject, const SourceLocation& where);
+  // Internal, for the reader. Makes room for `count` subjects in all, whose
+  // names take `name_bytes` with one more each.
+  void reserve(std::size_t count, std::size_t name_bytes);
+  // Records that `subject` was written at `offset` in the tree's file number
+  // `file` (again: the newer place stands).
+  void set(std::string_view subject, int file, int offset);
 
  private:
   struct Entry {
     std::uint32_t name;  // offset of the subject in names_
-    std::uint32_t file;  // index into files_
-    int line;
-    int column;
+    int file;
+    int offset;
   };
   // The names index_ reads.
   auto names() const {
     return [this](std::size_t k) { return std::string_view(names_.data() + entries_[k].name); };
   }
 
+  std::shared_ptr<const SyntaxTree> tree_;
   std::string names_;  // the subjects, each ended by a NUL
-  std::vector<std::string> files_;
   std::vector<Entry> entries_;
   detail::NameIndex index_;
 };

@@ -24,6 +24,7 @@ Deck elaborate(std::shared_ptr<const SyntaxTree> tree, const ReadOptions& option
   deck.options = options;
   deck.tree = tree;
   deck.file = tree->files.front().source.file_name();
+  deck.places = Places(tree);
   Elaborator(*tree, deck.options, deck).run();
   return deck;
 }
@@ -39,7 +40,7 @@ void Elaborator::run() {
   const File& main = tree_.files.front();
   collect_blocks(main);
   deck_.circuit.reserve(tree_.instances);
-  deck_.places.reserve(tree_.instances);
+  deck_.places.reserve(tree_.instances, tree_.instance_name_bytes);
   file_statements(main);
   check_references();
   std::vector<std::string> overridden;

@@ -78,6 +78,8 @@ class Elaborator {
   bool has_node(const std::string& name) const;
   std::vector<std::string> node_names() const;
   [[noreturn]] void fail(const Frame& frame, int offset, const std::string& message) const;
+  // The number of a file in the tree (for Deck::places).
+  int index_of(const File& file) const { return static_cast<int>(&file - tree_.files.data()); }
 
   // elements.cpp: element statements, read through their kind's descriptor.
   void element(const ast::Instance& instance, const Frame& frame);

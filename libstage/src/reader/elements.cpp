@@ -34,7 +34,7 @@ void Elaborator::element(const ast::Instance& instance, const Frame& frame) {
                                           reader::suggestion(keyword, names));
   }
   if (kind_of(name)) source.fail(instance.offset, "an element named '" + name + "' already exists");
-  deck_.places.set(name, source.location(instance.offset));
+  deck_.places.set(name, index_of(*frame.file), instance.offset);
   deck_.circuit.add(name, std::move(*data));
 }
 

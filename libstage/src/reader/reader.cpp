@@ -73,7 +73,10 @@ class Loader {
       while (std::optional<ast::Statement> statement = stream.next()) {
         if (const auto* include = boost::get<ast::Include>(&*statement))
           includes.push_back(*include);
-        if (boost::get<ast::Instance>(&*statement)) ++tree_.instances;
+        if (const auto* instance = boost::get<ast::Instance>(&*statement)) {
+          ++tree_.instances;
+          tree_.instance_name_bytes += instance->name.size() + 1;
+        }
         if (boost::get<ast::Include>(&*statement) ||
             boost::get<x3::forward_ast<ast::Block>>(&*statement)) {
           tree_.files[index].blocks_and_includes.push_back(std::move(*statement));
@@ -169,31 +172,24 @@ Places::const_iterator Places::find(const std::string& subject) const {
   const_iterator it;
   if (const std::optional<std::size_t> at = index_.find(subject, names())) {
     const Entry& e = entries_[*at];
-    it.found_.emplace(subject, SourceLocation{files_[e.file], e.line, e.column});
+    it.found_.emplace(subject, tree_->files[e.file].source.location(e.offset));
   }
   return it;
 }
 
-void Places::reserve(std::size_t count) {
+void Places::reserve(std::size_t count, std::size_t name_bytes) {
   entries_.reserve(count);
+  names_.reserve(name_bytes);
   index_.rebuild(entries_.size(), names(), count);
 }
 
-void Places::set(std::string_view subject, const SourceLocation& where) {
-  // Subjects come file by file: the file is most often the last one seen.
-  std::size_t file = files_.size();
-  while (file > 0 && files_[file - 1] != where.file) --file;
-  if (file == 0) {
-    files_.push_back(where.file);
-    file = files_.size();
-  }
-  const Entry entry{0, static_cast<std::uint32_t>(file - 1), where.line, where.column};
+void Places::set(std::string_view subject, int file, int offset) {
   if (const std::optional<std::size_t> at = index_.find(subject, names())) {
-    entries_[*at] = {entries_[*at].name, entry.file, entry.line, entry.column};
+    entries_[*at].file = file;
+    entries_[*at].offset = offset;
     return;
   }
-  entries_.push_back(entry);
-  entries_.back().name = static_cast<std::uint32_t>(names_.size());
+  entries_.push_back({static_cast<std::uint32_t>(names_.size()), file, offset});
   names_.append(subject);
   names_.push_back('\0');
   index_.added(entries_.size() - 1, entries_.size(), names());

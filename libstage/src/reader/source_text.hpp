@@ -46,7 +46,6 @@ class SourceText {
 
   std::string file_name_;
   std::string text_;
-  std::vector<int> line_starts_;
   std::vector<Replaced> replaced_;  // by offset
 };
 

@@ -29,6 +29,7 @@ class SyntaxTree {
   // Element and block instances written outside blocks, in all files: the
   // circuit's size when no block is used.
   std::size_t instances = 0;
+  std::size_t instance_name_bytes = 0;  // their names' lengths, plus one each
 };
 
 }  // namespace stage
