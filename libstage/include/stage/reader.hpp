@@ -76,9 +76,9 @@ class Places {
   // Internal, for the reader. Makes room for `count` subjects in all, whose
   // names take `name_bytes` with one more each.
   void reserve(std::size_t count, std::size_t name_bytes);
-  // Records that `subject` was written at `offset` in the tree's file number
-  // `file` (again: the newer place stands).
-  void set(std::string_view subject, int file, int offset);
+  // Records that `subject`, not recorded before, was written at `offset` in
+  // the tree's file number `file`.
+  void add(std::string_view subject, int file, int offset);
 
  private:
   struct Entry {

@@ -183,12 +183,7 @@ void Places::reserve(std::size_t count, std::size_t name_bytes) {
   index_.rebuild(entries_.size(), names(), count);
 }
 
-void Places::set(std::string_view subject, int file, int offset) {
-  if (const std::optional<std::size_t> at = index_.find(subject, names())) {
-    entries_[*at].file = file;
-    entries_[*at].offset = offset;
-    return;
-  }
+void Places::add(std::string_view subject, int file, int offset) {
   entries_.push_back({static_cast<std::uint32_t>(names_.size()), file, offset});
   names_.append(subject);
   names_.push_back('\0');
