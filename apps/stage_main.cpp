@@ -48,12 +48,14 @@ struct Settings {
   std::string csv_dir;
   std::vector<std::string> sets;
   std::vector<std::string> model_dirs;
+  std::uintmax_t max_file_mib = stage::ReadOptions{}.max_file_size >> 20;
   bool verbose = false;
 };
 
 stage::ReadOptions read_options(const Settings& s) {
   stage::ReadOptions options;
   for (const auto& dir : s.model_dirs) options.model_path.emplace_back(dir);
+  options.max_file_size = s.max_file_mib << 20;
   const auto defaults = stage::default_model_path();
   options.model_path.insert(options.model_path.end(), defaults.begin(), defaults.end());
   for (const auto& assignment : s.sets) {
@@ -154,12 +156,21 @@ int main(int argc, char** argv) {
   run_cmd->add_option("--csv", s.csv_dir, "Also write one CSV file per analysis into DIR");
   run_cmd->add_option("--set", s.sets, "Override a `let` parameter: NAME=VALUE (repeatable)");
   run_cmd->add_option("--model-path", s.model_dirs, "Extra folder searched by `include`");
+  const auto add_max_file_size = [&](CLI::App* command) {
+    command
+        ->add_option("--max-file-size", s.max_file_mib,
+                     "Largest circuit file read, each include alone, in MiB")
+        ->check(CLI::Range(std::uintmax_t{1}, std::uintmax_t{2047}))
+        ->capture_default_str();
+  };
+  add_max_file_size(run_cmd);
   run_cmd->add_flag("--verbose,-v", s.verbose, "Log the solver's steps to stderr");
 
   CLI::App* check_cmd = app.add_subcommand("check", "Read and check FILE without running it");
   check_cmd->add_option("file", s.file, "Circuit description (.stage)")->required();
   check_cmd->add_option("--set", s.sets, "Override a `let` parameter: NAME=VALUE");
   check_cmd->add_option("--model-path", s.model_dirs, "Extra folder searched by `include`");
+  add_max_file_size(check_cmd);
 
   int curves_status = 0;
   CLI::App* curves_cmd = add_curves_commands(app, curves_status);

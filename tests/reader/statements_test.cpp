@@ -190,5 +190,48 @@ TEST(Overrides, ReplaceLetValues) {
   EXPECT_THROW(deck.with_parameter("nothing", 1), InputError);
 }
 
+// Deck::places answers like the map of subjects to locations it stands for,
+// for elements (block instances' too) and models, in any file of the deck.
+TEST(Statements, PlacesOfElementsAndModels) {
+  const Deck deck = read(
+      "# a comment with é, then a list over two lines\n"
+      "r1 = resistor(a,\n   b, 1k)\n"
+      "block pair(p)\n  r = resistor(p, gnd, 1k)\nend\n"
+      "  x1 = pair(n)\n"
+      "model qa = npn { beta_forward = 50 }\n");
+  const auto r1 = deck.places.find("r1");
+  ASSERT_NE(r1, deck.places.end());
+  EXPECT_EQ(r1->first, "r1");
+  EXPECT_EQ(r1->second.line, 2);
+  EXPECT_EQ(r1->second.column, 1);
+  const auto inner = deck.places.find("x1/r");
+  ASSERT_NE(inner, deck.places.end());
+  EXPECT_EQ(inner->second.line, 5);  // where the block writes it
+  EXPECT_EQ(inner->second.column, 3);
+  ASSERT_EQ(deck.places.count("model qa"), 1u);
+  EXPECT_EQ(deck.places.find("model qa")->second.line, 8);
+  EXPECT_EQ(deck.places.find("x1"), deck.places.end());  // an instance, not an element
+  EXPECT_EQ(deck.places.count("r2"), 0u);
+  EXPECT_EQ(deck.line_text(r1->second), "r1 = resistor(a,");
+}
+
+// The grammar reads comments as blanks and newlines inside brackets as form
+// feeds; messages still count and show the lines as written.
+TEST(Statements, MessagesShowTheLinesAsWritten) {
+  for (const std::string text :
+       {"r1 = resistor(a,  # é\n  b, 1 kx)\n", "# é\nr1 = resistor(a,\n  b, 1 kx)  # é\n"}) {
+    try {
+      read(text);
+      ADD_FAILURE() << text;
+    } catch (const InputError& e) {
+      const bool commented_first = text.front() == '#';
+      EXPECT_EQ(e.where().line, commented_first ? 3 : 2) << e.what();
+      EXPECT_EQ(e.where().column, 8) << e.what();
+      const std::string written = commented_first ? "  b, 1 kx)  # é" : "  b, 1 kx)";
+      EXPECT_NE(std::string(e.what()).find(written + "\n"), std::string::npos) << e.what();
+    }
+  }
+}
+
 }  // namespace
 }  // namespace stage::testing

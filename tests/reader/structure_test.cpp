@@ -168,5 +168,26 @@ TEST_F(Includes, MissingFileListsEachFolderOnce) {
   }
 }
 
+// ReadOptions::max_file_size (the command's --max-file-size) holds for the
+// main file and for each include; the message says how to raise it.
+TEST_F(Includes, FileLargerThanTheLimitIsRefusedWithHowToRaiseIt) {
+  write("a.stage", "include \"big.stage\"\n");
+  write("big.stage", "r = resistor(a, gnd, 1k)\n" + std::string(3u << 20, '#') + "\n");
+  ReadOptions options;
+  options.max_file_size = 2u << 20;
+  try {
+    read_file(dir_ / "a.stage", options);
+    FAIL();
+  } catch (const InputError& e) {
+    EXPECT_EQ(e.where().line, 1);
+    EXPECT_NE(e.message().find("(3 MiB) is larger than the limit of 2 MiB"), std::string::npos)
+        << e.message();
+    EXPECT_NE(e.message().find("--max-file-size"), std::string::npos) << e.message();
+  }
+  EXPECT_THROW(read_file(dir_ / "big.stage", options), InputError);
+  options.max_file_size = 4u << 20;
+  EXPECT_EQ(read_file(dir_ / "a.stage", options).circuit.elements().size(), 1u);
+}
+
 }  // namespace
 }  // namespace stage::testing

@@ -10,9 +10,13 @@
 // blocks look like `x1/q` and `x1/mid`.
 #pragma once
 
+#include <algorithm>
+#include <cstdint>
+#include <functional>
 #include <map>
 #include <optional>
 #include <string>
+#include <string_view>
 #include <variant>
 #include <vector>
 
@@ -121,6 +125,51 @@ struct Element {
   bool operator==(const Element&) const = default;
 };
 
+namespace detail {
+
+// Things held in a vector, found by name: open addressing over a table of
+// positions + 1 (0: an empty slot), the names kept by the owner and read
+// through `name_at(position)`. A few bytes an entry, for millions of entries.
+class NameIndex {
+ public:
+  template <class NameAt>
+  std::optional<std::size_t> find(std::string_view name, const NameAt& name_at) const {
+    if (slots_.empty()) return std::nullopt;
+    const std::uint32_t at = slots_[slot_of(name, name_at)];
+    return at == 0 ? std::nullopt : std::optional<std::size_t>(at - 1);
+  }
+  // After the entry at `position` was added as the last of `count`.
+  template <class NameAt>
+  void added(std::size_t position, std::size_t count, const NameAt& name_at) {
+    if (slots_.size() < count + count / 3) return rebuild(count, name_at, count);
+    slots_[slot_of(name_at(position), name_at)] = static_cast<std::uint32_t>(position + 1);
+  }
+  // Indexes `count` entries afresh, with room for `room` in all.
+  template <class NameAt>
+  void rebuild(std::size_t count, const NameAt& name_at, std::size_t room) {
+    room = std::max(room, count);
+    std::size_t size = 16;
+    while (size < room + room / 3) size *= 2;  // at most 3/4 full
+    slots_.assign(size, 0);
+    for (std::size_t k = 0; k < count; ++k) {
+      slots_[slot_of(name_at(k), name_at)] = static_cast<std::uint32_t>(k + 1);
+    }
+  }
+
+ private:
+  template <class NameAt>
+  std::size_t slot_of(std::string_view name, const NameAt& name_at) const {
+    const std::size_t mask = slots_.size() - 1;
+    std::size_t slot = std::hash<std::string_view>{}(name)&mask;
+    while (slots_[slot] != 0 && name_at(slots_[slot] - 1) != name) slot = (slot + 1) & mask;
+    return slot;
+  }
+
+  std::vector<std::uint32_t> slots_;
+};
+
+}  // namespace detail
+
 class Circuit {
  public:
   std::string title;
@@ -128,6 +177,9 @@ class Circuit {
 
   // Adds an element; throws an invalid_request Error on a duplicate name.
   Circuit& add(std::string name, ElementData data);
+  // Makes room for `count` elements in all, so that adding them allocates
+  // once (a reader that knows the size ahead).
+  void reserve(std::size_t count);
   // Takes an element out (the others keep their order); false if there is none.
   bool remove(const std::string& name);
   // Adds a model of any kind (a BipolarModel, a DiodeModel, an AnyModel),
@@ -150,8 +202,13 @@ class Circuit {
   const std::map<std::string, DiodeModel>& diode_models() const { return models_.of<DiodeModel>(); }
 
  private:
+  // The names index_ reads.
+  auto names() const {
+    return [this](std::size_t k) -> std::string_view { return elements_[k].name; };
+  }
+
   std::vector<Element> elements_;
-  std::map<std::string, std::size_t> index_;
+  detail::NameIndex index_;
   Models models_;
 };
 

@@ -3,10 +3,14 @@
 // statements.
 #pragma once
 
+#include <cstdint>
 #include <filesystem>
 #include <map>
 #include <memory>
+#include <optional>
 #include <string>
+#include <string_view>
+#include <utility>
 #include <vector>
 
 #include "stage/analyses.hpp"
@@ -24,6 +28,11 @@ struct ReadOptions {
   // command's --set NAME=VALUE; errors name "--set").
   std::map<std::string, double> overrides;
   std::map<std::string, std::string> written_overrides;
+  // The largest file read, in bytes (the main file and each include alone):
+  // a guard against reading something that is no circuit description.
+  // Reading takes several times a file's size in memory. At most 2 GiB - 1,
+  // as offsets in the text are ints. The command's --max-file-size.
+  std::uintmax_t max_file_size = std::uintmax_t{1} << 30;
 };
 
 // The model search path: $STAGE_MODEL_PATH (colon-separated) then the
@@ -31,6 +40,62 @@ struct ReadOptions {
 std::vector<std::filesystem::path> default_model_path();
 
 class SyntaxTree;  // reader-internal
+
+// Where each element ("<name>") and model ("model <name>") of a deck was
+// written, looked up as in a std::map of subjects to locations, but kept in
+// a few dozen bytes a subject (a large circuit has millions of elements): the
+// line and column are worked out from the file's text when asked for.
+class Places {
+ public:
+  using value_type = std::pair<const std::string, SourceLocation>;
+
+  // A found subject and its location, or end().
+  class const_iterator {
+   public:
+    const value_type& operator*() const { return *found_; }
+    const value_type* operator->() const { return &*found_; }
+    bool operator==(const const_iterator& other) const {
+      return found_.has_value() == other.found_.has_value() &&
+             (!found_ || found_->first == other.found_->first);
+    }
+
+   private:
+    friend class Places;
+    std::optional<value_type> found_;
+  };
+
+  // Internal: places in the files of `tree`.
+  explicit Places(std::shared_ptr<const SyntaxTree> tree = nullptr) : tree_(std::move(tree)) {}
+
+  const_iterator find(const std::string& subject) const;
+  const_iterator end() const { return {}; }
+  std::size_t count(const std::string& subject) const { return find(subject) == end() ? 0 : 1; }
+  std::size_t size() const { return entries_.size(); }
+  bool empty() const { return entries_.empty(); }
+
+  // Internal, for the reader. Makes room for `count` subjects in all, whose
+  // names take `name_bytes` with one more each.
+  void reserve(std::size_t count, std::size_t name_bytes);
+  // Records that `subject`, not recorded before, was written at `offset` in
+  // the tree's file number `file`.
+  void add(std::string_view subject, int file, int offset);
+
+ private:
+  struct Entry {
+    std::uint32_t name;  // offset of the subject in names_
+    int file;
+    int offset;
+  };
+  // The names index_ reads.
+  auto names() const {
+    return [this](std::size_t k) { return std::string_view(names_.data() + entries_[k].name); };
+  }
+
+  std::shared_ptr<const SyntaxTree> tree_;
+  std::string names_;  // the subjects, each ended by a NUL
+  std::vector<Entry> entries_;
+  detail::NameIndex index_;
+};
 
 // A read circuit description.
 class Deck {
@@ -41,7 +106,7 @@ class Deck {
   std::filesystem::path file;
   // Where each element ("<name>") and model ("model <name>") was written,
   // for problems found after reading (Problem::subject names them).
-  std::map<std::string, SourceLocation> places;
+  Places places;
 
   // The circuit elaborated again with one `let` parameter set to `value`
   // (parameter sweeps, which keep `solver` as read). Throws InputError if

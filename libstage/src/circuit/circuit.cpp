@@ -5,32 +5,36 @@
 
 namespace stage {
 
+void Circuit::reserve(std::size_t count) {
+  elements_.reserve(count);
+  index_.rebuild(elements_.size(), names(), count);
+}
+
 Circuit& Circuit::add(std::string name, ElementData data) {
-  if (index_.count(name) != 0) {
+  if (find(name) != nullptr) {
     throw Error(ErrorKind::invalid_request, "element '" + name + "' is already defined", {name});
   }
-  index_.emplace(name, elements_.size());
   elements_.push_back({std::move(name), std::move(data)});
+  index_.added(elements_.size() - 1, elements_.size(), names());
   return *this;
 }
 
 bool Circuit::remove(const std::string& name) {
-  const auto it = index_.find(name);
-  if (it == index_.end()) return false;
-  elements_.erase(elements_.begin() + static_cast<std::ptrdiff_t>(it->second));
-  index_.clear();
-  for (std::size_t k = 0; k < elements_.size(); ++k) index_.emplace(elements_[k].name, k);
+  const std::optional<std::size_t> at = index_.find(name, names());
+  if (!at) return false;
+  elements_.erase(elements_.begin() + static_cast<std::ptrdiff_t>(*at));
+  index_.rebuild(elements_.size(), names(), elements_.size());
   return true;
 }
 
 const Element* Circuit::find(const std::string& name) const {
-  auto it = index_.find(name);
-  return it == index_.end() ? nullptr : &elements_[it->second];
+  const std::optional<std::size_t> at = index_.find(name, names());
+  return at ? &elements_[*at] : nullptr;
 }
 
 Element* Circuit::find(const std::string& name) {
-  auto it = index_.find(name);
-  return it == index_.end() ? nullptr : &elements_[it->second];
+  const std::optional<std::size_t> at = index_.find(name, names());
+  return at ? &elements_[*at] : nullptr;
 }
 
 }  // namespace stage

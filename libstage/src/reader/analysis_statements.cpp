@@ -19,24 +19,18 @@ namespace x3 = boost::spirit::x3;
 namespace {
 // A sweep longer than this is surely a mistaken step.
 constexpr double kMaxSweepPoints = 1e6;
-
-std::vector<std::string> keys(const auto& map) {
-  std::vector<std::string> names;
-  for (const auto& entry : map) names.push_back(entry.first);
-  return names;
-}
 }  // namespace
 
 std::string Elaborator::existing_element(const ast::Expr& e, const File& file,
                                          bool source_only) const {
   const std::string name = require_name(e, "an element name", file.source);
-  const auto it = element_kinds_.find(name);
-  if (it == element_kinds_.end()) {
-    file.source.fail(ast::offset_of(e), "no element named '" + name + "'" +
-                                            reader::suggestion(name, keys(element_kinds_)));
+  const std::optional<std::string_view> kind = kind_of(name);
+  if (!kind) {
+    file.source.fail(ast::offset_of(e),
+                     "no element named '" + name + "'" + reader::suggestion(name, element_names()));
   }
-  if (source_only && it->second != "voltage" && it->second != "current") {
-    file.source.fail(ast::offset_of(e), "'" + name + "' is a " + it->second +
+  if (source_only && *kind != "voltage" && *kind != "current") {
+    file.source.fail(ast::offset_of(e), "'" + name + "' is a " + std::string(*kind) +
                                             "; expected a voltage or current source");
   }
   return name;
@@ -46,10 +40,9 @@ SignalRef Elaborator::signal(const ast::Expr& e, const File& file) const {
   const ast::Expr& inner = ast::unwrap(e);
   const auto known_node = [&](const ast::Expr& n) {
     const std::string name = require_name(n, "a node name", file.source);
-    if (name != kGround && !nodes_.count(name)) {
-      const std::vector<std::string> all(nodes_.begin(), nodes_.end());
+    if (name != kGround && !has_node(name)) {
       file.source.fail(ast::offset_of(n),
-                       "no node named '" + name + "'" + reader::suggestion(name, all));
+                       "no node named '" + name + "'" + reader::suggestion(name, node_names()));
     }
     return name;
   };
@@ -63,9 +56,9 @@ SignalRef Elaborator::signal(const ast::Expr& e, const File& file) const {
   const std::string suffix = ".current";
   if (name.size() > suffix.size() && name.ends_with(suffix)) {
     const std::string element = name.substr(0, name.size() - suffix.size());
-    if (!element_kinds_.count(element)) {
+    if (!kind_of(element)) {
       file.source.fail(ast::offset_of(e), "no element named '" + element + "'" +
-                                              reader::suggestion(element, keys(element_kinds_)));
+                                              reader::suggestion(element, element_names()));
     }
     return SignalRef::current(element);
   }
@@ -81,7 +74,7 @@ struct AnalysisReading {
   const ast::Call& call;
   const reader::SourceText& source;
   const reader::Scope& globals;
-  const std::map<std::string, std::string>& element_kinds;  // element name -> kind
+  const Circuit& circuit;
   std::function<double(const BoundArguments&, std::string_view, Quantity, double)> value;
   std::function<std::string(const ast::Expr&, bool source_only)> element;
   std::function<SignalRef(const ast::Expr&)> signal;
@@ -134,8 +127,8 @@ SweepTarget sweep_target(const AnalysisReading& r, const BoundArguments& args,
   if (const ast::Expr* s = args.get("source")) {
     sweep.target = SweepOptions::Target::source;
     sweep.name = r.element(*s, true);
-    return {r.element_kinds.at(sweep.name) == "voltage" ? Quantity::voltage : Quantity::current,
-            true};
+    const bool voltage = std::holds_alternative<VoltageSource>(r.circuit.find(sweep.name)->data);
+    return {voltage ? Quantity::voltage : Quantity::current, true};
   }
   const ast::Expr* p = args.get("parameter");
   sweep.target = SweepOptions::Target::parameter;
@@ -330,7 +323,7 @@ void Elaborator::analysis(const ast::Analyze& analyze, const File& file) {
       analyze.call,
       file.source,
       globals_,
-      element_kinds_,
+      deck_.circuit,
       [&](const BoundArguments& args, std::string_view slot, Quantity q, double fallback) {
         return value(args, slot, q, frame, fallback);
       },

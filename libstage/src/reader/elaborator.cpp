@@ -24,6 +24,7 @@ Deck elaborate(std::shared_ptr<const SyntaxTree> tree, const ReadOptions& option
   deck.options = options;
   deck.tree = tree;
   deck.file = tree->files.front().source.file_name();
+  deck.places = Places(tree);
   Elaborator(*tree, deck.options, deck).run();
   return deck;
 }
@@ -38,7 +39,9 @@ void Elaborator::fail(const Frame& frame, int offset, const std::string& message
 void Elaborator::run() {
   const File& main = tree_.files.front();
   collect_blocks(main);
-  statements(main.ast.statements, Frame{&main, "", {}, &globals_, {}});
+  deck_.circuit.reserve(tree_.instances);
+  deck_.places.reserve(tree_.instances, tree_.instance_name_bytes);
+  file_statements(main);
   check_references();
   std::vector<std::string> overridden;
   for (const auto& [name, value] : options_.overrides) overridden.push_back(name);
@@ -51,12 +54,12 @@ void Elaborator::run() {
                                             reader::suggestion(name, lets));
     }
   }
-  for (const auto& [file, analyze] : analyses_) analysis(*analyze, *file);
+  for (const auto& [file, analyze] : analyses_) analysis(analyze, *file);
 }
 
 // Blocks may be used before they are defined, so they are gathered first.
 void Elaborator::collect_blocks(const File& file) {
-  for (const ast::Statement& statement : file.ast.statements) {
+  for (const ast::Statement& statement : file.blocks_and_includes) {
     if (const auto* b = boost::get<x3::forward_ast<ast::Block>>(&statement)) {
       const ast::Block& block = b->get();
       const std::vector<std::string> keywords = kinds::keywords();
@@ -79,53 +82,62 @@ void Elaborator::collect_blocks(const File& file) {
   }
 }
 
+// A file's statements are parsed again here one at a time (the loader
+// checked their syntax) and dropped once elaborated.
+void Elaborator::file_statements(const File& file) {
+  const Frame frame{&file, "", {}, &globals_, {}};
+  reader::StatementStream stream(file.source);
+  while (const std::optional<ast::Statement> statement = stream.next()) {
+    this->statement(*statement, frame);
+  }
+}
+
 void Elaborator::statements(const std::vector<ast::Statement>& list, const Frame& frame) {
+  for (const ast::Statement& statement : list) this->statement(statement, frame);
+}
+
+void Elaborator::statement(const ast::Statement& statement, const Frame& frame) {
   const bool top = frame.blocks.empty();
   // Lets inside a block instance are local to it.
   reader::Scope& scope = *frame.scope;
-  for (const ast::Statement& statement : list) {
-    const int at = ast::offset_of(statement);
-    const auto top_only = [&](const char* what) {
-      if (!top) fail(frame, at, std::string(what) + " is not allowed inside a block");
-    };
-    if (const auto* title = boost::get<ast::Title>(&statement)) {
-      top_only("title");
-      if (have_title_) fail(frame, at, "the title is given twice");
-      have_title_ = true;
-      deck_.circuit.title = title->text;
-    } else if (const auto* l = boost::get<ast::Let>(&statement)) {
-      let(*l, frame, scope);
-    } else if (const auto* include = boost::get<ast::Include>(&statement)) {
-      top_only("include");
-      const int index = frame.file->includes.at(include->offset);
-      if (index >= 0) {
-        const File& file = tree_.files[index];
-        statements(file.ast.statements, Frame{&file, "", {}, &globals_, {}});
-      }
-    } else if (const auto* t = boost::get<ast::Temperature>(&statement)) {
-      top_only("temperature");
-      const double kelvin =
-          reader::evaluate_as(t->value, Quantity::temperature, scope, frame.file->source);
-      if (kelvin <= 0) fail(frame, ast::offset_of(t->value), "the temperature must be above 0 K");
-      deck_.circuit.temperature = kelvin;
-    } else if (const auto* s = boost::get<ast::Solver>(&statement)) {
-      top_only("solver");
-      solver(*s, frame);
-    } else if (const auto* m = boost::get<ast::Model>(&statement)) {
-      top_only("model");
-      model(*m, frame);
-    } else if (const auto* a = boost::get<ast::Analyze>(&statement)) {
-      top_only("analyze");
-      analyses_.emplace_back(frame.file, a);
-    } else if (const auto* instance = boost::get<ast::Instance>(&statement)) {
-      if (blocks_.count(instance->call.name)) {
-        instantiate_block(*instance, frame);
-      } else {
-        element(*instance, frame);
-      }
+  const int at = ast::offset_of(statement);
+  const auto top_only = [&](const char* what) {
+    if (!top) fail(frame, at, std::string(what) + " is not allowed inside a block");
+  };
+  if (const auto* title = boost::get<ast::Title>(&statement)) {
+    top_only("title");
+    if (have_title_) fail(frame, at, "the title is given twice");
+    have_title_ = true;
+    deck_.circuit.title = title->text;
+  } else if (const auto* l = boost::get<ast::Let>(&statement)) {
+    let(*l, frame, scope);
+  } else if (const auto* include = boost::get<ast::Include>(&statement)) {
+    top_only("include");
+    const int index = frame.file->includes.at(include->offset);
+    if (index >= 0) file_statements(tree_.files[index]);
+  } else if (const auto* t = boost::get<ast::Temperature>(&statement)) {
+    top_only("temperature");
+    const double kelvin =
+        reader::evaluate_as(t->value, Quantity::temperature, scope, frame.file->source);
+    if (kelvin <= 0) fail(frame, ast::offset_of(t->value), "the temperature must be above 0 K");
+    deck_.circuit.temperature = kelvin;
+  } else if (const auto* s = boost::get<ast::Solver>(&statement)) {
+    top_only("solver");
+    solver(*s, frame);
+  } else if (const auto* m = boost::get<ast::Model>(&statement)) {
+    top_only("model");
+    model(*m, frame);
+  } else if (const auto* a = boost::get<ast::Analyze>(&statement)) {
+    top_only("analyze");
+    analyses_.emplace_back(frame.file, *a);
+  } else if (const auto* instance = boost::get<ast::Instance>(&statement)) {
+    if (blocks_.count(instance->call.name)) {
+      instantiate_block(*instance, frame);
+    } else {
+      element(*instance, frame);
     }
-    // Block definitions were gathered by collect_blocks().
   }
+  // Block definitions were gathered by collect_blocks().
 }
 
 void Elaborator::let(const ast::Let& let, const Frame& frame, reader::Scope& scope) {
@@ -235,6 +247,7 @@ void Elaborator::instantiate_block(const ast::Instance& instance, const Frame& f
   inner.blocks.push_back(block->name);
   for (const ast::Name& port : block->ports) {
     inner.ports[port.text] = node(*args.get(port.text), frame);
+    port_nodes_.insert(inner.ports[port.text]);
   }
   // Defaults are read in the file's scope, values given here in the caller's.
   reader::Scope scope(&globals_);
@@ -245,10 +258,10 @@ void Elaborator::instantiate_block(const ast::Instance& instance, const Frame& f
   }
   inner.scope = &scope;
   const std::string name = element_name(instance.name, frame);
-  if (element_kinds_.count(name)) {
+  if (kind_of(name)) {
     fail(frame, instance.offset, "an element or instance named '" + name + "' already exists");
   }
-  element_kinds_[name] = "block";
+  block_instances_.insert(name);
   statements(block->body, inner);
 }
 
@@ -271,8 +284,41 @@ std::string Elaborator::node(const ast::Expr& e, const Frame& frame) {
   } else {
     global = frame.prefix + name;
   }
-  nodes_.insert(global);
   return global;
+}
+
+std::optional<std::string_view> Elaborator::kind_of(const std::string& name) const {
+  if (const Element* e = deck_.circuit.find(name)) return kinds::keyword(e->data);
+  if (block_instances_.count(name)) return "block";
+  return std::nullopt;
+}
+
+std::vector<std::string> Elaborator::element_names() const {
+  std::vector<std::string> names(block_instances_.begin(), block_instances_.end());
+  for (const Element& e : deck_.circuit.elements()) names.push_back(e.name);
+  std::sort(names.begin(), names.end());
+  return names;
+}
+
+// Nodes are not kept aside while elements are read (a large circuit has
+// millions): the few that analyses name are looked for in the elements (and
+// among the nodes given to block ports, which an element may not use).
+bool Elaborator::has_node(const std::string& name) const {
+  if (port_nodes_.count(name)) return true;
+  for (const Element& e : deck_.circuit.elements()) {
+    for (const std::string& node : kinds::nodes(e.data)) {
+      if (node == name) return true;
+    }
+  }
+  return false;
+}
+
+std::vector<std::string> Elaborator::node_names() const {
+  std::set<std::string> nodes = port_nodes_;
+  for (const Element& e : deck_.circuit.elements()) {
+    for (std::string& node : kinds::nodes(e.data)) nodes.insert(std::move(node));
+  }
+  return {nodes.begin(), nodes.end()};
 }
 
 // `sense = name`: an element's current or `<element>.<terminal>` (spec

@@ -57,7 +57,9 @@ class Elaborator {
 
   // elaborator.cpp: the walk over statements.
   void collect_blocks(const File& file);
+  void file_statements(const File& file);
   void statements(const std::vector<ast::Statement>& list, const Frame& frame);
+  void statement(const ast::Statement& statement, const Frame& frame);
   void let(const ast::Let& let, const Frame& frame, reader::Scope& scope);
   void solver(const ast::Solver& solver, const Frame& frame);
   reader::Value written_override(const std::string& name, const std::string& text,
@@ -67,7 +69,17 @@ class Elaborator {
   void check_sensed(const Reference& r) const;
   std::string node(const ast::Expr& e, const Frame& frame);
   std::string element_name(const std::string& local, const Frame& frame) const;
+  // The keyword an element or block instance was written with ("resistor",
+  // "npn", "block"), or nothing when there is none of that name.
+  std::optional<std::string_view> kind_of(const std::string& name) const;
+  // Every element and block instance name, sorted (for suggestions).
+  std::vector<std::string> element_names() const;
+  // Whether an element has the node (looked for only by analyses).
+  bool has_node(const std::string& name) const;
+  std::vector<std::string> node_names() const;
   [[noreturn]] void fail(const Frame& frame, int offset, const std::string& message) const;
+  // The number of a file in the tree (for Deck::places).
+  int index_of(const File& file) const { return static_cast<int>(&file - tree_.files.data()); }
 
   // elements.cpp: element statements, read through their kind's descriptor.
   void element(const ast::Instance& instance, const Frame& frame);
@@ -97,10 +109,10 @@ class Elaborator {
   std::set<std::string> used_overrides_;
   std::map<std::string, std::pair<const File*, const ast::Block*>> blocks_;
   std::map<std::string, ModelEntry> models_;
-  std::map<std::string, std::string> element_kinds_;  // element name -> kind
-  std::set<std::string> nodes_;
+  std::set<std::string> block_instances_;  // their hierarchical names
+  std::set<std::string> port_nodes_;       // nodes given to block ports
   std::vector<Reference> references_;
-  std::vector<std::pair<const File*, const ast::Analyze*>> analyses_;
+  std::vector<std::pair<const File*, ast::Analyze>> analyses_;  // read last
   bool have_title_ = false;
 };
 

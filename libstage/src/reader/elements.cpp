@@ -5,6 +5,7 @@
 
 #include "reader/elaborator.hpp"
 #include "reader/suggest.hpp"
+#include "stage/errors.hpp"
 
 namespace stage::elaborate {
 
@@ -33,12 +34,19 @@ void Elaborator::element(const ast::Instance& instance, const Frame& frame) {
     source.fail(instance.call.offset, "unknown element kind or block '" + keyword + "'" +
                                           reader::suggestion(keyword, names));
   }
-  if (element_kinds_.count(name)) {
+  const auto taken = [&] {
     source.fail(instance.offset, "an element named '" + name + "' already exists");
+  };
+  if (block_instances_.count(name)) taken();
+  // The circuit looks the name up once, as it adds (a large circuit's index
+  // is costly to probe twice).
+  try {
+    deck_.circuit.add(name, std::move(*data));
+  } catch (const Error& e) {
+    if (e.kind() != ErrorKind::invalid_request) throw;
+    taken();
   }
-  element_kinds_[name] = keyword;
-  deck_.places[name] = source.location(instance.offset);
-  deck_.circuit.add(name, std::move(*data));
+  deck_.places.add(name, index_of(*frame.file), instance.offset);
 }
 
 // Reads each argument into its field, checking a value against its field's

@@ -1,6 +1,6 @@
 // Expression evaluation over the syntax tree. Errors point at the operator,
 // name or number at fault. Recursion is bounded because the grammar only
-// nests through brackets, whose depth prepare_for_grammar() limits.
+// nests through brackets, whose depth SourceText limits.
 #include "reader/expression.hpp"
 
 #include <cerrno>

@@ -1,6 +1,6 @@
 // The whole Boost.Spirit X3 grammar of the language, kept in this one
 // translation unit because X3 is slow to compile. Statements end at a newline.
-// The grammar reads the text prepared by prepare_for_grammar(), where comments
+// The grammar reads the text as SourceText prepares it, where comments
 // are blanks and the newlines inside ( ) and { } are form feeds, so one
 // skipper (blanks and form feeds) serves everywhere; switching skippers inside
 // recursive rules would make X3 nest contexts without end. A number's unit
@@ -10,15 +10,14 @@
 #include "reader/grammar.hpp"
 
 #include <boost/fusion/include/adapt_struct.hpp>
+#include <boost/fusion/include/at_c.hpp>
 #include <boost/spirit/home/x3.hpp>
 #include <cctype>
 #include <string>
 
 BOOST_FUSION_ADAPT_STRUCT(stage::ast::Argument, key, value)
 BOOST_FUSION_ADAPT_STRUCT(stage::ast::Call, name, arguments)
-BOOST_FUSION_ADAPT_STRUCT(stage::ast::Unary, signs, operand)
 BOOST_FUSION_ADAPT_STRUCT(stage::ast::Operation, op, operand)
-BOOST_FUSION_ADAPT_STRUCT(stage::ast::Chain, first, rest)
 BOOST_FUSION_ADAPT_STRUCT(stage::ast::Let, name, value)
 BOOST_FUSION_ADAPT_STRUCT(stage::ast::Instance, name, call)
 BOOST_FUSION_ADAPT_STRUCT(stage::ast::Model, name, base, parameters)
@@ -78,6 +77,26 @@ const auto matched_text = [](auto& context) {
   x3::_val(context).offset = offset_at(x3::_attr(context).begin(), context);
 };
 
+// An expression level is its first operand alone when no operator follows
+// (no wrapper nodes for the plain values that most arguments are), else a
+// Chain of that operand and the operations after it.
+const auto operand = [](auto& context) { x3::_val(context) = std::move(x3::_attr(context)); };
+const auto chained = [](auto& context) {
+  ast::Chain chain;
+  chain.offset = ast::offset_of(x3::_val(context));
+  chain.first = std::move(x3::_val(context));
+  chain.rest = std::move(x3::_attr(context));
+  x3::_val(context) = x3::forward_ast<ast::Chain>(std::move(chain));
+};
+// Leading signs and what they apply to.
+const auto signed_operand = [](auto& context) {
+  ast::Unary unary;
+  unary.offset = offset_at(x3::_where(context).begin(), context);
+  unary.signs = std::move(boost::fusion::at_c<0>(x3::_attr(context)));
+  unary.operand = std::move(boost::fusion::at_c<1>(x3::_attr(context)));
+  x3::_val(context) = x3::forward_ast<ast::Unary>(std::move(unary));
+};
+
 auto keyword(const char* word) { return lexeme[lit(word) >> !(alnum | '_')]; }
 
 // Letters and the non-ASCII symbols that units use: µ μ Ω Ω °.
@@ -91,12 +110,12 @@ x3::rule<class identifier_r, std::string> const identifier = "a name";
 x3::rule<struct number_r, ast::Number> const number = "a number";
 x3::rule<struct name_r, ast::Name> const name = "a name";
 x3::rule<struct expression_r, ast::Expr> const expression = "an expression";
-x3::rule<struct additive_r, ast::Chain> const additive = "an expression";
+x3::rule<struct additive_r, ast::Expr> const additive = "an expression";
 x3::rule<struct add_operation_r, ast::Operation> const add_operation = "'+' or '-'";
-x3::rule<struct multiplicative_r, ast::Chain> const multiplicative = "an expression";
+x3::rule<struct multiplicative_r, ast::Expr> const multiplicative = "an expression";
 x3::rule<struct mul_operation_r, ast::Operation> const mul_operation = "'*' or '/'";
-x3::rule<struct unary_r, ast::Unary> const unary = "an expression";
-x3::rule<struct power_r, ast::Chain> const power = "an expression";
+x3::rule<struct unary_r, ast::Expr> const unary = "an expression";
+x3::rule<struct power_r, ast::Expr> const power = "an expression";
 x3::rule<struct power_operation_r, ast::Operation> const power_operation = "'^'";
 x3::rule<struct primary_r, ast::Expr> const primary = "a value";
 x3::rule<struct tuple_r, ast::Tuple> const tuple = "a parenthesised list";
@@ -127,10 +146,10 @@ x3::rule<struct block_body_r, std::vector<ast::Statement>> const block_body = "b
 x3::rule<class line_end_r> const line_end = "the end of the statement";
 x3::rule<class statement_end_r> const statement_end = "the end of the statement";
 x3::rule<class block_end_r> const block_end = "a statement, or 'end' to close the block";
-x3::rule<class input_end_r> const input_end =
+// What was expected where no statement could be read.
+constexpr const char* kAnyStatement =
     "a statement (title, let, include, temperature, solver, model, block, analyze, "
     "or name = kind(…))";
-x3::rule<struct file_r, std::vector<ast::Statement>> const file = "a circuit description";
 
 const auto identifier_def = lexeme[(alpha | char_('_')) >> *(alnum | char_('_'))];
 const auto number_def =
@@ -138,12 +157,12 @@ const auto number_def =
 const auto name_def = raw[lexeme[name_chars >> -('.' >> name_chars)]][matched_text];
 
 const auto expression_def = additive;
-const auto additive_def = multiplicative >> *add_operation;
+const auto additive_def = multiplicative[operand] >> -(+add_operation)[chained];
 const auto add_operation_def = char_("+-") >> multiplicative;
-const auto multiplicative_def = unary >> *mul_operation;
+const auto multiplicative_def = unary[operand] >> -(+mul_operation)[chained];
 const auto mul_operation_def = char_("*/") >> unary;
-const auto unary_def = *char_("+-") >> power;
-const auto power_def = primary >> *power_operation;
+const auto unary_def = (+char_("+-") >> power)[signed_operand] | power[operand];
+const auto power_def = primary[operand] >> -(+power_operation)[chained];
 const auto power_operation_def = char_('^') >> unary;
 const auto primary_def = number | call | name | tuple;
 const auto tuple_def = mark >>
@@ -180,15 +199,13 @@ const auto statement_def =
 const auto statement_line_def = statement > statement_end;
 const auto statement_end_def = line_end >> *eol;
 const auto line_end_def = eol | eoi;
-const auto input_end_def = eoi;
-const auto file_def = *eol >> *statement_line > input_end;
 
 BOOST_SPIRIT_DEFINE(identifier, number, name, expression, additive, add_operation, multiplicative,
                     mul_operation, unary, power, power_operation, primary, tuple, call, arguments,
                     argument, keyed_argument, positional_argument, quoted, title, let, include,
                     temperature, solver, instance, model, model_body, analyze, block, ports,
                     defaults, statement, statement_line, statement_end, block_body, line_end,
-                    block_end, input_end, file)
+                    block_end)
 
 #define STAGE_ANNOTATE(r) \
   struct r : annotate {};
@@ -224,7 +241,6 @@ STAGE_ANNOTATE(defaults_r)
 STAGE_ANNOTATE(statement_r)
 STAGE_ANNOTATE(statement_line_r)
 STAGE_ANNOTATE(block_body_r)
-STAGE_ANNOTATE(file_r)
 #undef STAGE_ANNOTATE
 
 }  // namespace grammar
@@ -271,24 +287,46 @@ std::string parse_hint(const std::string& text, int offset, const std::string& e
 
 }  // namespace
 
-ast::File parse(const SourceText& source) {
+StatementStream::StatementStream(const SourceText& source)
+    : source_(source), first_(source.text().data()) {}
+
+std::optional<ast::Statement> StatementStream::next() {
   namespace x3 = boost::spirit::x3;
-  const std::string text = prepare_for_grammar(source);
+  const std::string& text = source_.text();
   const char* const begin = text.data();
-  const char* first = begin;
   const char* const last = begin + text.size();
-  ast::File result;
-  try {
-    x3::parse(first, last,
-              x3::with<grammar::begin_tag>(
-                  begin)[x3::skip(x3::ascii::blank | x3::lit('\f'))[grammar::file]],
-              result.statements);
-  } catch (const x3::expectation_failure<const char*>& failure) {
+  const auto skipper = x3::ascii::blank | x3::lit('\f');
+  const auto fail_at = [&](const char* at, const std::string& expected) {
     // Point at what was found, not at the blanks before it.
-    const char* at = failure.where();
     while (at < last && (*at == ' ' || *at == '\t' || *at == '\f')) ++at;
     const int offset = static_cast<int>(at - begin);
-    source.fail(offset, "expected " + failure.which() + parse_hint(text, offset, failure.which()));
+    source_.fail(offset, "expected " + expected + parse_hint(text, offset, expected));
+  };
+  // The blank lines before the first statement (statement_line eats those
+  // after each one), then the end of the text or one statement.
+  x3::phrase_parse(first_, last, *x3::eol, skipper);
+  if (const char* end = first_; x3::phrase_parse(end, last, x3::eoi, skipper)) {
+    first_ = end;
+    return std::nullopt;
+  }
+  ast::Statement statement;
+  try {
+    if (!x3::parse(first_, last,
+                   x3::with<grammar::begin_tag>(begin)[x3::skip(skipper)[grammar::statement_line]],
+                   statement)) {
+      fail_at(first_, grammar::kAnyStatement);
+    }
+  } catch (const x3::expectation_failure<const char*>& failure) {
+    fail_at(failure.where(), failure.which());
+  }
+  return statement;
+}
+
+ast::File parse(const SourceText& source) {
+  ast::File result;
+  StatementStream stream(source);
+  while (std::optional<ast::Statement> statement = stream.next()) {
+    result.statements.push_back(std::move(*statement));
   }
   return result;
 }

@@ -6,6 +6,7 @@
 #include <algorithm>
 #include <cstdlib>
 #include <fstream>
+#include <limits>
 #include <sstream>
 
 #include "reader/elaborator.hpp"
@@ -14,19 +15,29 @@
 namespace stage {
 
 namespace fs = std::filesystem;
+namespace x3 = boost::spirit::x3;
 
 namespace {
 
 // Includes deeper than this are a mistake even without a cycle.
 constexpr std::size_t kMaxIncludeDepth = 32;
-// Far beyond any hand-written circuit; keeps offsets in an int.
-constexpr std::uintmax_t kMaxFileSize = 64u << 20;
+// Offsets in the text are ints.
+constexpr std::uintmax_t kLargestReadable = std::numeric_limits<int>::max();
 
-std::string read_whole(const fs::path& path, const SourceLocation& from) {
+std::string read_whole(const fs::path& path, const SourceLocation& from,
+                       const ReadOptions& options) {
   std::error_code ec;
   const auto size = fs::file_size(path, ec);
-  if (!ec && size > kMaxFileSize) {
-    throw InputError(from, "the file '" + path.string() + "' is too large to be a circuit");
+  if (!ec && size > kLargestReadable) {
+    throw InputError(from, "the file '" + path.string() +
+                               "' is larger than 2 GiB, the most a circuit file can be");
+  }
+  if (!ec && size > options.max_file_size) {
+    const auto mib = [](std::uintmax_t bytes) { return std::to_string(bytes >> 20); };
+    throw InputError(from, "the file '" + path.string() + "' (" + mib(size) +
+                               " MiB) is larger than the limit of " + mib(options.max_file_size) +
+                               " MiB for a circuit file; raise it with --max-file-size MiB "
+                               "(ReadOptions::max_file_size)");
   }
   std::ifstream in(path, std::ios::binary);
   if (!in || fs::is_directory(path, ec)) {
@@ -39,7 +50,7 @@ std::string read_whole(const fs::path& path, const SourceLocation& from) {
 
 class Loader {
  public:
-  Loader(SyntaxTree& tree, const ReadOptions& options) : tree_(tree) {
+  Loader(SyntaxTree& tree, const ReadOptions& options) : tree_(tree), options_(options) {
     // The caller's folders first, then the defaults; a folder named twice
     // (a caller that passes the defaults itself) is searched once.
     for (const auto& list : {options.model_path, default_model_path()}) {
@@ -50,19 +61,31 @@ class Loader {
     }
   }
 
-  // Parses one file and, depth first, everything it includes.
+  // Parses one file, keeping its blocks and includes, then, depth first,
+  // everything it includes.
   int load(fs::path path, std::string text) {
     const fs::path key = fs::weakly_canonical(path);
     const int index = static_cast<int>(tree_.files.size());
     tree_.files.push_back({reader::SourceText(path.string(), std::move(text)), {}, {}});
-    tree_.files[index].ast = reader::parse(tree_.files[index].source);
+    std::vector<ast::Include> includes;
+    {
+      reader::StatementStream stream(tree_.files[index].source);
+      while (std::optional<ast::Statement> statement = stream.next()) {
+        if (const auto* include = boost::get<ast::Include>(&*statement))
+          includes.push_back(*include);
+        if (const auto* instance = boost::get<ast::Instance>(&*statement)) {
+          ++tree_.instances;
+          tree_.instance_name_bytes += instance->name.size() + 1;
+        }
+        if (boost::get<ast::Include>(&*statement) ||
+            boost::get<x3::forward_ast<ast::Block>>(&*statement)) {
+          tree_.files[index].blocks_and_includes.push_back(std::move(*statement));
+        }
+      }
+    }
     chain_.push_back(key);
     loaded_.insert(key);
-    // Indexing again after each load: nested loads grow `files`.
-    for (std::size_t i = 0; i < tree_.files[index].ast.statements.size(); ++i) {
-      const auto* include = boost::get<ast::Include>(&tree_.files[index].ast.statements[i]);
-      if (include) resolve(index, *include, path.parent_path());
-    }
+    for (const ast::Include& include : includes) resolve(index, include, path.parent_path());
     chain_.pop_back();
     return index;
   }
@@ -96,7 +119,7 @@ class Loader {
         tree_.files[from].includes[include.offset] = -1;
         return;
       }
-      std::string text = read_whole(candidate, source.location(include.offset));
+      std::string text = read_whole(candidate, source.location(include.offset), options_);
       const int index = load(candidate, std::move(text));
       tree_.files[from].includes[include.offset] = index;
       return;
@@ -107,6 +130,7 @@ class Loader {
   }
 
   SyntaxTree& tree_;
+  const ReadOptions& options_;
   std::vector<fs::path> search_;
   std::vector<fs::path> chain_;
   std::set<fs::path> loaded_;
@@ -137,11 +161,33 @@ std::vector<fs::path> default_model_path() {
 }
 
 Deck read_file(const fs::path& path, const ReadOptions& options) {
-  return read(path, read_whole(path, {path.string(), 0, 0}), options);
+  return read(path, read_whole(path, {path.string(), 0, 0}, options), options);
 }
 
 Deck read_text(const std::string& text, const std::string& file_name, const ReadOptions& options) {
   return read(file_name, text, options);
+}
+
+Places::const_iterator Places::find(const std::string& subject) const {
+  const_iterator it;
+  if (const std::optional<std::size_t> at = index_.find(subject, names())) {
+    const Entry& e = entries_[*at];
+    it.found_.emplace(subject, tree_->files[e.file].source.location(e.offset));
+  }
+  return it;
+}
+
+void Places::reserve(std::size_t count, std::size_t name_bytes) {
+  entries_.reserve(count);
+  names_.reserve(name_bytes);
+  index_.rebuild(entries_.size(), names(), count);
+}
+
+void Places::add(std::string_view subject, int file, int offset) {
+  entries_.push_back({static_cast<std::uint32_t>(names_.size()), file, offset});
+  names_.append(subject);
+  names_.push_back('\0');
+  index_.added(entries_.size() - 1, entries_.size(), names());
 }
 
 std::string Deck::line_text(const SourceLocation& where) const {

@@ -1,7 +1,8 @@
 // Offsets to lines and columns, and the preparation of raw text for the
 // grammar: checks for bad UTF-8 and unbalanced or too deeply nested brackets
 // (so the grammar never recurses without bound or runs off an unclosed list),
-// blanking of comments, and newlines inside brackets turned into form feeds.
+// blanking of comments, and newlines inside brackets turned into form feeds,
+// in place, with the replaced bytes kept for messages.
 #include "reader/source_text.hpp"
 
 #include <algorithm>
@@ -10,29 +11,62 @@ namespace stage::reader {
 
 SourceText::SourceText(std::string file_name, std::string text)
     : file_name_(std::move(file_name)), text_(std::move(text)) {
-  line_starts_.push_back(0);
-  for (std::size_t i = 0; i < text_.size(); ++i) {
-    if (text_[i] == '\n') line_starts_.push_back(static_cast<int>(i + 1));
-  }
+  prepare();
 }
 
+std::string SourceText::written(int begin, int end) const {
+  std::string part = text_.substr(begin, end - begin);
+  auto run = std::partition_point(replaced_.begin(), replaced_.end(), [&](const Replaced& r) {
+    return r.offset + static_cast<int>(r.written.size()) <= begin;
+  });
+  for (; run != replaced_.end() && run->offset < end; ++run) {
+    const int from = std::max(run->offset, begin);
+    const int to = std::min(run->offset + static_cast<int>(run->written.size()), end);
+    std::copy(run->written.begin() + (from - run->offset),
+              run->written.begin() + (to - run->offset), part.begin() + (from - begin));
+  }
+  return part;
+}
+
+// Lines are counted when a message needs one (no table of line starts: a
+// large file has millions of lines and few messages). The newlines inside
+// brackets are form feeds in text_ and newlines in replaced_.
 SourceLocation SourceText::location(int offset) const {
   offset = std::clamp(offset, 0, static_cast<int>(text_.size()));
-  const auto next = std::upper_bound(line_starts_.begin(), line_starts_.end(), offset);
-  const int line = static_cast<int>(next - line_starts_.begin());
+  int line = 1 + static_cast<int>(std::count(text_.begin(), text_.begin() + offset, '\n'));
+  int begin = offset == 0 ? 0 : static_cast<int>(text_.rfind('\n', offset - 1) + 1);
+  for (const Replaced& run : replaced_) {
+    if (run.offset >= offset) break;
+    for (int k = 0; k < static_cast<int>(run.written.size()) && run.offset + k < offset; ++k) {
+      if (run.written[k] != '\n') continue;
+      ++line;
+      begin = std::max(begin, run.offset + k + 1);
+    }
+  }
   int column = 1;
-  for (int i = line_starts_[line - 1]; i < offset; ++i) {
-    if ((static_cast<unsigned char>(text_[i]) & 0xC0) != 0x80) ++column;
+  for (const char c : written(begin, offset)) {
+    if ((static_cast<unsigned char>(c) & 0xC0) != 0x80) ++column;
   }
   return {file_name_, line, column};
 }
 
 std::string SourceText::line_text(int line) const {
-  if (line < 1 || line > static_cast<int>(line_starts_.size())) return {};
-  const int begin = line_starts_[line - 1];
-  int end = begin;
-  while (end < static_cast<int>(text_.size()) && text_[end] != '\n' && text_[end] != '\r') ++end;
-  return text_.substr(begin, end - begin);
+  if (line < 1) return {};
+  // Where the line starts in the text as written, found by location().
+  int low = 0, high = static_cast<int>(text_.size());
+  while (low < high) {
+    const int middle = low + (high - low) / 2;
+    if (location(middle).line < line)
+      low = middle + 1;
+    else
+      high = middle;
+  }
+  if (location(low).line != line) return {};
+  // Up to a newline outside brackets (those inside are form feeds here).
+  const std::size_t end = std::min(text_.find('\n', low), text_.size());
+  std::string text = written(low, static_cast<int>(end));
+  text.erase(std::min(text.find_first_of("\r\n"), text.size()));
+  return text;
 }
 
 InputError SourceText::error(int offset, const std::string& message) const {
@@ -73,11 +107,20 @@ int utf8_length(const std::string& s, std::size_t i) {
 
 }  // namespace
 
-std::string prepare_for_grammar(const SourceText& source) {
+void SourceText::replace(int offset, int length, char by) {
+  if (!replaced_.empty() &&
+      replaced_.back().offset + static_cast<int>(replaced_.back().written.size()) == offset) {
+    replaced_.back().written.append(text_, offset, length);
+  } else {
+    replaced_.push_back({offset, text_.substr(offset, length)});
+  }
+  std::fill_n(text_.begin() + offset, length, by);
+}
+
+void SourceText::prepare() {
   // Deep enough for any real circuit, shallow enough for the grammar's stack.
   constexpr std::size_t kMaxNesting = 100;
-  const std::string& s = source.text();
-  std::string prepared = s;
+  const std::string& s = text_;
   struct Open {
     char bracket;
     int offset;
@@ -87,15 +130,15 @@ std::string prepare_for_grammar(const SourceText& source) {
   for (std::size_t i = 0; i < s.size();) {
     const int length = utf8_length(s, i);
     const int offset = static_cast<int>(i);
-    if (length == 0) source.fail(offset, "this byte is not valid UTF-8 text");
+    if (length == 0) fail(offset, "this byte is not valid UTF-8 text");
     const char c = s[i];
-    if (c == '\0') source.fail(offset, "a NUL character is not allowed in a circuit description");
+    if (c == '\0') fail(offset, "a NUL character is not allowed in a circuit description");
     if (c == '\n' || c == '\r') {
       in_comment = in_string = false;
-      if (!open.empty()) prepared[i] = '\f';  // skipped, but ends a number's unit
+      if (!open.empty()) replace(offset, 1, '\f');  // skipped, but ends a number's unit
     }
     if (c == '#' && !in_string) in_comment = true;
-    if (in_comment) std::fill_n(prepared.begin() + i, length, ' ');
+    if (in_comment) replace(offset, length, ' ');
     i += length;
     if (in_comment) continue;
     if (in_string) {
@@ -106,26 +149,23 @@ std::string prepare_for_grammar(const SourceText& source) {
       in_string = true;
     else if (c == '(' || c == '{') {
       if (open.size() >= kMaxNesting) {
-        source.fail(offset, "brackets nested more than " + std::to_string(kMaxNesting) + " deep");
+        fail(offset, "brackets nested more than " + std::to_string(kMaxNesting) + " deep");
       }
       open.push_back({c, offset});
     } else if (c == ')' || c == '}') {
       const char wanted = c == ')' ? '(' : '{';
-      if (open.empty()) source.fail(offset, std::string("this '") + c + "' closes nothing");
+      if (open.empty()) fail(offset, std::string("this '") + c + "' closes nothing");
       if (open.back().bracket != wanted) {
-        source.fail(offset, std::string("this '") + c + "' does not match the '" +
-                                open.back().bracket + "' at " +
-                                std::to_string(source.location(open.back().offset).line) + ":" +
-                                std::to_string(source.location(open.back().offset).column));
+        fail(offset, std::string("this '") + c + "' does not match the '" + open.back().bracket +
+                         "' at " + std::to_string(location(open.back().offset).line) + ":" +
+                         std::to_string(location(open.back().offset).column));
       }
       open.pop_back();
     }
   }
   if (!open.empty()) {
-    source.fail(open.back().offset,
-                std::string("this '") + open.back().bracket + "' is never closed");
+    fail(open.back().offset, std::string("this '") + open.back().bracket + "' is never closed");
   }
-  return prepared;
 }
 
 }  // namespace stage::reader

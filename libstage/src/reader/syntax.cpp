@@ -5,20 +5,11 @@ namespace stage::ast {
 
 const Expr& unwrap(const Expr& e, bool keep_groups) {
   const Expr* current = &e;
-  for (;;) {
-    if (const auto* chain = boost::get<x3::forward_ast<Chain>>(current)) {
-      if (!chain->get().rest.empty()) return *current;
-      current = &chain->get().first;
-    } else if (const auto* unary = boost::get<x3::forward_ast<Unary>>(current)) {
-      if (!unary->get().signs.empty()) return *current;
-      current = &unary->get().operand;
-    } else if (const auto* tuple = boost::get<x3::forward_ast<Tuple>>(current)) {
-      if (keep_groups || tuple->get().items.size() != 1) return *current;
-      current = &tuple->get().items.front();
-    } else {
-      return *current;
-    }
+  while (const auto* tuple = boost::get<x3::forward_ast<Tuple>>(current)) {
+    if (keep_groups || tuple->get().items.size() != 1) return *current;
+    current = &tuple->get().items.front();
   }
+  return *current;
 }
 
 namespace {

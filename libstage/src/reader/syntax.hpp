@@ -120,8 +120,9 @@ struct File {
   std::vector<Statement> statements;
 };
 
-// The expression itself when `e` is only wrapping (a chain with no operator,
-// signs that are absent, and unless `keep_groups`, a one-item tuple).
+// The expression inside a one-item tuple (brackets around one value), unless
+// `keep_groups`. The grammar builds no chain without an operator and no
+// unary without a sign: a plain value is the node itself.
 const Expr& unwrap(const Expr& e, bool keep_groups = false);
 int offset_of(const Expr& e);
 int offset_of(const Statement& s);
