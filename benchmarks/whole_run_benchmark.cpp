@@ -58,6 +58,7 @@ BENCHMARK(BM_WholeRun)
     ->Args({10'000, 1})
     ->Args({100'000, 0})
     ->Args({100'000, 1})
+    ->Args({1'000'000, 0})
     ->Iterations(1)
     ->Unit(benchmark::kSecond);
 BENCHMARK(BM_HeadroomFollowerExample)->Iterations(1)->Unit(benchmark::kSecond);
