@@ -37,21 +37,25 @@ std::string_view keyword(const ElementData& data) {
   });
 }
 
-std::vector<std::string> nodes(const ElementData& data) {
-  return with_descriptor(data, [](const auto& e, const auto& d) {
-    std::vector<std::string> out;
+void for_each_node(const ElementData& data, const std::function<void(const std::string&)>& visit) {
+  with_descriptor(data, [&](const auto& e, const auto& d) {
     for (const auto& f : d.fields) {
-      if (f.kind == FieldKind::terminal) out.push_back(e.*f.text);
+      if (f.kind == FieldKind::terminal) visit(e.*f.text);
       if (f.kind == FieldKind::optional_terminal && (e.*f.optional_text)) {
-        out.push_back(*(e.*f.optional_text));
+        visit(*(e.*f.optional_text));
       }
       if (f.kind == FieldKind::control_pair) {
-        out.push_back(e.*f.text);
-        out.push_back(e.*f.second);
+        visit(e.*f.text);
+        visit(e.*f.second);
       }
     }
-    return out;
   });
+}
+
+std::vector<std::string> nodes(const ElementData& data) {
+  std::vector<std::string> out;
+  for_each_node(data, [&](const std::string& node) { out.push_back(node); });
+  return out;
 }
 
 bool has_role(const ElementData& data, Role role) {

@@ -3,6 +3,7 @@
 // value. Adding a kind to ElementData without a descriptor does not compile.
 #pragma once
 
+#include <functional>
 #include <optional>
 #include <string>
 #include <string_view>
@@ -46,6 +47,8 @@ std::string_view keyword(const ElementData& data);
 // The nodes it touches, by name: its terminals in the language's order, then
 // its controlling nodes.
 std::vector<std::string> nodes(const ElementData& data);
+// The same, each handed to `visit` in place (the strings are the element's).
+void for_each_node(const ElementData& data, const std::function<void(const std::string&)>& visit);
 
 bool has_role(const ElementData& data, Role role);
 

@@ -109,14 +109,15 @@ std::optional<Problem> field_problem(const Circuit& circuit, const std::string& 
 // devices ("q1:base", and the node an ammeter inserts at "q1:collector"),
 // so a circuit node named so could be taken for one of them.
 std::optional<Problem> node_name_problem(const Element& element) {
-  for (const std::string& node : kinds::nodes(element.data)) {
-    if (node.find(':') != std::string::npos) {
-      return Problem{element.name, "'" + element.name + "' is connected to node '" + node +
-                                       "': ':' is kept for the nodes inside devices "
-                                       "(\"q1:base\"); choose a name without it"};
+  std::optional<Problem> found;
+  kinds::for_each_node(element.data, [&](const std::string& node) {
+    if (!found && node.find(':') != std::string::npos) {
+      found = Problem{element.name, "'" + element.name + "' is connected to node '" + node +
+                                        "': ':' is kept for the nodes inside devices "
+                                        "(\"q1:base\"); choose a name without it"};
     }
-  }
-  return std::nullopt;
+  });
+  return found;
 }
 
 std::optional<Problem> element_problem(const Circuit& circuit, const Element& element) {

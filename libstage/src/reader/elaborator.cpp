@@ -301,16 +301,18 @@ std::vector<std::string> Elaborator::element_names() const {
 }
 
 // Nodes are not kept aside while elements are read (a large circuit has
-// millions): the few that analyses name are looked for in the elements (and
-// among the nodes given to block ports, which an element may not use).
+// millions): the first analysis that names one indexes the elements' nodes
+// once, so that naming many costs one pass (and nodes given to block ports,
+// which an element may not use, count too).
 bool Elaborator::has_node(const std::string& name) const {
   if (port_nodes_.count(name)) return true;
-  for (const Element& e : deck_.circuit.elements()) {
-    for (const std::string& node : kinds::nodes(e.data)) {
-      if (node == name) return true;
+  if (!element_nodes_) {
+    element_nodes_.emplace();
+    for (const Element& e : deck_.circuit.elements()) {
+      kinds::for_each_node(e.data, [&](const std::string& node) { element_nodes_->insert(node); });
     }
   }
-  return false;
+  return element_nodes_->count(name) > 0;
 }
 
 std::vector<std::string> Elaborator::node_names() const {

@@ -7,9 +7,11 @@
 #pragma once
 
 #include <map>
+#include <optional>
 #include <set>
 #include <string>
 #include <string_view>
+#include <unordered_set>
 #include <vector>
 
 #include "circuit/element_kinds.hpp"
@@ -111,6 +113,9 @@ class Elaborator {
   std::map<std::string, ModelEntry> models_;
   std::set<std::string> block_instances_;  // their hierarchical names
   std::set<std::string> port_nodes_;       // nodes given to block ports
+  // Every node of the elements, made by the first analysis that names a
+  // node (after the last element: the views point into the elements).
+  mutable std::optional<std::unordered_set<std::string_view>> element_nodes_;
   std::vector<Reference> references_;
   std::vector<std::pair<const File*, ast::Analyze>> analyses_;  // read last
   bool have_title_ = false;
