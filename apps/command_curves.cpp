@@ -7,6 +7,7 @@
 
 #include <spdlog/spdlog.h>
 
+#include <algorithm>
 #include <filesystem>
 #include <fstream>
 #include <iostream>
@@ -164,6 +165,23 @@ int check(const CurvesSettings& s) {
   return status;
 }
 
+// The written model derives from the start model, so the file includes the
+// library that defines it, by a path relative to the file's own folder (the
+// reader looks there first), and reads on its own.
+std::string include_line(std::span<const stage::ModelSource> libraries, const std::string& model,
+                         const std::filesystem::path& written) {
+  namespace fs = std::filesystem;
+  for (const auto& library : libraries) {
+    const auto names = library.models.names();
+    if (std::find(names.begin(), names.end(), model) == names.end()) continue;
+    const fs::path absolute = fs::weakly_canonical(library.file);
+    const fs::path relative =
+        absolute.lexically_relative(fs::weakly_canonical(written).parent_path());
+    return "include \"" + (relative.empty() ? absolute : relative).generic_string() + "\"\n";
+  }
+  return {};
+}
+
 int fit(const CurvesSettings& s) {
   const Inputs in = read_inputs(s);
   const stage::DeviceModel start = model_for(in.curves.front(), s, in.libraries);
@@ -184,7 +202,7 @@ int fit(const CurvesSettings& s) {
     std::ofstream out(s.output);
     out << "# Fitted by `stage curves fit` to:";
     for (const auto& file : in.curve_files) out << " " << file;
-    out << "\n" << statement;
+    out << "\n" << include_line(in.libraries, name, s.output) << statement;
     if (!out) {
       throw stage::Error(stage::ErrorKind::not_written,
                          "cannot write the model file '" + s.output + "'", {s.output});

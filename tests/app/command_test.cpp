@@ -332,13 +332,12 @@ TEST(Command, CurvesFitWritesCleanOutput) {
   ASSERT_FALSE(written.empty());
   EXPECT_EQ(written.back(), '\n') << written;
   EXPECT_EQ(written.find("# ,"), std::string::npos) << written;
-  // The statement derives from small_npn, so it reads after the library
-  // that defines it; fitted back to small_npn's own curve, it passes.
-  const auto library =
-      write_temp("fitted_library.stage",
-                 "include \"transistors.stage\"\ninclude \"" + fitted.string() + "\"\n");
+  // The statement derives from small_npn, and the file includes the library
+  // that defines it, so it reads on its own; fitted back to small_npn's own
+  // curve, it passes.
+  EXPECT_NE(written.find("include \""), std::string::npos) << written;
   const auto check =
-      run("curves check " + library.string() + " " + gummel + " --model small_npn_fitted");
+      run("curves check " + fitted.string() + " " + gummel + " --model small_npn_fitted");
   EXPECT_EQ(check.status, 0) << check.out;
 }
 
