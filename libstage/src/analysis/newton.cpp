@@ -40,9 +40,15 @@ void NewtonSolver::assemble(const NewtonProblem& p, const std::vector<double>& x
       residual_[i] += p.shunt * x[i];
     }
   }
-  // Row scale: sum over the row of |J_ij x_j|, the size of the currents
-  // (voltages, heat flows) that meet in that equation, for the relative
-  // residual test.
+  scale_ready_ = false;
+}
+
+// Row scale: sum over the row of |J_ij x_j|, the size of the currents
+// (voltages, heat flows) that meet in that equation, for the relative
+// residual tests; a pass over the whole matrix, made only when a test needs
+// it.
+const std::vector<double>& NewtonSolver::row_scale(const std::vector<double>& x) {
+  if (scale_ready_) return scale_;
   const auto& pattern = system_.pattern();
   std::fill(scale_.begin(), scale_.end(), 0.0);
   for (int col = 0; col < pattern.n; ++col) {
@@ -52,12 +58,25 @@ void NewtonSolver::assemble(const NewtonProblem& p, const std::vector<double>& x
       scale_[pattern.row[s] + 1] += std::abs(jacobian_[s]) * xc;
     }
   }
+  scale_ready_ = true;
+  return scale_;
 }
 
-bool NewtonSolver::residual_small() const {
+// Every row within its absolute tolerance plus the relative one of its
+// scale; rows within the absolute part alone (a converged linear solve's
+// rounding, most rows near convergence) need no scale.
+bool NewtonSolver::residual_small(const std::vector<double>& x) {
   const std::vector<double>& absolute = tolerances_.residual;
+  const auto within_absolute = [&] {
+    for (std::size_t i = 1; i < residual_.size(); ++i) {
+      if (!(std::abs(residual_[i]) <= absolute[i])) return false;
+    }
+    return true;
+  };
+  if (within_absolute()) return true;
+  const std::vector<double>& scale = row_scale(x);
   for (std::size_t i = 1; i < residual_.size(); ++i) {
-    if (std::abs(residual_[i]) > absolute[i] + options_.relative_tolerance * scale_[i]) {
+    if (std::abs(residual_[i]) > absolute[i] + options_.relative_tolerance * scale[i]) {
       return false;
     }
   }
@@ -70,11 +89,12 @@ bool NewtonSolver::residual_small() const {
 // small: with a large a C (a short time step across a large capacitor) that
 // noise in a branch current can exceed its absolute tolerance however long
 // Newton runs.
-bool NewtonSolver::residual_at_rounding() const {
+bool NewtonSolver::residual_at_rounding(const std::vector<double>& x) {
   constexpr double kUlps = 64;  // units in the last place, from memory: a sum of a few terms
   const double rounding = kUlps * std::numeric_limits<double>::epsilon();
+  const std::vector<double>& scale = row_scale(x);
   for (std::size_t i = 1; i < residual_.size(); ++i) {
-    if (std::abs(residual_[i]) > rounding * scale_[i]) return false;
+    if (std::abs(residual_[i]) > rounding * scale[i]) return false;
   }
   return true;
 }
@@ -114,8 +134,8 @@ NewtonOutcome NewtonSolver::solve(std::vector<double>& x, const NewtonProblem& p
       outcome.culprit = bad;
       return outcome;
     }
-    if (iteration > 0 && !work_.limited && residual_small() &&
-        (last_update_small || residual_at_rounding())) {
+    if (iteration > 0 && !work_.limited && residual_small(x) &&
+        (last_update_small || residual_at_rounding(x))) {
       outcome.status = NewtonStatus::converged;
       return outcome;
     }

@@ -68,8 +68,9 @@ class NewtonSolver {
 
  private:
   void assemble(const NewtonProblem& problem, const std::vector<double>& x);
-  bool residual_small() const;
-  bool residual_at_rounding() const;
+  const std::vector<double>& row_scale(const std::vector<double>& x);
+  bool residual_small(const std::vector<double>& x);
+  bool residual_at_rounding(const std::vector<double>& x);
   bool update_small(const std::vector<double>& x) const;
   mna::Index first_non_finite(const std::vector<double>& x) const;
 
@@ -92,6 +93,7 @@ class NewtonSolver {
   std::vector<double> residual_;  // n + 1
   std::vector<double> update_;    // n + 1
   std::vector<double> scale_;     // n + 1: size of the terms meeting in each row
+  bool scale_ready_ = false;      // scale_ belongs to the last assembly
   mna::SparseLu<double> lu_;
 };
 
