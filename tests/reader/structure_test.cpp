@@ -189,5 +189,20 @@ TEST_F(Includes, FileLargerThanTheLimitIsRefusedWithHowToRaiseIt) {
   EXPECT_EQ(read_file(dir_ / "a.stage", options).circuit.elements().size(), 1u);
 }
 
+// The same limit holds for text handed in from C++, and for a file with no
+// size to check first: a device that never ends is read only up to it.
+TEST_F(Includes, TextAndEndlessFilesAreHeldToTheLimit) {
+  ReadOptions options;
+  options.max_file_size = 1u << 20;
+  EXPECT_THROW(read_text(std::string(2u << 20, '#'), "big.stage", options), InputError);
+  try {
+    read_file("/dev/zero", options);
+    FAIL();
+  } catch (const InputError& e) {
+    EXPECT_NE(e.message().find("larger than the limit of 1 MiB"), std::string::npos)
+        << e.message();
+  }
+}
+
 }  // namespace
 }  // namespace stage::testing

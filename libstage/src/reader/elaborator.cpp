@@ -318,7 +318,7 @@ bool Elaborator::has_node(const std::string& name) const {
 std::vector<std::string> Elaborator::node_names() const {
   std::set<std::string> nodes = port_nodes_;
   for (const Element& e : deck_.circuit.elements()) {
-    for (std::string& node : kinds::nodes(e.data)) nodes.insert(std::move(node));
+    kinds::for_each_node(e.data, [&](const std::string& node) { nodes.insert(node); });
   }
   return {nodes.begin(), nodes.end()};
 }

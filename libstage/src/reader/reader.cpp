@@ -7,7 +7,6 @@
 #include <cstdlib>
 #include <fstream>
 #include <limits>
-#include <sstream>
 
 #include "reader/elaborator.hpp"
 #include "reader/grammar.hpp"
@@ -24,28 +23,44 @@ constexpr std::size_t kMaxIncludeDepth = 32;
 // Offsets in the text are ints.
 constexpr std::uintmax_t kLargestReadable = std::numeric_limits<int>::max();
 
-std::string read_whole(const fs::path& path, const SourceLocation& from,
-                       const ReadOptions& options) {
-  std::error_code ec;
-  const auto size = fs::file_size(path, ec);
-  if (!ec && size > kLargestReadable) {
-    throw InputError(from, "the file '" + path.string() +
+// A text of `size` bytes, from a file or from the caller, within what can
+// be read (offsets are ints) and the limit the options set.
+void check_size(std::uintmax_t size, const std::string& name, const SourceLocation& from,
+                const ReadOptions& options) {
+  if (size > kLargestReadable) {
+    throw InputError(from, "the file '" + name +
                                "' is larger than 2 GiB, the most a circuit file can be");
   }
-  if (!ec && size > options.max_file_size) {
+  if (size > options.max_file_size) {
     const auto mib = [](std::uintmax_t bytes) { return std::to_string(bytes >> 20); };
-    throw InputError(from, "the file '" + path.string() + "' (" + mib(size) +
+    throw InputError(from, "the file '" + name + "' (" + mib(size) +
                                " MiB) is larger than the limit of " + mib(options.max_file_size) +
                                " MiB for a circuit file; raise it with --max-file-size MiB "
                                "(ReadOptions::max_file_size)");
   }
+}
+
+std::string read_whole(const fs::path& path, const SourceLocation& from,
+                       const ReadOptions& options) {
+  std::error_code ec;
+  const auto size = fs::file_size(path, ec);
+  if (!ec) check_size(size, path.string(), from, options);
   std::ifstream in(path, std::ios::binary);
   if (!in || fs::is_directory(path, ec)) {
     throw InputError(from, "cannot read the file '" + path.string() + "'");
   }
-  std::ostringstream text;
-  text << in.rdbuf();
-  return text.str();
+  // Read in pieces and checked as it grows: a device or a pipe has no size
+  // to check first (`/dev/zero` never ends).
+  constexpr std::size_t kPiece = 1 << 20;
+  std::string text;
+  while (in) {
+    const std::size_t had = text.size();
+    text.resize(had + kPiece);
+    in.read(text.data() + had, kPiece);
+    text.resize(had + static_cast<std::size_t>(in.gcount()));
+    check_size(text.size(), path.string(), from, options);
+  }
+  return text;
 }
 
 class Loader {
@@ -165,6 +180,7 @@ Deck read_file(const fs::path& path, const ReadOptions& options) {
 }
 
 Deck read_text(const std::string& text, const std::string& file_name, const ReadOptions& options) {
+  check_size(text.size(), file_name, {file_name, 0, 0}, options);
   return read(file_name, text, options);
 }
 

@@ -28,43 +28,23 @@ std::string SourceText::written(int begin, int end) const {
   return part;
 }
 
-// Lines are counted when a message needs one (no table of line starts: a
-// large file has millions of lines and few messages). The newlines inside
-// brackets are form feeds in text_ and newlines in replaced_.
 SourceLocation SourceText::location(int offset) const {
   offset = std::clamp(offset, 0, static_cast<int>(text_.size()));
-  int line = 1 + static_cast<int>(std::count(text_.begin(), text_.begin() + offset, '\n'));
-  int begin = offset == 0 ? 0 : static_cast<int>(text_.rfind('\n', offset - 1) + 1);
-  for (const Replaced& run : replaced_) {
-    if (run.offset >= offset) break;
-    for (int k = 0; k < static_cast<int>(run.written.size()) && run.offset + k < offset; ++k) {
-      if (run.written[k] != '\n') continue;
-      ++line;
-      begin = std::max(begin, run.offset + k + 1);
-    }
-  }
+  const auto next = std::upper_bound(line_starts_.begin(), line_starts_.end(), offset);
+  const int line = static_cast<int>(next - line_starts_.begin());
   int column = 1;
-  for (const char c : written(begin, offset)) {
+  for (const char c : written(line_starts_[line - 1], offset)) {
     if ((static_cast<unsigned char>(c) & 0xC0) != 0x80) ++column;
   }
   return {file_name_, line, column};
 }
 
 std::string SourceText::line_text(int line) const {
-  if (line < 1) return {};
-  // Where the line starts in the text as written, found by location().
-  int low = 0, high = static_cast<int>(text_.size());
-  while (low < high) {
-    const int middle = low + (high - low) / 2;
-    if (location(middle).line < line)
-      low = middle + 1;
-    else
-      high = middle;
-  }
-  if (location(low).line != line) return {};
-  // Up to a newline outside brackets (those inside are form feeds here).
-  const std::size_t end = std::min(text_.find('\n', low), text_.size());
-  std::string text = written(low, static_cast<int>(end));
+  if (line < 1 || line > static_cast<int>(line_starts_.size())) return {};
+  const int begin = line_starts_[line - 1];
+  const int end = line < static_cast<int>(line_starts_.size()) ? line_starts_[line]
+                                                               : static_cast<int>(text_.size());
+  std::string text = written(begin, end);
   text.erase(std::min(text.find_first_of("\r\n"), text.size()));
   return text;
 }
@@ -121,6 +101,7 @@ void SourceText::prepare() {
   // Deep enough for any real circuit, shallow enough for the grammar's stack.
   constexpr std::size_t kMaxNesting = 100;
   const std::string& s = text_;
+  line_starts_.push_back(0);
   struct Open {
     char bracket;
     int offset;
@@ -133,6 +114,7 @@ void SourceText::prepare() {
     if (length == 0) fail(offset, "this byte is not valid UTF-8 text");
     const char c = s[i];
     if (c == '\0') fail(offset, "a NUL character is not allowed in a circuit description");
+    if (c == '\n') line_starts_.push_back(offset + 1);
     if (c == '\n' || c == '\r') {
       in_comment = in_string = false;
       if (!open.empty()) replace(offset, 1, '\f');  // skipped, but ends a number's unit

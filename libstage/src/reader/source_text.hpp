@@ -47,6 +47,9 @@ class SourceText {
   std::string file_name_;
   std::string text_;
   std::vector<Replaced> replaced_;  // by offset
+  // Where each line of the text as written starts (4 bytes a line), so that
+  // an offset finds its line by bisection however many are asked for.
+  std::vector<int> line_starts_;
 };
 
 }  // namespace stage::reader
