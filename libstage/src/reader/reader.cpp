@@ -28,8 +28,8 @@ constexpr std::uintmax_t kLargestReadable = std::numeric_limits<int>::max();
 void check_size(std::uintmax_t size, const std::string& name, const SourceLocation& from,
                 const ReadOptions& options) {
   if (size > kLargestReadable) {
-    throw InputError(from, "the file '" + name +
-                               "' is larger than 2 GiB, the most a circuit file can be");
+    throw InputError(
+        from, "the file '" + name + "' is larger than 2 GiB, the most a circuit file can be");
   }
   if (size > options.max_file_size) {
     const auto mib = [](std::uintmax_t bytes) { return std::to_string(bytes >> 20); };
