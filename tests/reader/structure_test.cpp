@@ -199,8 +199,7 @@ TEST_F(Includes, TextAndEndlessFilesAreHeldToTheLimit) {
     read_file("/dev/zero", options);
     FAIL();
   } catch (const InputError& e) {
-    EXPECT_NE(e.message().find("larger than the limit of 1 MiB"), std::string::npos)
-        << e.message();
+    EXPECT_NE(e.message().find("larger than the limit of 1 MiB"), std::string::npos) << e.message();
   }
 }
 
