@@ -35,17 +35,35 @@ inline DiodeModel generic_diode() {
   return d;
 }
 
+// What the small-signal stages share: an npn model, the supply `vcc`, and
+// the input source (AC 1) coupled to `base` through 10 uF.
+inline Circuit small_signal_frame(std::string title, double supply) {
+  Circuit c;
+  c.title = std::move(title);
+  c.add_model("npn", generic_npn());
+  c.add("vcc", VoltageSource{"vcc", "gnd", supply});
+  c.add("vin", VoltageSource{"in", "gnd", 0.0, 1.0});
+  c.add("cin", Capacitor{"in", "base", 10e-6});
+  return c;
+}
+
+// The common-emitter front both 15 V stages share: the 39k/8.2k divider,
+// q1 and its 4.7 k collector resistor.
+inline Circuit common_emitter_front(std::string title) {
+  Circuit c = small_signal_frame(std::move(title), 15.0);
+  c.add("r1", Resistor{"vcc", "base", 39e3});
+  c.add("r2", Resistor{"base", "gnd", 8.2e3});
+  c.add("q1", Bipolar{Polarity::npn, "collector", "base", "emitter", {}, "npn"});
+  c.add("rc", Resistor{"vcc", "collector", 4.7e3});
+  return c;
+}
+
 // An emitter follower on 12 V: 22k/22k base divider, RE = 1 k, driving a
 // 100 ohm load through 100 uF. ICQ is about 5 mA, the AC load RE || RL about
 // 91 ohm, so the load line allows only about ICQ R'ac = 0.45 V of negative
 // swing even though the output sits near 5.3 V.
 inline Circuit follower_into_low_load() {
-  Circuit c;
-  c.title = "Follower into a 100 ohm load";
-  c.add_model("npn", generic_npn());
-  c.add("vcc", VoltageSource{"vcc", "gnd", 12.0});
-  c.add("vin", VoltageSource{"in", "gnd", 0.0, 1.0});
-  c.add("cin", Capacitor{"in", "base", 10e-6});
+  Circuit c = small_signal_frame("Follower into a 100 ohm load", 12.0);
   c.add("r_top", Resistor{"vcc", "base", 22e3});
   c.add("r_bottom", Resistor{"base", "gnd", 22e3});
   c.add("q1", Bipolar{Polarity::npn, "vcc", "base", "emitter", {}, "npn"});
@@ -61,16 +79,7 @@ inline Circuit follower_into_low_load() {
 // RC || RL + 270 ohm. The collector swings up until the transistor cuts off
 // and down until it saturates.
 inline Circuit common_emitter() {
-  Circuit c;
-  c.title = "Common-emitter stage";
-  c.add_model("npn", generic_npn());
-  c.add("vcc", VoltageSource{"vcc", "gnd", 15.0});
-  c.add("vin", VoltageSource{"in", "gnd", 0.0, 1.0});
-  c.add("cin", Capacitor{"in", "base", 10e-6});
-  c.add("r1", Resistor{"vcc", "base", 39e3});
-  c.add("r2", Resistor{"base", "gnd", 8.2e3});
-  c.add("q1", Bipolar{Polarity::npn, "collector", "base", "emitter", {}, "npn"});
-  c.add("rc", Resistor{"vcc", "collector", 4.7e3});
+  Circuit c = common_emitter_front("Common-emitter stage");
   c.add("re1", Resistor{"emitter", "bypass", 270.0});
   c.add("re2", Resistor{"bypass", "gnd", 1e3});
   c.add("ce", Capacitor{"bypass", "gnd", 470e-6});
@@ -85,16 +94,7 @@ inline Circuit common_emitter() {
 // swings far more than q1's, but its gain hardly changes with it: the
 // distortion is q1's.
 inline Circuit common_emitter_into_follower() {
-  Circuit c;
-  c.title = "Common-emitter stage into a follower";
-  c.add_model("npn", generic_npn());
-  c.add("vcc", VoltageSource{"vcc", "gnd", 15.0});
-  c.add("vin", VoltageSource{"in", "gnd", 0.0, 1.0});
-  c.add("cin", Capacitor{"in", "base", 10e-6});
-  c.add("r1", Resistor{"vcc", "base", 39e3});
-  c.add("r2", Resistor{"base", "gnd", 8.2e3});
-  c.add("q1", Bipolar{Polarity::npn, "collector", "base", "emitter", {}, "npn"});
-  c.add("rc", Resistor{"vcc", "collector", 4.7e3});
+  Circuit c = common_emitter_front("Common-emitter stage into a follower");
   c.add("re", Resistor{"emitter", "gnd", 1e3});
   c.add("ce", Capacitor{"emitter", "gnd", 470e-6});
   c.add("q2", Bipolar{Polarity::npn, "vcc", "collector", "follower", {}, "npn"});
