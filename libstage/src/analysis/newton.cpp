@@ -76,8 +76,8 @@ bool NewtonSolver::residual_small(const std::vector<double>& x) {
   if (within_absolute()) return true;
   const std::vector<double>& scale = row_scale(x);
   for (std::size_t i = 1; i < residual_.size(); ++i) {
-    if (std::abs(residual_[i]) > absolute[i] + options_.relative_tolerance * scale[i]) {
-      return false;
+    if (!(std::abs(residual_[i]) <= absolute[i] + options_.relative_tolerance * scale[i])) {
+      return false;  // a NaN fails too
     }
   }
   return true;
@@ -94,7 +94,7 @@ bool NewtonSolver::residual_at_rounding(const std::vector<double>& x) {
   const double rounding = kUlps * std::numeric_limits<double>::epsilon();
   const std::vector<double>& scale = row_scale(x);
   for (std::size_t i = 1; i < residual_.size(); ++i) {
-    if (std::abs(residual_[i]) > rounding * scale[i]) return false;
+    if (!(std::abs(residual_[i]) <= rounding * scale[i])) return false;
   }
   return true;
 }
@@ -102,7 +102,7 @@ bool NewtonSolver::residual_at_rounding(const std::vector<double>& x) {
 bool NewtonSolver::update_small(const std::vector<double>& x) const {
   const std::vector<double>& absolute = tolerances_.unknown;
   for (std::size_t i = 1; i < update_.size(); ++i) {
-    if (std::abs(update_[i]) > absolute[i] + options_.relative_tolerance * std::abs(x[i])) {
+    if (!(std::abs(update_[i]) <= absolute[i] + options_.relative_tolerance * std::abs(x[i]))) {
       return false;
     }
   }
