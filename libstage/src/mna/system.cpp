@@ -140,10 +140,6 @@ bool System::set_value(Device& device, double value) {
   return true;
 }
 
-bool System::set_waveform(Device& device, const std::optional<Waveform>& wave) {
-  return device.set_waveform(wave);
-}
-
 EvalRequest System::request(const double* x) const {
   EvalRequest r;
   r.x = x;

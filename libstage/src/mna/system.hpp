@@ -4,7 +4,6 @@
 
 #include <functional>
 #include <memory>
-#include <optional>
 #include <span>
 #include <string>
 #include <vector>
@@ -62,10 +61,10 @@ class System {
   // products with x, their excitations, then every nonlinear device's share.
   void evaluate(const EvalRequest& request, Workspace& w) const;
 
-  // Change a device's own value or waveform (Device::set_value and
-  // set_waveform), keeping the constant stamp in step.
+  // Change a device's own value (Device::set_value), keeping the constant
+  // stamp in step. (A waveform is no part of it: Device::set_waveform
+  // directly.)
   bool set_value(Device& device, double value);
-  bool set_waveform(Device& device, const std::optional<Waveform>& wave);
   // request with this system's temperature filled in.
   EvalRequest request(const double* x) const;
 

@@ -216,7 +216,7 @@ void Simulation::set_waveform(const std::string& source, const std::optional<Wav
     stored = before;
     throw Error(ErrorKind::invalid_request, p->message, {p->subject});
   }
-  state_->system.set_waveform(*device, wave);
+  device->set_waveform(wave);
 }
 
 void Simulation::set_temperature(double kelvin) {
