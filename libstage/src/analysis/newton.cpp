@@ -120,6 +120,7 @@ NewtonOutcome NewtonSolver::solve(std::vector<double>& x, const NewtonProblem& p
   NewtonOutcome outcome;
   mna::EvalRequest request = problem.request;
   request.x = x.data();
+  request.charges = problem.reactive_scale != 0 || problem.reactive_history != nullptr;
   bool last_update_small = false;
   // A linear system is solved by one step from any start; from zero its
   // first evaluation skips the products (only the excitations remain), so

@@ -54,45 +54,47 @@ JunctionVoltages junction_voltages(double polarity, const std::array<double, kNo
 
 // The transport current u, linearised as `transport`, through the
 // excess-phase network (see kLagResistance) into the collector-emitter path.
-void add_delayed_transport(System& s, double pol, const std::array<double, kNodes>& x,
-                           double transport, const GummelPoonCurrents& i, double delay) {
+template <class Sink>
+void add_delayed_transport(Sink& s, double pol, const std::array<double, kNodes>& x,
+                           double transport, const GummelPoonCurrents& i, double delay,
+                           bool charges) {
+  constexpr Quantity kI = Quantity::current, kQ = Quantity::charge;
   const double delayed = x[kDelayed];  // npn sense, c' -> e'
-  s.f[kCi] += pol * delayed;
-  s.f[kEi] -= pol * delayed;
-  s.g[kCi][kDelayed] += pol;
-  s.g[kEi][kDelayed] -= pol;
+  s.add_value(kI, kCi, pol * delayed);
+  s.add_value(kI, kEi, -pol * delayed);
+  s.add_slope(kI, kCi, kDelayed, pol);
+  s.add_slope(kI, kEi, kDelayed, -pol);
   // Node kLag: current leaving through R and L, the transport current entering.
-  s.f[kLag] += x[kLag] / kLagResistance + delayed - transport;
-  s.g[kLag][kLag] += 1 / kLagResistance;
-  s.g[kLag][kDelayed] += 1;
+  s.add_value(kI, kLag, x[kLag] / kLagResistance + delayed - transport);
+  s.add_slope(kI, kLag, kLag, 1 / kLagResistance);
+  s.add_slope(kI, kLag, kDelayed, 1);
   for (const auto& [node, slope] :
        {std::pair{kBi, i.dict_dvbe + i.dict_dvbc}, {kEi, -i.dict_dvbe}, {kCi, -i.dict_dvbc}}) {
-    s.g[kLag][node] -= pol * slope;
-    s.used[kLag][node] = true;
+    s.add_slope(kI, kLag, node, -pol * slope);
   }
-  s.q[kLag] += delay / (3 * kLagResistance) * x[kLag];
-  s.c[kLag][kLag] += delay / (3 * kLagResistance);
   // The inductor's branch equation L i' - v(kLag) = 0.
-  s.f[kDelayed] -= x[kLag];
-  s.g[kDelayed][kLag] -= 1;
-  s.q[kDelayed] += kLagResistance * delay * delayed;
-  s.c[kDelayed][kDelayed] += kLagResistance * delay;
-  s.used[kCi][kDelayed] = s.used[kEi][kDelayed] = s.used[kLag][kLag] = true;
-  s.used[kLag][kDelayed] = s.used[kDelayed][kLag] = s.used[kDelayed][kDelayed] = true;
+  s.add_value(kI, kDelayed, -x[kLag]);
+  s.add_slope(kI, kDelayed, kLag, -1);
+  if (!charges) return;
+  s.add_value(kQ, kLag, delay / (3 * kLagResistance) * x[kLag]);
+  s.add_slope(kQ, kLag, kLag, delay / (3 * kLagResistance));
+  s.add_value(kQ, kDelayed, kLagResistance * delay * delayed);
+  s.add_slope(kQ, kDelayed, kDelayed, kLagResistance * delay);
 }
 
-// The device's system with the junction-controlled currents and charges
+// The device's equations with the junction-controlled currents and charges
 // evaluated at `at` (limited voltages) and linearised back to the true
-// junction voltages, as device.hpp asks.
-System local_system(const BipolarParameters& p, double pol, const std::array<double, kNodes>& x,
-                    JunctionVoltages at) {
-  System s;
+// junction voltages, as device.hpp asks, written into `s`. Without
+// `charges` only f and G are written (a DC solve reads nothing else).
+template <class Sink>
+void stamp(Sink& s, const BipolarParameters& p, double pol, const std::array<double, kNodes>& x,
+           JunctionVoltages at, bool charges) {
   const JunctionVoltages v = junction_voltages(pol, x);
   const double dbe = v.vbe - at.vbe, dbc = v.vbc - at.vbc;
   const GummelPoonCurrents i = gummel_poon_currents(p, at.vbe, at.vbc);
   const double transport = i.ict + i.dict_dvbe * dbe + i.dict_dvbc * dbc;
   if (p.excess_phase_delay > 0) {
-    add_delayed_transport(s, pol, x, transport, i, p.excess_phase_delay);
+    add_delayed_transport(s, pol, x, transport, i, p.excess_phase_delay, charges);
   } else {
     add_current(s, pol, kCi, kEi, transport, {{kBi, kEi, i.dict_dvbe}, {kBi, kCi, i.dict_dvbc}});
   }
@@ -113,6 +115,7 @@ System local_system(const BipolarParameters& p, double pol, const std::array<dou
   if (p.collector_resistance > 0)
     add_current(s, 1, kC, kCi, (x[kC] - x[kCi]) / p.collector_resistance,
                 {{kC, kCi, 1 / p.collector_resistance}});
+  if (!charges) return;
 
   const double vbx = pol * (x[kB] - x[kCi]);
   const double vsc = pol * (x[kS] - x[kCi]);
@@ -127,6 +130,13 @@ System local_system(const BipolarParameters& p, double pol, const std::array<dou
   if ((1 - p.bc_internal_fraction) * p.bc_capacitance > 0)
     add_charge(s, pol, kB, kCi, q.qbx, {{kB, kCi, q.cbx}});
   if (p.cs_capacitance > 0) add_charge(s, pol, kS, kCi, q.qcs, {{kS, kCi, q.ccs}});
+}
+
+// The whole system, dense, at the true junction voltages: for the pattern and
+// the report.
+System local_system(const BipolarParameters& p, double pol, const std::array<double, kNodes>& x) {
+  System s;
+  stamp(s, p, pol, x, junction_voltages(pol, x), true);
   return s;
 }
 
@@ -150,7 +160,7 @@ class BipolarDevice final : public mna::Device {
         scatter_(nodes(name, element, model, topology)),
         params_(scale_bipolar(model, area_, kRoomTemperature)),
         kelvin_(kRoomTemperature),
-        structure_(local_system(params_, pol_, {}, {}).used) {}
+        structure_(local_system(params_, pol_, {}).used) {}
 
   void declare(mna::PatternBuilder& pattern) override { scatter_.declare(pattern, structure_); }
 
@@ -176,7 +186,8 @@ class BipolarDevice final : public mna::Device {
         (params_.bc_leakage > 0 && beyond_exponent_range(v.vbc, params_.bc_leakage_ideality_vt))) {
       out.beyond_model_range = true;
     }
-    scatter_.scatter(local_system(params_, pol_, x, v), out);
+    const DirectStamp<kNodes> sink(scatter_, out);
+    stamp(sink, params_, pol_, x, v, request.charges);
   }
 
   bool nonlinear() const override { return true; }
@@ -240,7 +251,7 @@ class BipolarDevice final : public mna::Device {
     const BipolarParameters p = scale_bipolar(model_, area_, at.temperature);
     const auto x = scatter_.gather(at.x);
     const JunctionVoltages v = junction_voltages(pol_, x);
-    const System s = local_system(p, pol_, x, v);
+    const System s = local_system(p, pol_, x);
     const std::array<int, kNodes> alias = {kC,
                                            kB,
                                            kE,

@@ -50,9 +50,11 @@ enum : int { kAnode, kCathode, kJunction, kNodes };
 using System = LocalSystem<kNodes>;
 
 // The junction evaluated at v_eval (a limited voltage) and linearised back to
-// the true junction voltage v, as device.hpp asks.
-System local_system(const DiodeParameters& p, const std::array<double, kNodes>& x, double v_eval) {
-  System s;
+// the true junction voltage v, as device.hpp asks, written into `s`; without
+// `charges` only f and G.
+template <class Sink>
+void stamp(Sink& s, const DiodeParameters& p, const std::array<double, kNodes>& x, double v_eval,
+           bool charges) {
   const double v = x[kJunction] - x[kCathode];
   const ValueSlope forward = junction_current(p.saturation_current, v_eval, p.nvt);
   double current = forward.value, conductance = forward.slope;
@@ -65,20 +67,28 @@ System local_system(const DiodeParameters& p, const std::array<double, kNodes>& 
     current -= reverse.value - at_zero.value;
     conductance += reverse.slope;
   }
+  const double dv = v - v_eval;
+  add_current(s, 1, kJunction, kCathode, current + conductance * dv,
+              {{kJunction, kCathode, conductance}});
+  if (p.series_conductance > 0) {
+    add_current(s, 1, kAnode, kJunction, p.series_conductance * (x[kAnode] - x[kJunction]),
+                {{kAnode, kJunction, p.series_conductance}});
+  }
+  if (!charges) return;
   // Diffusion charge follows the forward (Shockley) current only: breakdown
   // stores no minority carriers.
   const ValueSlope depletion = depletion_charge(v_eval, p.c0, p.phi, p.grading, p.fill);
   const double charge = depletion.value + p.transit_time * forward.value;
   const double capacitance = depletion.slope + p.transit_time * forward.slope;
-  const double dv = v - v_eval;
-  add_current(s, 1, kJunction, kCathode, current + conductance * dv,
-              {{kJunction, kCathode, conductance}});
   add_charge(s, 1, kJunction, kCathode, charge + capacitance * dv,
              {{kJunction, kCathode, capacitance}});
-  if (p.series_conductance > 0) {
-    add_current(s, 1, kAnode, kJunction, p.series_conductance * (x[kAnode] - x[kJunction]),
-                {{kAnode, kJunction, p.series_conductance}});
-  }
+}
+
+// The whole system, dense, at the true junction voltage: for the pattern and
+// the report.
+System local_system(const DiodeParameters& p, const std::array<double, kNodes>& x) {
+  System s;
+  stamp(s, p, x, x[kJunction] - x[kCathode], true);
   return s;
 }
 
@@ -92,7 +102,7 @@ class DiodeDevice final : public mna::Device {
         scatter_(nodes(name, element, model, topology)),
         params_(scale(model, area_, kRoomTemperature)),
         kelvin_(kRoomTemperature),
-        structure_(local_system(params_, {}, 0).used) {}
+        structure_(local_system(params_, {}).used) {}
 
   void declare(mna::PatternBuilder& pattern) override { scatter_.declare(pattern, structure_); }
 
@@ -122,7 +132,8 @@ class DiodeDevice final : public mna::Device {
         beyond_exponent_range(-(v + params_.breakdown_voltage), params_.nvt)) {
       out.beyond_model_range = true;
     }
-    scatter_.scatter(local_system(params_, x, v), out);
+    const DirectStamp<kNodes> sink(scatter_, out);
+    stamp(sink, params_, x, v, request.charges);
   }
 
   bool nonlinear() const override { return true; }
@@ -158,7 +169,7 @@ class DiodeDevice final : public mna::Device {
   void report(const mna::EvalRequest& at, BiasResult& out) const override {
     const DiodeParameters p = scale(model_, area_, at.temperature);
     const auto x = scatter_.gather(at.x);
-    const System s = local_system(p, x, x[kJunction] - x[kCathode]);
+    const System s = local_system(p, x);
     const std::array<int, kNodes> alias = {kAnode, kCathode,
                                            p.series_conductance > 0 ? int{kJunction} : int{kAnode}};
     const TerminalView view = reduce_to_terminals(s, 2, alias);

@@ -1,8 +1,8 @@
-// A device's equations written on a small dense system over its own nodes
-// (terminals first, then internal nodes), and the scatter of that system into
-// the global slots. The diode and the bipolar transistor compute their
-// currents, charges and derivatives here once, so that evaluate() (scatter)
-// and report() (reduction to the terminals) share the same numbers.
+// Where a semiconductor's equations over its own nodes (terminals first,
+// then internal nodes) are written: a small dense system (for report() and
+// the pattern) or straight into the global arrays (for evaluate()). The
+// diode and the bipolar transistor write their branches once, as templates
+// over the sink, so that both destinations get the same numbers.
 #pragma once
 
 #include <array>
@@ -18,13 +18,73 @@ namespace stage::devices {
 template <int N>
 using LocalMatrix = std::array<std::array<double, N>, N>;
 
+// What a branch carries: a current (into f and G) or a charge (into q and C).
+enum class Quantity { current, charge };
+
+// A device's equations written densely over its own nodes: what report()
+// reduces to the terminals, and, from one structural evaluation, which
+// entries the device ever writes.
 template <int N>
 struct LocalSystem {
   std::array<double, N> f{}, q{};
   LocalMatrix<N> g{}, c{};
-  // Entries ever written; read once, from a structural evaluation, to declare
-  // the pattern.
   std::array<std::array<bool, N>, N> used{};
+
+  void add_value(Quantity kind, int i, double v) { (kind == Quantity::current ? f : q)[i] += v; }
+  void add_slope(Quantity kind, int i, int j, double v) {
+    (kind == Quantity::current ? g : c)[i][j] += v;
+    used[i][j] = true;
+  }
+};
+
+// Global indices of the local nodes and the slots of the entries a device
+// writes, handed out by the pattern.
+template <int N>
+class LocalScatter {
+ public:
+  explicit LocalScatter(std::array<mna::Index, N> nodes) : nodes_(nodes) {}
+
+  const std::array<mna::Index, N>& nodes() const { return nodes_; }
+  mna::Index node(int i) const { return nodes_[i]; }
+  // Slot of local entry (i, j); only entries declared as used have one.
+  mna::Slot slot(int i, int j) const { return slots_[i][j]; }
+
+  void declare(mna::PatternBuilder& pattern, const std::array<std::array<bool, N>, N>& used) {
+    for (int i = 0; i < N; ++i) {
+      for (int j = 0; j < N; ++j)
+        slots_[i][j] = used[i][j] ? pattern.entry(nodes_[i], nodes_[j]) : -1;
+    }
+  }
+
+  std::array<double, N> gather(const double* x) const {
+    std::array<double, N> local;
+    for (int i = 0; i < N; ++i) local[i] = x[nodes_[i]];
+    return local;
+  }
+
+ private:
+  std::array<mna::Index, N> nodes_;
+  std::array<std::array<mna::Slot, N>, N> slots_{};
+};
+
+// The same equations written straight into the global f, q, G and C
+// (device.hpp's layout) through a device's scatter: what evaluate() uses,
+// with no dense system to clear and copy.
+template <int N>
+class DirectStamp {
+ public:
+  DirectStamp(const LocalScatter<N>& at, mna::EvalOutput& out) : at_(at), out_(out) {}
+
+  void add_value(Quantity kind, int i, double v) const {
+    (kind == Quantity::current ? out_.f : out_.q)[at_.node(i)] += v;
+  }
+  void add_slope(Quantity kind, int i, int j, double v) const {
+    (kind == Quantity::current ? out_.g : out_.c)[at_.slot(i, j)] += v;
+  }
+
+ private:
+  const LocalScatter<N>& at_;
+  mna::EvalOutput& out_;
 };
 
 // One controlling voltage of a branch, v = polarity * (x[p] - x[n]), with the
@@ -35,78 +95,33 @@ struct Control {
 };
 
 // Adds a branch carrying `value` (a current or a charge) into the device at
-// local node a and out at b, controlled by `controls`. For a pnp (polarity
-// -1) both the controlling voltages and the value are mirrored, so the
-// slopes enter with polarity^2 = 1.
-template <int N>
-void add_branch(std::array<double, N>& values, LocalMatrix<N>& slopes,
-                std::array<std::array<bool, N>, N>& used, double polarity, int a, int b,
-                double value, std::initializer_list<Control> controls) {
-  values[a] += polarity * value;
-  values[b] -= polarity * value;
-  for (const Control& k : controls) {
-    slopes[a][k.p] += k.slope;
-    slopes[a][k.n] -= k.slope;
-    slopes[b][k.p] -= k.slope;
-    slopes[b][k.n] += k.slope;
-    used[a][k.p] = used[a][k.n] = used[b][k.p] = used[b][k.n] = true;
-  }
-}
-
-template <int N>
-void add_current(LocalSystem<N>& s, double polarity, int a, int b, double value,
-                 std::initializer_list<Control> controls) {
-  add_branch<N>(s.f, s.g, s.used, polarity, a, b, value, controls);
-}
-
-template <int N>
-void add_charge(LocalSystem<N>& s, double polarity, int a, int b, double value,
+// local node a and out at b, controlled by `controls`, into any sink above.
+// For a pnp (polarity -1) both the controlling voltages and the value are
+// mirrored, so the slopes enter with polarity^2 = 1.
+template <class Sink>
+void add_branch(Sink& s, Quantity kind, double polarity, int a, int b, double value,
                 std::initializer_list<Control> controls) {
-  add_branch<N>(s.q, s.c, s.used, polarity, a, b, value, controls);
+  s.add_value(kind, a, polarity * value);
+  s.add_value(kind, b, -polarity * value);
+  for (const Control& k : controls) {
+    s.add_slope(kind, a, k.p, k.slope);
+    s.add_slope(kind, a, k.n, -k.slope);
+    s.add_slope(kind, b, k.p, -k.slope);
+    s.add_slope(kind, b, k.n, k.slope);
+  }
 }
 
-// Global indices of the local nodes and the slots of the used entries.
-template <int N>
-class LocalScatter {
- public:
-  explicit LocalScatter(std::array<mna::Index, N> nodes) : nodes_(nodes) {}
+template <class Sink>
+void add_current(Sink& s, double polarity, int a, int b, double value,
+                 std::initializer_list<Control> controls) {
+  add_branch(s, Quantity::current, polarity, a, b, value, controls);
+}
 
-  const std::array<mna::Index, N>& nodes() const { return nodes_; }
-
-  void declare(mna::PatternBuilder& pattern, const std::array<std::array<bool, N>, N>& used) {
-    entries_.clear();
-    for (int i = 0; i < N; ++i) {
-      for (int j = 0; j < N; ++j) {
-        if (used[i][j]) entries_.push_back({i, j, pattern.entry(nodes_[i], nodes_[j])});
-      }
-    }
-  }
-
-  std::array<double, N> gather(const double* x) const {
-    std::array<double, N> local;
-    for (int i = 0; i < N; ++i) local[i] = x[nodes_[i]];
-    return local;
-  }
-
-  void scatter(const LocalSystem<N>& s, mna::EvalOutput& out) const {
-    for (int i = 0; i < N; ++i) {
-      out.f[nodes_[i]] += s.f[i];
-      out.q[nodes_[i]] += s.q[i];
-    }
-    for (const Entry& e : entries_) {
-      out.g[e.slot] += s.g[e.row][e.col];
-      out.c[e.slot] += s.c[e.row][e.col];
-    }
-  }
-
- private:
-  struct Entry {
-    int row, col;
-    mna::Slot slot;
-  };
-  std::array<mna::Index, N> nodes_;
-  std::vector<Entry> entries_;
-};
+template <class Sink>
+void add_charge(Sink& s, double polarity, int a, int b, double value,
+                std::initializer_list<Control> controls) {
+  add_branch(s, Quantity::charge, polarity, a, b, value, controls);
+}
 
 // Terminal view of a local system: internal nodes that coincide with a
 // terminal (alias[i] != i) are folded into it, the remaining internal nodes
