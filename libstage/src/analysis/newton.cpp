@@ -25,10 +25,14 @@ void NewtonSolver::assemble(const NewtonProblem& p, const std::vector<double>& x
   const LinearKey key{work_.stamp_version, a, p.shunt};
   const bool jacobian_stands = key.stamp_version >= 0 && key == jacobian_key_;
   jacobian_key_ = key;
+  // Without a reactive part the evaluation left q and C unwritten (see
+  // EvalRequest::charges): they are not read.
   if (!jacobian_stands) {
-    for (std::size_t s = 0; s < jacobian_.size(); ++s) jacobian_[s] = work_.g[s] + a * work_.c[s];
+    for (std::size_t s = 0; s < jacobian_.size(); ++s)
+      jacobian_[s] = a == 0 ? work_.g[s] : work_.g[s] + a * work_.c[s];
   }
-  for (std::size_t i = 0; i < n1; ++i) residual_[i] = work_.f[i] + a * work_.q[i];
+  for (std::size_t i = 0; i < n1; ++i)
+    residual_[i] = a == 0 ? work_.f[i] : work_.f[i] + a * work_.q[i];
   if (p.reactive_history != nullptr) {
     for (std::size_t i = 0; i < n1; ++i) residual_[i] += p.reactive_history[i];
   }

@@ -67,21 +67,21 @@ Workspace System::make_workspace() const {
 
 namespace {
 
-// f = G x and q = C x over unknowns 1..n in one pass (f[0] and q[0],
-// ground's row, stay 0), G and C in the compressed-column values of
-// `pattern`.
+// f = G x, and q = C x when `charges`, over unknowns 1..n in one pass (f[0]
+// and q[0], ground's row, stay 0), G and C in the compressed-column values
+// of `pattern`.
 void multiply(const SparsePattern& pattern, const std::vector<double>& g,
-              const std::vector<double>& c, const double* x, std::vector<double>& f,
+              const std::vector<double>& c, const double* x, bool charges, std::vector<double>& f,
               std::vector<double>& q) {
   std::fill(f.begin(), f.end(), 0.0);
-  std::fill(q.begin(), q.end(), 0.0);
+  if (charges) std::fill(q.begin(), q.end(), 0.0);
   for (int col = 0; col < pattern.n; ++col) {
     const double xc = x[col + 1];
     if (xc == 0.0) continue;
     for (int s = pattern.column_start[col]; s < pattern.column_start[col + 1]; ++s) {
       const int r = pattern.row[s] + 1;
       f[r] += g[s] * xc;
-      q[r] += c[s] * xc;
+      if (charges) q[r] += c[s] * xc;
     }
   }
 }
@@ -121,12 +121,15 @@ void System::make_constant_stamp() const {
 void System::evaluate(const EvalRequest& request, Workspace& w) const {
   if (constant_stale_) make_constant_stamp();
   const bool linear = nonlinear_devices_.empty();
+  // A linear system's workspace keeps the whole constant stamp; otherwise C
+  // is written only when charges are asked for.
+  const bool charges = linear || request.charges;
   if (!linear || w.stamp_version != stamp_version_) {
     std::copy(constant_g_.begin(), constant_g_.end(), w.g.begin());
-    std::copy(constant_c_.begin(), constant_c_.end(), w.c.begin());
+    if (charges) std::copy(constant_c_.begin(), constant_c_.end(), w.c.begin());
   }
   w.stamp_version = linear ? stamp_version_ : -1;
-  multiply(pattern_, constant_g_, constant_c_, request.x, w.f, w.q);
+  multiply(pattern_, constant_g_, constant_c_, request.x, charges, w.f, w.q);
   for (const Device* d : excited_) d->add_excitation(request, w.f.data());
   EvalOutput out = w.output();
   for (Device* d : nonlinear_devices_) d->evaluate(request, out);

@@ -19,8 +19,8 @@ struct EvalRequest {
   bool dc = true;             // sources at their DC value; else at `time`
   double source_scale = 1;    // independent sources scaled (source stepping)
   bool limit = false;         // junction-voltage limiting (Newton iterations > 1)
-  // q and C wanted. A DC solve reads neither: without them a nonlinear
-  // device writes only f and G, and q and C hold the linear devices' share.
+  // q and C wanted. A DC solve reads neither: without them the evaluation
+  // of a nonlinear system writes only f and G and leaves q and C as they were.
   bool charges = true;
   double temperature = kRoomTemperature;
 };
