@@ -1,8 +1,9 @@
 // The command's exit statuses, shared by every subcommand, chosen here from
 // the library's error kinds (spec section 8): 2 for what the user must fix
 // (the input, a request, an output file that could not be written; nothing
-// more ran), 3 for a circuit that could not be solved, 1 for anything else
-// (a bug: please report it).
+// more ran), 3 for a circuit that could not be solved, 4 for a maximum
+// rating exceeded under --strict, 1 for anything else (a bug: please report
+// it).
 #pragma once
 
 #include <iostream>
@@ -13,6 +14,9 @@
 inline constexpr int kExitBug = 1;
 inline constexpr int kExitUserError = 2;
 inline constexpr int kExitNotSolved = 3;
+// `stage run --strict`: every analysis finished, and a device exceeded a
+// maximum rating of its model.
+inline constexpr int kExitRatingsExceeded = 4;
 
 // No default: a kind left out here is a -Wswitch warning (an error in CI).
 constexpr int exit_status(stage::ErrorKind kind) {

@@ -37,8 +37,9 @@ Examples:
 
 Exit status: 0 done, 2 error in the input (file, line and column are shown, nothing ran), a
 request that cannot be done as asked or an output that cannot be written, 3 the circuit could
-not be solved (the nodes or elements involved are named), 1 a bug; every analysis that finished
-is still printed, and a failed one shows its error and error kind in its place.
+not be solved (the nodes or elements involved are named), 4 with --strict: everything ran but a
+device exceeds a maximum rating of its model, 1 a bug; every analysis that finished is still
+printed, and a failed one shows its error and error kind in its place.
 Models: `include "transistors.stage"` finds files next to the circuit, then in $STAGE_MODEL_PATH
 (colon-separated), then in the installed model library.)";
 
@@ -50,6 +51,7 @@ struct Settings {
   std::vector<std::string> model_dirs;
   std::uintmax_t max_file_mib = stage::ReadOptions{}.max_file_size >> 20;
   bool verbose = false;
+  bool strict = false;
 };
 
 stage::ReadOptions read_options(const Settings& s) {
@@ -130,6 +132,10 @@ int run(const Settings& s) {
       status = std::max(status, exit_status(failure->error_kind));
     }
   }
+  if (status == 0 && s.strict && result.exceeds_ratings()) {
+    std::cerr << "error: a device exceeds a maximum rating of its model (--strict)\n";
+    return kExitRatingsExceeded;
+  }
   return status;
 }
 
@@ -165,6 +171,8 @@ int main(int argc, char** argv) {
   };
   add_max_file_size(run_cmd);
   run_cmd->add_flag("--verbose,-v", s.verbose, "Log the solver's steps to stderr");
+  run_cmd->add_flag("--strict", s.strict,
+                    "Exit with status 4 when a device exceeds a maximum rating of its model");
 
   CLI::App* check_cmd = app.add_subcommand("check", "Read and check FILE without running it");
   check_cmd->add_option("file", s.file, "Circuit description (.stage)")->required();

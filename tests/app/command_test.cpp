@@ -411,3 +411,24 @@ TEST(Command, SetTakesValuesWithUnitsAndNamesTheCommandLine) {
   EXPECT_EQ(unknown.status, 2) << unknown.out;
   EXPECT_NE(unknown.out.find("(nearest: rl)"), std::string::npos) << unknown.out;
 }
+
+// `--strict` turns an exceeded maximum rating into exit status 4; without it
+// the run succeeds and the table names the rating.
+TEST(Command, StrictExitsFourWhenARatingIsExceeded) {
+  const auto file = write_temp(
+      "over_rated.stage",
+      "model low_voltage = npn { max_collector_emitter_voltage = 30 V }\n"
+      "vcc = voltage(c, gnd, 40 V)\nvb = voltage(b, gnd, 0.65 V)\n"
+      "q1 = npn(c, b, gnd, model = low_voltage)\nanalyze bias()\n");
+  const auto plain = run("run " + file.string());
+  EXPECT_EQ(plain.status, 0) << plain.out;
+  EXPECT_NE(plain.out.find("collector_emitter_voltage"), std::string::npos) << plain.out;
+  const auto strict = run("run --strict " + file.string());
+  EXPECT_EQ(strict.status, 4) << strict.out;
+  const auto json = run("run --json " + file.string(), Stderr::dropped);
+  const auto doc = nlohmann::json::parse(json.out);
+  const auto& exceeded = doc["analyses"][0]["ratings_exceeded"];
+  ASSERT_EQ(exceeded.size(), 1u) << json.out;
+  EXPECT_EQ(exceeded[0]["device"], "q1");
+  EXPECT_EQ(exceeded[0]["limit"], 30.0);
+}

@@ -12,6 +12,7 @@
 #include "stage/analyses.hpp"
 #include "stage/circuit.hpp"
 #include "stage/progress.hpp"
+#include "stage/ratings.hpp"
 #include "stage/solver.hpp"
 
 namespace stage {
@@ -76,6 +77,8 @@ struct BiasResult {
   // outside the range its model describes, a nearly singular system. Each
   // names the device or node.
   std::vector<std::string> warnings;
+  // Maximum ratings exceeded (devices whose models carry ratings).
+  std::vector<RatingViolation> rating_violations;
 
   double voltage(const std::string& node) const;            // throws std::out_of_range
   double current(const std::string& element) const;         // element name, without ".current"

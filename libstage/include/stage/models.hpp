@@ -74,6 +74,21 @@ struct BipolarModel {
   double reference_temperature = kRoomTemperature;
   double flicker_coefficient = 0;
   double flicker_exponent = 1;
+  // Maximum ratings (spec section 4, "Ratings"); infinite: not rated. The
+  // voltages are magnitudes in the transistor's own sense (VCE, VCB, VEB of
+  // an npn; their negatives for a pnp).
+  double max_collector_emitter_voltage = kInfinity;
+  double max_collector_base_voltage = kInfinity;
+  double max_emitter_base_voltage = kInfinity;
+  double max_collector_current = kInfinity;
+  double max_dissipation = kInfinity;           // W, at rated_case_temperature
+  double rated_case_temperature = 298.15;       // K, 25 °C
+  double max_junction_temperature = kInfinity;  // K; with max_dissipation, the derating
+  // The second-breakdown segment of the safe operating area: it leaves the
+  // constant-power line at this voltage and falls, straight on log axes,
+  // to second_breakdown_current at max_collector_emitter_voltage.
+  double second_breakdown_voltage = kInfinity;
+  double second_breakdown_current = kInfinity;
   bool operator==(const BipolarModel&) const = default;
 };
 

@@ -39,6 +39,8 @@ struct RunResult {
   std::vector<AnalysisResult> analyses;  // one per statement, in order
 
   bool failed() const;  // some analysis is an AnalysisFailure
+  // Some bias point or transient exceeded a device's maximum rating.
+  bool exceeds_ratings() const;
 };
 
 struct RunOptions {

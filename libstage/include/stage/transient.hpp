@@ -18,6 +18,7 @@
 
 #include "stage/analyses.hpp"
 #include "stage/circuit.hpp"
+#include "stage/ratings.hpp"
 #include "stage/solver.hpp"
 
 namespace stage {
@@ -44,6 +45,8 @@ struct TransientResult {
   int damped_steps = 0;
   int newton_iterations = 0;
   int factorizations = 0;  // numeric LU factorisations, the operating point included
+  // Maximum ratings exceeded (devices whose models carry ratings).
+  std::vector<RatingViolation> rating_violations;
 
   // Values of a signal by name; throws std::out_of_range.
   const std::vector<double>& signal(const std::string& name) const;

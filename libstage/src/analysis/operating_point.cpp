@@ -7,10 +7,12 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 #include <optional>
 #include <string_view>
 
 #include "analysis/model_range.hpp"
+#include "mna/rating_log.hpp"
 #include "analysis/tolerances.hpp"
 #include "common/si_format.hpp"
 #include "stage/errors.hpp"
@@ -310,8 +312,10 @@ BiasResult describe_operating_point(const mna::System& system, const std::vector
   }
 
   const mna::EvalRequest at = system.request(x.data());
+  mna::RatingLog ratings;
   for (const auto& device : system.devices()) {
     device->report(at, result);
+    device->check_ratings(at, std::numeric_limits<double>::quiet_NaN(), ratings);
     if (const auto current = device->reported_current(at)) {
       result.element_currents.emplace_back(device->name() + ".current", *current);
     }
@@ -320,6 +324,7 @@ BiasResult describe_operating_point(const mna::System& system, const std::vector
           {device->name(), source->delivered_current(at), source->delivered_power(at)});
     }
   }
+  result.rating_violations = ratings.violations();
   mna::Workspace w = system.make_workspace();
   system.evaluate(at, w);
   for (mna::Index i = 1; i <= system.size(); ++i) {

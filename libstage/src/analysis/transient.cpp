@@ -42,6 +42,7 @@
 #include "analysis/model_range.hpp"
 #include "analysis/signal_recorder.hpp"
 #include "analysis/transient_start.hpp"
+#include "mna/rating_log.hpp"
 #include "stage/errors.hpp"
 
 namespace stage::analysis {
@@ -87,9 +88,15 @@ class Stepper {
         recorder_(system_, options.signals, options.from, result),
         newton_(newton),
         bias_point_(bias_point),
-        factorizations_before_(newton.factorizations()) {}
+        factorizations_before_(newton.factorizations()) {
+    for (const auto& d : system_.devices()) {
+      if (d->rated()) rated_.push_back(d.get());
+    }
+  }
 
   void run();
+  // The maximum ratings the run exceeded, over the recorded span.
+  const std::vector<RatingViolation>& rating_violations() const { return ratings_.violations(); }
 
  private:
   enum class Outcome { accepted, error_too_large, newton_failed };
@@ -134,6 +141,8 @@ class Stepper {
   bool damping_ = false;  // the step being tried replaces a ringing trapezoidal one
   double t_stage_ = 0;
   std::vector<double> x_stage_, q_stage_, qdot_stage_;
+  std::vector<const mna::Device*> rated_;  // devices with maximum ratings, checked at each point
+  mna::RatingLog ratings_;
 };
 
 // The corners of every device's waveform and the requested landings in
@@ -402,6 +411,12 @@ void Stepper::accept(double t_new, double h, bool at_corner) {
   ++result_.accepted_steps;
   if (damping_) ++result_.damped_steps;
   recorder_.advance(t_new, x_, shape_, t_stage_, &x_stage_);
+  if (!rated_.empty() && t_new >= options_.from) {
+    mna::EvalRequest at = system_.request(x_.data());
+    at.dc = false;
+    at.time = t_new;
+    for (const mna::Device* d : rated_) d->check_ratings(at, t_new, ratings_);
+  }
   if (observer_ && t_new >= options_.from) observer_(t_new, x_);
 }
 
@@ -432,6 +447,7 @@ TransientResult integrate(NewtonSolver& newton, const TransientOptions& options,
   result.integration = newton.options().integration;
   Stepper stepper(newton, options, result, observer, bias_point, landings);
   stepper.run();
+  result.rating_violations = stepper.rating_violations();
   spdlog::debug("transient: {} steps accepted, {} rejected, {} Newton iterations",
                 result.accepted_steps, result.rejected_steps, result.newton_iterations);
   return result;

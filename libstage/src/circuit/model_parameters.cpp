@@ -74,6 +74,22 @@ constexpr std::array kBipolar{
     BP{"reference_temperature", &B::reference_temperature, Quantity::temperature, R::positive},
     BP{"flicker_coefficient", &B::flicker_coefficient, Quantity::dimensionless, R::non_negative},
     BP{"flicker_exponent", &B::flicker_exponent, Quantity::dimensionless, R::positive},
+    BP{"max_collector_emitter_voltage", &B::max_collector_emitter_voltage, Quantity::voltage,
+       R::positive_or_infinite},
+    BP{"max_collector_base_voltage", &B::max_collector_base_voltage, Quantity::voltage,
+       R::positive_or_infinite},
+    BP{"max_emitter_base_voltage", &B::max_emitter_base_voltage, Quantity::voltage,
+       R::positive_or_infinite},
+    BP{"max_collector_current", &B::max_collector_current, Quantity::current,
+       R::positive_or_infinite},
+    BP{"max_dissipation", &B::max_dissipation, Quantity::power, R::positive_or_infinite},
+    BP{"rated_case_temperature", &B::rated_case_temperature, Quantity::temperature, R::positive},
+    BP{"max_junction_temperature", &B::max_junction_temperature, Quantity::temperature,
+       R::positive_or_infinite},
+    BP{"second_breakdown_voltage", &B::second_breakdown_voltage, Quantity::voltage,
+       R::positive_or_infinite},
+    BP{"second_breakdown_current", &B::second_breakdown_current, Quantity::current,
+       R::positive_or_infinite},
 };
 
 using D = DiodeModel;

@@ -37,6 +37,27 @@ std::optional<Problem> waveform_problem(const std::string& subject, const Wavefo
   return std::nullopt;
 }
 
+// The ratings that only make sense together (spec section 4, "Ratings"):
+// the derating ends above the rated case temperature, and the
+// second-breakdown segment runs from the power line to the voltage rating.
+std::optional<Problem> ratings_problem(const std::string& name, const BipolarModel& m) {
+  const auto problem = [&](const std::string& why) {
+    return Problem{"model " + name, "model '" + name + "': " + why};
+  };
+  if (std::isfinite(m.max_junction_temperature) &&
+      m.max_junction_temperature <= m.rated_case_temperature) {
+    return problem("max_junction_temperature must lie above rated_case_temperature");
+  }
+  if (!std::isfinite(m.second_breakdown_voltage)) return std::nullopt;
+  if (!std::isfinite(m.second_breakdown_current) || !std::isfinite(m.max_dissipation) ||
+      !(m.second_breakdown_voltage < m.max_collector_emitter_voltage)) {
+    return problem(
+        "second_breakdown_voltage needs second_breakdown_current, max_dissipation and a "
+        "larger max_collector_emitter_voltage");
+  }
+  return std::nullopt;
+}
+
 template <class Model>
 std::optional<Problem> model_problem(const std::string& name, const Model& model,
                                      std::span<const ModelParameter<Model>> table) {
@@ -47,6 +68,7 @@ std::optional<Problem> model_problem(const std::string& name, const Model& model
                                   std::string(*why) + ", not " + number(model.*parameter.field)};
     }
   }
+  if constexpr (std::is_same_v<Model, BipolarModel>) return ratings_problem(name, model);
   return std::nullopt;
 }
 

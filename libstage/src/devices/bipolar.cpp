@@ -10,6 +10,7 @@
 #include "devices/gummel_poon.hpp"
 #include "devices/junction.hpp"
 #include "devices/local_stamp.hpp"
+#include "devices/ratings.hpp"
 #include "devices/semiconductors.hpp"
 #include "mna/topology.hpp"
 #include "mna/topology_check.hpp"
@@ -140,6 +141,21 @@ System local_system(const BipolarParameters& p, double pol, const std::array<dou
   return s;
 }
 
+// Each local node's place at the terminals: an internal node is its
+// terminal when no resistance separates them (the excess-phase network,
+// when absent, sits on the emitter, where it carries nothing).
+std::array<int, kNodes> terminal_alias(const BipolarParameters& p) {
+  return {kC,
+          kB,
+          kE,
+          kS,
+          p.collector_resistance > 0 ? int{kCi} : int{kC},
+          p.base_resistance > 0 ? int{kBi} : int{kB},
+          p.emitter_resistance > 0 ? int{kEi} : int{kE},
+          p.excess_phase_delay > 0 ? int{kLag} : int{kE},
+          p.excess_phase_delay > 0 ? int{kDelayed} : int{kE}};
+}
+
 // Region by the internal junctions: forward_active when only B-E conducts,
 // saturation when both do, reverse_active when only B-C does, else cutoff.
 Region region(JunctionVoltages v) {
@@ -160,7 +176,8 @@ class BipolarDevice final : public mna::Device {
         scatter_(nodes(name, element, model, topology)),
         params_(scale_bipolar(model, area_, kRoomTemperature)),
         kelvin_(kRoomTemperature),
-        structure_(local_system(params_, pol_, {}).used) {}
+        structure_(local_system(params_, pol_, {}).used),
+        rated_(has_ratings(model)) {}
 
   void declare(mna::PatternBuilder& pattern) override { scatter_.declare(pattern, structure_); }
 
@@ -231,6 +248,30 @@ class BipolarDevice final : public mna::Device {
     }
   }
 
+  bool rated() const override { return rated_; }
+  void check_ratings(const mna::EvalRequest& at, double time, mna::RatingLog& log) const override {
+    if (!rated_) return;
+    const auto x = scatter_.gather(at.x);
+    System s;
+    const BipolarParameters p =
+        at.temperature == kelvin_ ? params_ : scale_bipolar(model_, area_, at.temperature);
+    stamp(s, p, pol_, x, junction_voltages(pol_, x), false);
+    // The current into each terminal: its own row and those of the
+    // internal nodes that coincide with it.
+    std::array<double, 4> current{};
+    const std::array<int, kNodes> alias = terminal_alias(p);
+    for (int i = 0; i < kNodes; ++i) {
+      if (alias[i] <= kS) current[alias[i]] += s.f[i];
+    }
+    BipolarStress stress;
+    stress.vce = pol_ * (x[kC] - x[kE]);
+    stress.vcb = pol_ * (x[kC] - x[kB]);
+    stress.veb = pol_ * (x[kE] - x[kB]);
+    stress.collector_current = pol_ * current[kC];
+    for (int t = kC; t <= kS; ++t) stress.power += current[t] * x[t];
+    devices::check_ratings(name(), model_, stress, at.temperature, time, log);
+  }
+
   std::optional<mna::Conduction> conduction(const mna::EvalRequest& at) const override {
     BiasResult one;
     report(at, one);
@@ -252,16 +293,7 @@ class BipolarDevice final : public mna::Device {
     const auto x = scatter_.gather(at.x);
     const JunctionVoltages v = junction_voltages(pol_, x);
     const System s = local_system(p, pol_, x);
-    const std::array<int, kNodes> alias = {kC,
-                                           kB,
-                                           kE,
-                                           kS,
-                                           p.collector_resistance > 0 ? int{kCi} : int{kC},
-                                           p.base_resistance > 0 ? int{kBi} : int{kB},
-                                           p.emitter_resistance > 0 ? int{kEi} : int{kE},
-                                           p.excess_phase_delay > 0 ? int{kLag} : int{kE},
-                                           p.excess_phase_delay > 0 ? int{kDelayed} : int{kE}};
-    const TerminalView view = reduce_to_terminals(s, 4, alias);
+    const TerminalView view = reduce_to_terminals(s, 4, terminal_alias(p));
     const auto& y = view.conductance;
     const GummelPoonCurrents i = gummel_poon_currents(p, v.vbe, v.vbc);
     const GummelPoonCharges q =
@@ -329,6 +361,7 @@ class BipolarDevice final : public mna::Device {
   BipolarParameters params_;
   double kelvin_;
   std::array<std::array<bool, kNodes>, kNodes> structure_;
+  bool rated_;             // the model carries a maximum rating
   JunctionVoltages last_;  // junction voltages of the last evaluation, for limiting
 };
 

@@ -45,6 +45,7 @@ namespace stage::mna {
 
 class Topology;
 class PatternBuilder;
+class RatingLog;
 class TopologyCheck;
 
 // Where a solution lies against the range a device's model describes.
@@ -206,6 +207,15 @@ class Device {
   // Called once per accepted solution, so it may allocate when it finds
   // something, never otherwise.
   virtual void check_model_range(const EvalRequest& /*at*/, ModelRangeFindings& /*out*/) const {}
+
+  // True if the device carries maximum ratings that check_ratings() tests.
+  virtual bool rated() const { return false; }
+  // Records into `log` every maximum rating the device exceeds at solution
+  // at.x, at `time` (NaN at a bias point); the case sits at at.temperature.
+  // Allocation-free unless it finds something: a transient calls it at
+  // every accepted step.
+  virtual void check_ratings(const EvalRequest& /*at*/, double /*time*/, RatingLog& /*log*/) const {
+  }
 
   // The source capability of an independent source (see SourceAccess);
   // nullptr for every other kind. Valid as long as the device lives.

@@ -4,6 +4,7 @@
 #include <cmath>
 
 #include "report/operating_points.hpp"
+#include "report/ratings_report.hpp"
 
 namespace stage::report {
 namespace {
@@ -131,6 +132,7 @@ Json to_json(const BiasResult& r) {
             {"devices", std::move(devices)},
             {"supplies", std::move(supplies)}};
   if (!r.warnings.empty()) json["warnings"] = r.warnings;
+  if (!r.rating_violations.empty()) json["ratings_exceeded"] = ratings_json(r.rating_violations);
   return json;
 }
 
@@ -153,6 +155,7 @@ void print_table(std::ostream& out, const BiasResult& r) {
     for (const auto& s : r.supplies) t.add_row({s.name, si(s.current, "A"), si(s.power, "W")});
     t.print(out);
   }
+  print_ratings(out, r.rating_violations);
 }
 
 void write_csv(std::ostream& out, const BiasResult& r) {

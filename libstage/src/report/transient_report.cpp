@@ -3,6 +3,8 @@
 
 #include <algorithm>
 
+#include "report/ratings_report.hpp"
+
 namespace stage::report {
 namespace {
 
@@ -26,7 +28,9 @@ const char* method_name(Integration integration) {
 Json to_json(const TransientResult& r) {
   Json signals = Json::object();
   for (const auto& s : r.signals) signals[s.name] = s.values;
-  return Json{{"kind", "transient"}, {"time_s", r.time}, {"signals", std::move(signals)}};
+  Json json{{"kind", "transient"}, {"time_s", r.time}, {"signals", std::move(signals)}};
+  if (!r.rating_violations.empty()) json["ratings_exceeded"] = ratings_json(r.rating_violations);
+  return json;
 }
 
 void print_table(std::ostream& out, const TransientResult& r) {
@@ -47,6 +51,7 @@ void print_table(std::ostream& out, const TransientResult& r) {
       table.add_row(row);
     }
     table.print(out);
+    print_ratings(out, r.rating_violations);
     return;
   }
   TextTable table({"signal", "min", "max", "final"});
@@ -56,6 +61,7 @@ void print_table(std::ostream& out, const TransientResult& r) {
     table.add_row({s.name, si(*lo, unit), si(*hi, unit), si(s.values.back(), unit)});
   }
   table.print(out);
+  print_ratings(out, r.rating_violations);
 }
 
 void write_csv(std::ostream& out, const TransientResult& r) {

@@ -100,6 +100,20 @@ bool RunResult::failed() const {
   });
 }
 
+bool RunResult::exceeds_ratings() const {
+  return std::any_of(analyses.begin(), analyses.end(), [](const AnalysisResult& r) {
+    return std::visit(
+        [](const auto& result) {
+          if constexpr (requires { result.rating_violations; }) {
+            return !result.rating_violations.empty();
+          } else {
+            return false;
+          }
+        },
+        r);
+  });
+}
+
 RunResult run_deck(const Deck& deck, const RunOptions& run_options) {
   check_deck(deck);
   RunResult run{deck.circuit.title, deck.circuit.temperature, {}};
