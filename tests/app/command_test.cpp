@@ -415,11 +415,10 @@ TEST(Command, SetTakesValuesWithUnitsAndNamesTheCommandLine) {
 // `--strict` turns an exceeded maximum rating into exit status 4; without it
 // the run succeeds and the table names the rating.
 TEST(Command, StrictExitsFourWhenARatingIsExceeded) {
-  const auto file = write_temp(
-      "over_rated.stage",
-      "model low_voltage = npn { max_collector_emitter_voltage = 30 V }\n"
-      "vcc = voltage(c, gnd, 40 V)\nvb = voltage(b, gnd, 0.65 V)\n"
-      "q1 = npn(c, b, gnd, model = low_voltage)\nanalyze bias()\n");
+  const auto file = write_temp("over_rated.stage",
+                               "model low_voltage = npn { max_collector_emitter_voltage = 30 V }\n"
+                               "vcc = voltage(c, gnd, 40 V)\nvb = voltage(b, gnd, 0.65 V)\n"
+                               "q1 = npn(c, b, gnd, model = low_voltage)\nanalyze bias()\n");
   const auto plain = run("run " + file.string());
   EXPECT_EQ(plain.status, 0) << plain.out;
   EXPECT_NE(plain.out.find("collector_emitter_voltage"), std::string::npos) << plain.out;

@@ -12,9 +12,9 @@
 #include <string_view>
 
 #include "analysis/model_range.hpp"
-#include "mna/rating_log.hpp"
 #include "analysis/tolerances.hpp"
 #include "common/si_format.hpp"
+#include "mna/rating_log.hpp"
 #include "stage/errors.hpp"
 
 namespace stage::analysis {
