@@ -36,7 +36,8 @@ std::vector<ChartSpecification> chart_specifications(const RunResult& run);
 // What draws the charts: the folder where `npm ci` installed Vega, Vega-Lite
 // and vega-embed (node_modules/ beside package.json and render-svg.js), and
 // Node.js, which renders SVG files with them. The defaults are what the
-// build was configured with (STAGE_REPORT_BUNDLES, STAGE_NODE_EXECUTABLE).
+// build was configured with (STAGE_REPORT_BUNDLES, STAGE_NODE_EXECUTABLE);
+// the environment variable STAGE_REPORT_BUNDLES, when set, names the folder.
 struct PlotTools {
   std::filesystem::path bundles;
   std::filesystem::path node;

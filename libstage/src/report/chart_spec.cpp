@@ -28,7 +28,10 @@ Json axis(const std::string& field, const std::string& title, double low, double
 }
 
 Json colour(const std::string& field, const std::string& title) {
-  return Json{{"field", field}, {"type", "nominal"}, {"title", title}};
+  return Json{{"field", field},
+              {"type", "nominal"},
+              {"title", title},
+              {"legend", Json{{"labelLimit", 320}}}};
 }
 
 Json layer(const std::string& name, Json mark, Json rows, Json encoding) {

@@ -55,7 +55,7 @@ Chart drive_chart(const HeadroomResult& r, const std::string& prefix) {
     }
   }
   const Json x = spec::axis("input_amplitude", "input amplitude", true);
-  const Json y = spec::axis("peak", "output peak from its average", true);
+  const Json y = spec::axis("peak", "output peak from its average (V)", true);
   Json layers =
       Json::array({spec::layer("peaks", Json{{"type", "line"}, {"point", true}}, std::move(rows),
                                Json{{"x", x}, {"y", y}, {"color", spec::colour("side", "")}})});
@@ -66,18 +66,27 @@ Chart drive_chart(const HeadroomResult& r, const std::string& prefix) {
                      Json{{"input_amplitude", largest}, {"peak", r.small_signal_gain * largest}}}),
         Json{{"x", x}, {"y", y}}));
   }
-  const Json limits = limit_points(r);
+  // Each limit point a shape of its own, its cause in the legend: labels
+  // beside points a few percent of drive apart would overlap.
   layers.push_back(spec::layer(
-      "limits", Json{{"type", "point"}, {"shape", "diamond"}, {"size", 90}, {"color", "#b03a2e"}},
-      limits, Json{{"x", x}, {"y", y}}));
-  layers.push_back(spec::layer(
-      "limit_labels",
-      Json{{"type", "text"}, {"align", "right"}, {"dx", -8}, {"dy", -8}, {"color", "#b03a2e"}},
-      limits, Json{{"x", x}, {"y", y}, {"text", Json{{"field", "label"}}}}));
+      "limits", Json{{"type", "point"}, {"size", 110}, {"filled", true}, {"color", "#b03a2e"}},
+      limit_points(r),
+      Json{{"x", x},
+           {"y", y},
+           {"shape", Json{{"field", "label"},
+                          {"type", "nominal"},
+                          {"title", "limit points"},
+                          {"legend", Json{{"labelLimit", 320}}},
+                          {"scale", Json{{"range",
+                                          {"diamond", "square", "triangle-up", "triangle-down",
+                                           "cross", "circle"}}}}}},
+           {"tooltip", Json::array({Json{{"field", "label"}},
+                                    Json{{"field", "input_amplitude"}, {"format", ".4~g"}},
+                                    Json{{"field", "peak"}, {"format", ".4~g"}}})}}));
   return {prefix + "_drive", "Output peak of each side against the drive",
           spec::chart("Output peak of " + r.output + " against drive",
                       "dashed: small-signal prediction, gain " + text::si(r.small_signal_gain, "") +
-                          "; diamonds: each side's limit and clip point with its cause",
+                          "; red: each side's limit and clip point, its cause in the legend",
                       std::move(layers))};
 }
 
@@ -136,12 +145,15 @@ Chart load_line_chart(const HeadroomResult& r, const LoadLineEstimate& e,
         Json::array({Json{{"edge", "saturation (VCB = 0)"}, {"vce", std::abs(q.vbe)}}}),
         Json{{"x", x}}));
   }
-  Json path_layer = spec::layer(
-      "paths", Json{{"type", "line"}, {"clip", true}, {"strokeWidth", 2}}, std::move(paths),
-      Json{{"x", x},
-           {"y", y},
-           {"order", Json{{"field", "order"}, {"type", "quantitative"}}},
-           {"color", spec::colour("path", "transistor path over one period")}});
+  Json path_layer = spec::layer("paths", Json{{"type", "line"}, {"clip", true}, {"strokeWidth", 2}},
+                                std::move(paths),
+                                Json{{"x", x},
+                                     {"y", y},
+                                     {"order", Json{{"field", "order"}, {"type", "quantitative"}}},
+                                     {"color", spec::colour("path", "path over one period")}});
+  // Zoom on both axes: the path hugs a steep AC load line near Q.
+  path_layer["params"] = Json::array(
+      {Json{{"name", "zoom"}, {"select", Json{{"type", "interval"}}}, {"bind", "scales"}}});
   layers.push_back(std::move(path_layer));
   layers.push_back(spec::layer(
       "quiescent", Json{{"type", "point"}, {"filled", true}, {"size", 70}, {"color", "#1f1f1f"}},

@@ -3,7 +3,7 @@
 // report folded beneath its charts) and its charts, rendered in the page by
 // Vega-Lite from the specifications of charts.cpp. The plotting library is
 // inline, so the page opens offline; a script error is shown on the page and
-// marked on <body> (data-script-errors), and <body data-charts-rendered="n">
+// counted on <html> (data-script-errors), and <html data-charts-rendered="n">
 // says when all n charts are drawn, for a browser test to read.
 #include <fstream>
 #include <sstream>
@@ -61,22 +61,42 @@ pre { font: 12px/1.4 "DejaVu Sans Mono", monospace; background: #f3f5f6; padding
 .note { color: var(--muted); font-size: 13px; }
 )";
 
+// First in <head>, before the bundles: every uncaught error and every
+// console.error (Vega reports a bad specification there) is listed on the
+// page and counted on <html data-script-errors="n">.
+constexpr const char* kErrorScript = R"(
+window.stageErrors = [];
+window.stageShowErrors = function () {
+  const box = document.getElementById('script-errors');
+  if (box && window.stageErrors.length) {
+    box.textContent = window.stageErrors.join('\n');
+    box.hidden = false;
+  }
+};
+window.stageError = function (message) {
+  window.stageErrors.push(String(message));
+  document.documentElement.dataset.scriptErrors = String(window.stageErrors.length);
+  window.stageShowErrors();
+};
+window.addEventListener('error', (event) => window.stageError(event.message));
+window.addEventListener('unhandledrejection', (event) => window.stageError(event.reason));
+const consoleError = console.error;
+console.error = function (...parts) {
+  window.stageError(parts.join(' '));
+  consoleError.apply(console, parts);
+};
+)";
+
+// Last in <body>: every chart drawn as SVG into its figure; <html
+// data-charts-rendered="n"> once all n are.
 constexpr const char* kRenderScript = R"(
 (function () {
-  const errors = [];
-  const show = (message) => {
-    errors.push(String(message));
-    const box = document.getElementById('script-errors');
-    box.textContent = errors.join('\n');
-    box.hidden = false;
-    document.body.dataset.scriptErrors = String(errors.length);
-  };
-  window.addEventListener('error', (event) => show(event.message));
+  window.stageShowErrors();
   const charts = JSON.parse(document.getElementById('chart-specifications').textContent);
   Promise.all(charts.map((c) =>
       vegaEmbed('#chart-' + c.name, c.spec, {renderer: 'svg', actions: false})
-          .catch((error) => show(c.name + ': ' + error.message))))
-      .then(() => { document.body.dataset.chartsRendered = String(charts.length); });
+          .catch((error) => window.stageError(c.name + ': ' + error.message))))
+      .then(() => { document.documentElement.dataset.chartsRendered = String(charts.length); });
 })();
 )";
 
@@ -230,10 +250,12 @@ void write_html_report(const std::filesystem::path& file, const RunResult& run,
   for (auto& c : report::charts(run)) {
     specs.push_back(report::Json{{"name", c.name}, {"spec", std::move(c.spec)}});
   }
+  if (file.has_parent_path()) create_output_folder(file.parent_path());
   std::ofstream out(file, std::ios::binary);
   const std::string title = run.title.empty() ? "stage report" : run.title;
   out << "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n<title>"
-      << escaped(title) << "</title>\n<style>" << kStyle << "</style>\n"
+      << escaped(title) << "</title>\n<style>" << kStyle << "</style>\n<script>" << kErrorScript
+      << "</script>\n"
       << bundles << "</head>\n<body>\n<main>\n<header><h1>" << escaped(title) << "</h1><p>stage "
       << STAGE_VERSION << " · " << run.analyses.size()
       << (run.analyses.size() == 1 ? " analysis" : " analyses") << " at "

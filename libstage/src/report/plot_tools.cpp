@@ -1,6 +1,7 @@
 // The configured plotting tools and the checks before they are used.
 #include "report/plot_tools.hpp"
 
+#include <cstdlib>
 #include <fstream>
 #include <sstream>
 
@@ -15,7 +16,11 @@
 
 namespace stage {
 
-PlotTools default_plot_tools() { return {STAGE_REPORT_BUNDLES, STAGE_NODE_EXECUTABLE}; }
+PlotTools default_plot_tools() {
+  const char* bundles = std::getenv("STAGE_REPORT_BUNDLES");
+  return {bundles != nullptr && *bundles != '\0' ? bundles : STAGE_REPORT_BUNDLES,
+          STAGE_NODE_EXECUTABLE};
+}
 
 namespace report {
 

@@ -2,6 +2,7 @@
 // unit, with x-zoom and a readout at the pointer; long records decimated
 // by min/max per bucket, as the subtitle says) and of a spectrum (the
 // harmonics in dB relative to the fundamental, as bars, THD on the plot).
+#include <algorithm>
 #include <cmath>
 #include <map>
 
@@ -89,6 +90,7 @@ std::vector<Chart> charts_of(const TransientResult& r, const std::string& prefix
 std::vector<Chart> charts_of(const SpectrumResult& r, const std::string& prefix) {
   Json rows = Json::array();
   int left_out = 0;
+  double lowest = 0;
   const double fundamental = r.harmonics.empty() ? 0.0 : r.harmonics.front().amplitude;
   for (const Harmonic& h : r.harmonics) {
     if (h.n == 1) continue;
@@ -97,16 +99,21 @@ std::vector<Chart> charts_of(const SpectrumResult& r, const std::string& prefix)
       ++left_out;
       continue;
     }
+    lowest = std::min(lowest, relative);
     rows.push_back(
         Json{{"harmonic", h.n}, {"frequency_Hz", h.n * r.fundamental}, {"relative_dB", relative}});
   }
+  // Bars rise from a floor 10 dB below the smallest, on a multiple of
+  // 10 dB, so that the THD written at the top stays clear of them.
+  const double floor = 10 * std::floor(lowest / 10) - 10;
   const std::string thd = "THD " + text::percent(r.thd) +
                           (r.thd_plus_noise ? ", THD+N " + text::percent(*r.thd_plus_noise) : "");
   Json layers = Json::array(
       {spec::layer(
            "harmonics", Json{{"type", "bar"}, {"color", "#2e6f9e"}}, std::move(rows),
            Json{{"x", Json{{"field", "harmonic"}, {"type", "ordinal"}, {"title", "harmonic n"}}},
-                {"y", spec::axis("relative_dB", "dB re fundamental")},
+                {"y", spec::axis("relative_dB", "dB re fundamental", floor, 0.0)},
+                {"y2", Json{{"datum", floor}}},
                 {"tooltip", Json::array({Json{{"field", "frequency_Hz"}, {"title", "Hz"}},
                                          Json{{"field", "relative_dB"},
                                               {"title", "dB re fundamental"},
