@@ -8,9 +8,10 @@
 
 namespace stage::report::spec {
 
-// The page's plot size in CSS pixels: half a printed page's width.
-inline constexpr int kWidth = 560;
-inline constexpr int kHeight = 260;
+// A plot's size in CSS pixels: two plots without legends side by side on
+// the page (its text column is 916 px wide).
+inline constexpr int kWidth = 400;
+inline constexpr int kHeight = 240;
 
 // A layered chart: title, an optional subtitle (notes on the data, such as
 // decimation) and its layers.

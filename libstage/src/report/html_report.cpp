@@ -48,6 +48,7 @@ th, td { padding: 3px 12px 3px 0; text-align: right; border-bottom: 1px solid va
 th { font-family: "DejaVu Sans", Helvetica, sans-serif; font-weight: 600;
      border-bottom: 1.5px solid var(--ink); }
 th:first-child, td:first-child { text-align: left; }
+.figures { display: flex; flex-wrap: wrap; gap: 0 28px; align-items: flex-start; }
 figure { margin: 14px 0 22px; }
 figcaption { color: var(--muted); font-size: 13px; margin-top: 2px; }
 figcaption b { color: var(--ink); }
@@ -223,6 +224,7 @@ void section(std::ostream& out, const RunResult& run, std::size_t index, int& fi
   if (const auto* stage = std::get_if<CharacterizeResult>(&result)) {
     bias_tables(out, stage->bias);
   }
+  out << "<div class=\"figures\">\n";
   for (const auto& c : std::visit(
            [&](const auto& r) { return report::charts_of(r, report::analysis_prefix(run, index)); },
            result)) {
@@ -230,10 +232,10 @@ void section(std::ostream& out, const RunResult& run, std::size_t index, int& fi
         << "\"></div><figcaption><b>Figure " << ++figure << ".</b> " << escaped(c.title)
         << "</figcaption></figure>\n";
   }
+  out << "</div>\n";
   std::ostringstream figures;
   std::visit([&](const auto& r) { report::print_table(figures, r); }, result);
-  out << "<details" << (std::holds_alternative<BiasResult>(result) ? "" : " open")
-      << "><summary>Figures as the command prints them</summary><pre>" << escaped(figures.str())
+  out << "<details><summary>Figures as the command prints them</summary><pre>" << escaped(figures.str())
       << "</pre></details>\n</section>\n";
 }
 
