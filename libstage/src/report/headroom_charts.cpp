@@ -102,8 +102,8 @@ Chart load_line_chart(const HeadroomResult& r, const LoadLineEstimate& e,
                       const std::string& prefix) {
   Json paths = Json::array();
   double top = 2 * e.quiescent_current, right = e.cutoff_vce;
-  for (const auto& [path, what] : {std::pair{&e.clean_path, "within every limit"},
-                                   {&e.clip_path, "at the clip level"}}) {
+  for (const auto& [path, what] :
+       {std::pair{&e.clean_path, "within every limit"}, {&e.clip_path, "at the clip level"}}) {
     if (!*path) continue;
     const std::string label =
         std::string(what) + " (" + text::si((*path)->input_amplitude, "V") + " drive)";

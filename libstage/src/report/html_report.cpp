@@ -235,8 +235,8 @@ void section(std::ostream& out, const RunResult& run, std::size_t index, int& fi
   out << "</div>\n";
   std::ostringstream figures;
   std::visit([&](const auto& r) { report::print_table(figures, r); }, result);
-  out << "<details><summary>Figures as the command prints them</summary><pre>" << escaped(figures.str())
-      << "</pre></details>\n</section>\n";
+  out << "<details><summary>Figures as the command prints them</summary><pre>"
+      << escaped(figures.str()) << "</pre></details>\n</section>\n";
 }
 
 }  // namespace
