@@ -32,13 +32,18 @@ namespace fs = std::filesystem;
 constexpr const char* kRenderBudgetMs = "5000";
 
 // One browser run: the rendered DOM on stdout and a screenshot of the page's
-// first 2,700 pixels (the README's picture) into `screenshot`.
+// first 2,700 pixels (the README's picture) into `screenshot`. As root (CI)
+// Chromium runs only without its sandbox; a profile per page in the build
+// folder (the pages are tested in parallel) and no use of /dev/shm (small
+// in containers) keep it independent of the machine.
 std::string chromium_command(const fs::path& page, const fs::path& screenshot) {
   return std::string("'") + STAGE_CHROMIUM_EXECUTABLE +
-         "' --headless --no-sandbox --disable-gpu --hide-scrollbars --window-size=1100,2700 "
-         "--virtual-time-budget=" +
-         kRenderBudgetMs + " --dump-dom --screenshot='" + screenshot.string() + "' 'file://" +
-         page.string() + "' 2>/dev/null";
+         "' --headless --no-sandbox --disable-gpu --disable-dev-shm-usage --hide-scrollbars "
+         "--user-data-dir='" +
+         (page.parent_path() / (page.stem().string() + "-profile")).string() +
+         "' --window-size=1100,2700 --virtual-time-budget=" + kRenderBudgetMs +
+         " --dump-dom --screenshot='" + screenshot.string() + "' 'file://" + page.string() +
+         "' 2>/dev/null";
 }
 
 // The text from `from` up to the first `until` after it (empty when absent).

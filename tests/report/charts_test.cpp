@@ -212,6 +212,34 @@ TEST(FrequencyCharts, CornerIsMarked) {
   EXPECT_TRUE(marked) << marks.dump();
 }
 
+// A divider swept over its source: every node's voltage against the swept
+// value, the JSON's numbers; the output is half the source (two equal
+// resistors, Ohm's law).
+TEST(SweepCharts, NodeVoltagesAgainstTheSweptValueAreTheJsonNumbers) {
+  const auto deck = stage::read_text(
+      "v1 = voltage(in, gnd, 0 V)\n"
+      "r1 = resistor(in, out, 1 kΩ)\n"
+      "r2 = resistor(out, gnd, 1 kΩ)\n"
+      "analyze sweep(source = v1, from = 0 V, to = 10 V, step = 2.5 V)\n",
+      "divider.stage");
+  const auto run = stage::run_deck(deck);
+  const auto json = nlohmann::json::parse(stage::json_document(run));
+  const auto charts = stage::report::charts(run);
+  ASSERT_EQ(charts.size(), 1u);  // no transistor: no collector currents
+  const Json& swept = rows(find_layer(charts.front(), "swept"));
+  const auto& points = json["analyses"][0]["points"];
+  ASSERT_EQ(swept.size(), 2 * points.size());
+  for (const auto& r : swept) {
+    const auto k = static_cast<std::size_t>(std::lround(r["swept"].get<double>() / 2.5));
+    EXPECT_DOUBLE_EQ(r["value"].get<double>(),
+                     points[k]["node_voltages"][r["series"].get<std::string>()].get<double>());
+    if (r["series"] == "out") {
+      EXPECT_NEAR(r["value"].get<double>(), r["swept"].get<double>() / 2, 1e-9);
+    }
+  }
+  EXPECT_EQ(charts.front().spec["layer"][0]["encoding"]["x"]["title"], "v1 (V)");
+}
+
 // A transient built by hand: one plot per unit, the samples as in the JSON.
 TEST(TimeCharts, SignalsGroupedByUnitAreTheJsonSamples) {
   stage::TransientResult t;
