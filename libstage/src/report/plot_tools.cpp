@@ -32,7 +32,8 @@ std::filesystem::path bundle_file(const PlotTools& tools, const std::string& rel
                     "' is missing. Install it with `npm ci --ignore-scripts` in '" +
                     tools.bundles.string() +
                     "' (bash cmake/bootstrap.sh does this; it needs Debian's nodejs and npm), "
-                    "or configure with -DSTAGE_REPORT_BUNDLES=FOLDER where it is installed",
+                    "or name the folder where it is installed with the environment variable "
+                    "STAGE_REPORT_BUNDLES (or -DSTAGE_REPORT_BUNDLES=FOLDER when configuring)",
                 {file.string()});
   }
   return file;
