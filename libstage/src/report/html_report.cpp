@@ -211,7 +211,10 @@ std::string heading(const AnalysisResult& result) {
   return std::visit(Heading{}, result);
 }
 
-void section(std::ostream& out, const RunResult& run, std::size_t index, int& figure) {
+// The index-th analysis' section; its charts' specifications are added to
+// `specs`, which the page renders at its end.
+void section(std::ostream& out, const RunResult& run, std::size_t index, int& figure,
+             report::Json& specs) {
   const AnalysisResult& result = run.analyses[index];
   out << "<section id=\"analysis-" << index + 1 << "\">\n<h2><span class=\"number\">" << index + 1
       << "</span>" << escaped(heading(result)) << "</h2>\n";
@@ -225,12 +228,13 @@ void section(std::ostream& out, const RunResult& run, std::size_t index, int& fi
     bias_tables(out, stage->bias);
   }
   out << "<div class=\"figures\">\n";
-  for (const auto& c : std::visit(
+  for (auto& c : std::visit(
            [&](const auto& r) { return report::charts_of(r, report::analysis_prefix(run, index)); },
            result)) {
     out << "<figure><div class=\"chart\" id=\"chart-" << escaped(c.name)
         << "\"></div><figcaption><b>Figure " << ++figure << ".</b> " << escaped(c.title)
         << "</figcaption></figure>\n";
+    specs.push_back(report::Json{{"name", c.name}, {"spec", std::move(c.spec)}});
   }
   out << "</div>\n";
   std::ostringstream figures;
@@ -248,10 +252,6 @@ void write_html_report(const std::filesystem::path& file, const RunResult& run,
     bundles += "<script>" + script_safe(report::read_whole(report::bundle_file(tools, bundle))) +
                "</script>\n";
   }
-  report::Json specs = report::Json::array();
-  for (auto& c : report::charts(run)) {
-    specs.push_back(report::Json{{"name", c.name}, {"spec", std::move(c.spec)}});
-  }
   if (file.has_parent_path()) create_output_folder(file.parent_path());
   std::ofstream out(file, std::ios::binary);
   const std::string title = run.title.empty() ? "stage report" : run.title;
@@ -266,7 +266,8 @@ void write_html_report(const std::filesystem::path& file, const RunResult& run,
          "waveform for its values)</p></header>\n"
       << "<pre id=\"script-errors\" hidden></pre>\n";
   int figure = 0;
-  for (std::size_t i = 0; i < run.analyses.size(); ++i) section(out, run, i, figure);
+  report::Json specs = report::Json::array();
+  for (std::size_t i = 0; i < run.analyses.size(); ++i) section(out, run, i, figure, specs);
   out << "</main>\n<script type=\"application/json\" id=\"chart-specifications\">"
       << json_script_safe(specs.dump()) << "</script>\n<script>" << kRenderScript
       << "</script>\n</body>\n</html>\n";
