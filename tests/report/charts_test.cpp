@@ -212,6 +212,33 @@ TEST(FrequencyCharts, CornerIsMarked) {
   EXPECT_TRUE(marked) << marks.dump();
 }
 
+// The same low-pass behind an ideal amplifier of gain 10: |H| = 10 /
+// sqrt(1 + (f/fc)^2) falls through 0 dB at fc sqrt(99) (solving |H| = 1),
+// where the chart marks the unity gain.
+TEST(FrequencyCharts, UnityGainIsMarked) {
+  const auto deck = stage::read_text(
+      "v1 = voltage(in, gnd, dc = 0 V, ac = 1 V)\n"
+      "r1 = resistor(in, mid, 1 kΩ)\n"
+      "c1 = capacitor(mid, gnd, 100 nF)\n"
+      "e1 = vcvs(out, gnd, control = (mid, gnd), gain = 10)\n"
+      "r2 = resistor(out, gnd, 1 kΩ)\n"
+      "analyze frequency(from = 10 Hz, to = 1 MHz, per_decade = 10, input = v1, output = out)\n",
+      "amplifier.stage");
+  const auto run = stage::run_deck(deck);
+  const auto json = nlohmann::json::parse(stage::json_document(run));
+  const auto charts = stage::report::charts(run);
+  const double unity = json["analyses"][0]["unity_gain_frequency_Hz"];
+  const double fc = 1 / (2 * std::numbers::pi * 1e3 * 100e-9);
+  EXPECT_NEAR(unity, fc * std::sqrt(99.0), 1e-6 * unity);
+  const Json& marks = rows(find_layer(find_chart(charts, "1_frequency_gain"), "figures"));
+  bool marked = false;
+  for (const auto& m : marks) {
+    marked = marked || (m["frequency_Hz"] == unity &&
+                        m["label"].get<std::string>().find("unity gain") != std::string::npos);
+  }
+  EXPECT_TRUE(marked) << marks.dump();
+}
+
 // A divider swept over its source: every node's voltage against the swept
 // value, the JSON's numbers; the output is half the source (two equal
 // resistors, Ohm's law).
