@@ -30,6 +30,8 @@ Examples:
   stage run follower.stage                 readable tables of every analysis in the file
   stage run follower.stage --json          one JSON document (keys as in the format spec)
   stage run follower.stage --csv results   one CSV file per analysis in results/
+  stage run follower.stage --report r.html one HTML page with every analysis' charts (offline)
+  stage run follower.stage --plots plots   every chart as an SVG file in plots/
   stage run follower.stage --set rl=16k    override a `let` parameter, written as in the file
   stage check follower.stage               read and check the file, run nothing
   stage curves check models/transistors.stage models/curves/small_npn_*.csv
@@ -40,6 +42,8 @@ request that cannot be done as asked or an output that cannot be written, 3 the 
 not be solved (the nodes or elements involved are named), 4 with --strict: everything ran but a
 device exceeds a maximum rating of its model, 1 a bug; every analysis that finished is still
 printed, and a failed one shows its error and error kind in its place.
+Charts: --report and --plots draw with Vega-Lite, installed by `bash cmake/bootstrap.sh` (npm ci
+in report-bundles/); $STAGE_REPORT_BUNDLES names another folder where it is installed.
 Models: `include "transistors.stage"` finds files next to the circuit, then in $STAGE_MODEL_PATH
 (colon-separated), then in the installed model library.)";
 
@@ -47,6 +51,8 @@ struct Settings {
   std::string file;
   bool json = false;
   std::string csv_dir;
+  std::string report_file;
+  std::string plots_dir;
   std::vector<std::string> sets;
   std::vector<std::string> model_dirs;
   std::uintmax_t max_file_mib = stage::ReadOptions{}.max_file_size >> 20;
@@ -120,6 +126,14 @@ int run(const Settings& s) {
       spdlog::info("wrote {}", path.string());
     }
   }
+  if (!s.report_file.empty()) {
+    stage::write_html_report(s.report_file, result);
+    std::cerr << "report: " << s.report_file << '\n';
+  }
+  if (!s.plots_dir.empty()) {
+    const auto plots = stage::write_plot_files(s.plots_dir, result);
+    std::cerr << "plots: " << plots.size() << " SVG files in " << s.plots_dir << '\n';
+  }
   // The results that were found are printed above; each failure is also
   // told on stderr, and the status (the most severe) says the run did not
   // complete.
@@ -160,6 +174,9 @@ int main(int argc, char** argv) {
   run_cmd->add_option("file", s.file, "Circuit description (.stage)")->required();
   run_cmd->add_flag("--json", s.json, "Print one JSON document instead of tables");
   run_cmd->add_option("--csv", s.csv_dir, "Also write one CSV file per analysis into DIR");
+  run_cmd->add_option("--report", s.report_file,
+                      "Also write one self-contained HTML page with every analysis' charts");
+  run_cmd->add_option("--plots", s.plots_dir, "Also write every chart as an SVG file into DIR");
   run_cmd->add_option("--set", s.sets, "Override a `let` parameter: NAME=VALUE (repeatable)");
   run_cmd->add_option("--model-path", s.model_dirs, "Extra folder searched by `include`");
   const auto add_max_file_size = [&](CLI::App* command) {

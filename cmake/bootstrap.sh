@@ -5,6 +5,11 @@
 #
 #   bash cmake/bootstrap.sh demo    install what is missing, build, run the demo
 #   bash cmake/bootstrap.sh test    install what is missing, build, run ctest
+#
+# The HTML report's plotting library (Vega, Vega-Lite, vega-embed) comes from
+# the npm registry at the versions pinned in report-bundles/package-lock.json,
+# installed there with Debian's nodejs and npm; the test mode also installs
+# Debian's chromium for the report's browser test.
 set -euo pipefail
 
 mode="${1:-}"
@@ -18,6 +23,10 @@ build="${STAGE_BUILD_DIR:-$root/build}"
 
 packages=(cmake ninja-build g++ pkg-config libeigen3-dev libsuitesparse-dev libboost-dev
           libspdlog-dev libgtest-dev libgmock-dev libbenchmark-dev libcli11-dev nlohmann-json3-dev)
+[[ "$mode" == test ]] && packages+=(chromium)
+# Node.js and npm, unless some are installed already (another packaging of
+# Node brings its own npm, which Debian's npm package would conflict with).
+command -v node >/dev/null && command -v npm >/dev/null || packages+=(nodejs npm)
 missing=()
 for p in "${packages[@]}"; do
   dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing+=("$p")
@@ -26,6 +35,14 @@ if ((${#missing[@]})); then
   echo "== installing: ${missing[*]}"
   apt-get update -qq
   DEBIAN_FRONTEND=noninteractive apt-get install -y -qq --no-install-recommends "${missing[@]}"
+fi
+
+# The plotting bundles, again only when the lock file has changed since.
+bundles="$root/report-bundles"
+if ! cmp -s "$bundles/package-lock.json" "$bundles/node_modules/.stage-installed-lock" 2>/dev/null; then
+  echo "== installing the report's plotting bundles (npm ci in $bundles)"
+  (cd "$bundles" && npm ci --no-audit --no-fund --ignore-scripts --loglevel=error)
+  cp "$bundles/package-lock.json" "$bundles/node_modules/.stage-installed-lock"
 fi
 
 # Warnings are errors in CI; elsewhere a newer compiler's new warning should
@@ -38,7 +55,7 @@ jobs="$(nproc)"
 
 if [[ "$mode" == demo ]]; then
   cmake --build "$build" --target stage -j "$jobs"
-  exec bash "$root/apps/examples/demo.sh" "$build/apps/stage"
+  exec bash "$root/apps/examples/demo.sh" "$build/apps/stage" "$build/demo-reports"
 fi
 
 cmake --build "$build" -j "$jobs"

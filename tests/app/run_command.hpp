@@ -19,9 +19,8 @@ struct Outcome {
 
 enum class Stderr { merged, dropped };
 
-inline Outcome run(const std::string& arguments, Stderr err = Stderr::merged) {
-  const std::string command = std::string(STAGE_BINARY_DIR) + "/apps/stage " + arguments +
-                              (err == Stderr::merged ? " 2>&1" : " 2>/dev/null");
+// A shell command line, run as written.
+inline Outcome run_shell(const std::string& command) {
   Outcome o;
   FILE* pipe = popen(command.c_str(), "r");
   std::array<char, 4096> buffer{};
@@ -29,6 +28,11 @@ inline Outcome run(const std::string& arguments, Stderr err = Stderr::merged) {
   const int raw = pclose(pipe);
   o.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
   return o;
+}
+
+inline Outcome run(const std::string& arguments, Stderr err = Stderr::merged) {
+  return run_shell(std::string(STAGE_BINARY_DIR) + "/apps/stage " + arguments +
+                   (err == Stderr::merged ? " 2>&1" : " 2>/dev/null"));
 }
 
 inline std::filesystem::path write_temp(const std::string& name, const std::string& text) {

@@ -86,6 +86,19 @@ struct SideLimit {
   std::optional<double> compression_1dB_peak, compression_1dB_input_amplitude;
 };
 
+// A transistor's main path at one instant: |VCE| and |IC| for a bipolar.
+struct LoadLinePoint {
+  double vce = 0;      // V
+  double current = 0;  // A
+};
+
+// The transistor's path over the last period of the drive at one input
+// amplitude, at every accepted step of the transient.
+struct LoadLinePath {
+  double input_amplitude = 0;
+  std::vector<LoadLinePoint> points;
+};
+
 // The textbook AC load line of a single-transistor stage (Malvino and Bates,
 // "Electronic Principles", ch. on AC load lines): quiescent point, AC load
 // resistance seen between collector and emitter, the AC saturation current
@@ -99,6 +112,21 @@ struct LoadLineEstimate {
   double saturation_current = 0;
   double cutoff_vce = 0;
   double compliance_peak_to_peak = 0;
+  // The DC load line's resistance: what the transistor's main path sees
+  // with every capacitor open (0 when taking the transistor out floats a
+  // node at DC).
+  double dc_load = 0;
+  // The path at the largest drive within every limit (both sides and the
+  // THD) and at the symmetric clip level's drive.
+  std::optional<LoadLinePath> clean_path, clip_path;
+};
+
+// One transient run of the headroom search.
+struct DrivePoint {
+  double input_amplitude = 0;
+  double positive_peak = 0;  // V (or A) from the output's average
+  double negative_peak = 0;
+  double thd = 0;
 };
 
 struct HeadroomResult {
@@ -127,6 +155,7 @@ struct HeadroomResult {
   // rails can deliver), and never a prediction beyond 1.5 x the largest rail.
   double largest_drive_allowed = 0;
   int transient_runs = 0;
+  std::vector<DrivePoint> runs;  // every run, by ascending input amplitude
   // What the search's prepared simulation built and solved: one system and
   // one cold bias point for the whole search (the load-line estimate solves
   // a separate small-signal circuit of its own).

@@ -334,6 +334,24 @@ void thd_limit(const Findings& f, HeadroomResult& result) {
   result.thd_limit_cause = f.cause(positive, *past);
 }
 
+// The runs as figures, and the transistor's path at the largest drive within
+// every limit and at the symmetric clip level, for the load-line picture.
+void keep_runs(const HeadroomRuns& runs, HeadroomResult& result) {
+  for (const auto& [amplitude, m] : runs.measured()) {
+    result.runs.push_back({amplitude, m.positive_peak, m.negative_peak, m.thd});
+  }
+  if (!result.load_line) return;
+  const auto path_at = [&](double amplitude) -> std::optional<LoadLinePath> {
+    const auto run = runs.measured().find(amplitude);
+    if (amplitude <= 0 || run == runs.measured().end()) return std::nullopt;
+    return LoadLinePath{amplitude, run->second.transistor_path};
+  };
+  double clean = std::min(result.positive.input_amplitude, result.negative.input_amplitude);
+  if (result.thd_limit_input_amplitude) clean = std::min(clean, *result.thd_limit_input_amplitude);
+  result.load_line->clean_path = path_at(clean);
+  result.load_line->clip_path = path_at(result.symmetric_clip_input_amplitude);
+}
+
 }  // namespace
 
 HeadroomResult headroom_search(const Circuit& circuit, const SineDrive& drive,
@@ -365,6 +383,7 @@ HeadroomResult headroom_search(const Circuit& circuit, const SineDrive& drive,
   result.counters = drive.simulation().counters();
   result.load_line = estimate_load_line(circuit, drive.simulation().solver(), classifier.at_bias(),
                                         options.frequency);
+  keep_runs(runs, result);
   spdlog::debug("headroom: {} transient runs", result.transient_runs);
   return result;
 }

@@ -16,6 +16,14 @@
 namespace stage::analysis {
 namespace {
 
+// Capacitors are open for the DC load line: at this fraction of the drive's
+// frequency a coupling capacitor's reactance is 1e9 times its reactance in
+// the band (a 2200 uF capacitor at 1 kHz: 72 Mohm), far above the resistors
+// beside it, and an inductor a short.
+constexpr double kDcFrequencyFraction = 1e-9;
+
+}  // namespace
+
 const Element* only_transistor(const Circuit& circuit) {
   const Element* found = nullptr;
   for (const Element& e : circuit.elements()) {
@@ -26,8 +34,6 @@ const Element* only_transistor(const Circuit& circuit) {
   return found;
 }
 
-}  // namespace
-
 std::optional<LoadLineEstimate> estimate_load_line(
     const Circuit& circuit, const SolverOptions& solver,
     const std::map<std::string, mna::Conduction>& at_bias, double frequency) {
@@ -36,14 +42,18 @@ std::optional<LoadLineEstimate> estimate_load_line(
   const kinds::Amplifier q = *kinds::amplifier(transistor->data);
   const mna::Conduction& op = at_bias.at(transistor->name);
 
-  double ac_load = 0;
-  try {
-    ac_load =
-        impedance_without(circuit, solver, transistor->name, q.main_node, q.common_node, frequency)
-            .value_or(0.0);
-  } catch (const NumericalError&) {
-    return std::nullopt;  // without the transistor a node floats: no load line to draw
-  }
+  // Without the transistor a node may float: no load line to draw then.
+  const auto load_at = [&](double f) -> std::optional<double> {
+    try {
+      return impedance_without(circuit, solver, transistor->name, q.main_node, q.common_node, f)
+          .value_or(0.0);
+    } catch (const NumericalError&) {
+      return std::nullopt;
+    }
+  };
+  const std::optional<double> ac = load_at(frequency);
+  if (!ac) return std::nullopt;
+  const double ac_load = *ac;
 
   LoadLineEstimate e;
   e.device = transistor->name;
@@ -53,6 +63,7 @@ std::optional<LoadLineEstimate> estimate_load_line(
   e.saturation_current = e.quiescent_current + e.quiescent_vce / ac_load;
   e.cutoff_vce = e.quiescent_vce + e.quiescent_current * ac_load;
   e.compliance_peak_to_peak = 2 * std::min(e.quiescent_vce, e.quiescent_current * ac_load);
+  e.dc_load = load_at(frequency * kDcFrequencyFraction).value_or(0.0);
   return e;
 }
 

@@ -11,6 +11,10 @@
 
 namespace stage::analysis {
 
+// The circuit's one transistor (any kind that amplifies); nothing when it
+// has none or several.
+const Element* only_transistor(const Circuit& circuit);
+
 // The load-line estimate of a circuit with exactly one transistor (any kind
 // that amplifies), at `frequency`, from each device's conduction at the bias
 // point; nothing for other circuits.

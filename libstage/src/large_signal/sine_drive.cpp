@@ -4,6 +4,7 @@
 #include <spdlog/spdlog.h>
 
 #include <algorithm>
+#include <cmath>
 #include <limits>
 #include <optional>
 
@@ -12,6 +13,7 @@
 #include "circuit/element_kinds.hpp"
 #include "common/si_format.hpp"
 #include "large_signal/energy_ledger.hpp"
+#include "large_signal/load_line.hpp"
 #include "mna/system.hpp"
 #include "simulation/simulation_access.hpp"
 #include "stage/errors.hpp"
@@ -46,7 +48,13 @@ SineDrive::SineDrive(const Circuit& circuit, const SolverOptions& solver, std::s
       settle_periods_(settle_periods),
       record_(std::move(record)),
       energy_ledger_(energy_ledger),
-      periods_(std::min(kFirstPeriods, settle_periods)) {}
+      periods_(std::min(kFirstPeriods, settle_periods)) {
+  if (const Element* transistor = only_transistor(circuit)) {
+    for (const auto& d : SimulationAccess::system(simulation_).devices()) {
+      if (d->name() == transistor->name) transistor_ = d.get();
+    }
+  }
+}
 
 TransientResult SineDrive::run(double amplitude, int periods, DriveMeasurement& m) const {
   // The sine rides on the source's DC value, so the bias point, solved once
@@ -74,6 +82,7 @@ TransientResult SineDrive::run(double amplitude, int periods, DriveMeasurement& 
   const double window = options.stop - period;
   m.maximum = {0, -std::numeric_limits<double>::infinity(), {}};
   m.minimum = {0, std::numeric_limits<double>::infinity(), {}};
+  m.transistor_path.clear();
   std::optional<EnergyLedger> ledger;
   if (energy_ledger_) ledger.emplace(simulation_.circuit(), system).start(window);
   const StepObserver observer = [&](double t, const std::vector<double>& x) {
@@ -82,6 +91,14 @@ TransientResult SineDrive::run(double amplitude, int periods, DriveMeasurement& 
     const double v = x[p] - x[n];
     if (v > m.maximum.value) m.maximum = {t, v, x};
     if (v < m.minimum.value) m.minimum = {t, v, x};
+    if (transistor_ != nullptr) {
+      mna::EvalRequest at = system.request(x.data());
+      at.dc = false;
+      at.time = t;
+      if (const auto c = transistor_->conduction(at)) {
+        m.transistor_path.push_back({std::abs(c->voltage), std::abs(c->current)});
+      }
+    }
   };
   ++runs_;
   TransientResult result = SimulationAccess::transient(simulation_, options, observer, {window});

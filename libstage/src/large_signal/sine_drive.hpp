@@ -11,11 +11,16 @@
 #include <vector>
 
 #include "stage/circuit.hpp"
+#include "stage/headroom.hpp"
 #include "stage/signal.hpp"
 #include "stage/simulation.hpp"
 #include "stage/solver.hpp"
 #include "stage/spectrum.hpp"
 #include "stage/transient.hpp"
+
+namespace stage::mna {
+class Device;
+}  // namespace stage::mna
 
 namespace stage::analysis {
 
@@ -45,6 +50,10 @@ struct DriveMeasurement {
   bool settled = true;
   std::string unsettled;
   TransientResult transient;  // the recorded signals
+  // The main path of the circuit's only transistor at every step of the last
+  // period (its |conduction| voltage and current); empty when the circuit has
+  // none or several.
+  std::vector<LoadLinePoint> transistor_path;
   // Mean power each element took over the last period (positive absorbed),
   // by element name; empty unless the drive keeps an energy ledger.
   std::vector<std::pair<std::string, double>> element_power;
@@ -83,6 +92,7 @@ class SineDrive {
   int settle_periods_;
   std::vector<SignalRef> record_;
   bool energy_ledger_ = false;
+  const mna::Device* transistor_ = nullptr;  // the circuit's only one, if it has one
   mutable int runs_ = 0;
   mutable int periods_;  // periods the last measurement needed to settle
 };

@@ -35,6 +35,29 @@ std::string cause_text(const LimitCause& c) {
   return c.device.empty() ? mechanism : mechanism + " (" + c.device + ")";
 }
 
+Json path_json(const std::optional<LoadLinePath>& path) {
+  if (!path) return nullptr;
+  Json vce = Json::array(), current = Json::array();
+  for (const LoadLinePoint& p : path->points) {
+    vce.push_back(p.vce);
+    current.push_back(p.current);
+  }
+  return Json{{"input_amplitude", path->input_amplitude},
+              {"vce_V", std::move(vce)},
+              {"current_A", std::move(current)}};
+}
+
+Json runs_json(const std::vector<DrivePoint>& runs) {
+  Json j = Json::array();
+  for (const DrivePoint& r : runs) {
+    j.push_back(Json{{"input_amplitude", r.input_amplitude},
+                     {"positive_peak", r.positive_peak},
+                     {"negative_peak", r.negative_peak},
+                     {"thd", r.thd}});
+  }
+  return j;
+}
+
 }  // namespace
 
 Json to_json(const LoadLineEstimate& e) {
@@ -44,7 +67,10 @@ Json to_json(const LoadLineEstimate& e) {
               {"ac_load_ohm", e.ac_load},
               {"saturation_current_A", e.saturation_current},
               {"cutoff_vce_V", e.cutoff_vce},
-              {"compliance_peak_to_peak_V", e.compliance_peak_to_peak}};
+              {"compliance_peak_to_peak_V", e.compliance_peak_to_peak},
+              {"dc_load_ohm", e.dc_load},
+              {"clean_path", path_json(e.clean_path)},
+              {"clip_path", path_json(e.clip_path)}};
 }
 
 Json to_json(const HeadroomResult& r) {
@@ -63,6 +89,7 @@ Json to_json(const HeadroomResult& r) {
          {"positive_limit", side_json(r.positive)},
          {"negative_limit", side_json(r.negative)},
          {"transient_runs", r.transient_runs},
+         {"runs", runs_json(r.runs)},
          {"small_signal_gain", r.small_signal_gain},
          {"bias_output_V", r.bias_output}};
   if (r.thd_limit_input_amplitude) {

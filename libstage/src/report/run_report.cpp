@@ -3,6 +3,7 @@
 
 #include "report/bias_report.hpp"
 #include "report/characterize_report.hpp"
+#include "report/charts.hpp"
 #include "report/failure_report.hpp"
 #include "report/frequency_report.hpp"
 #include "report/headroom_report.hpp"
@@ -13,14 +14,6 @@
 
 namespace stage {
 namespace {
-
-std::string kind_of(const AnalysisResult& result) {
-  static constexpr std::string_view kKinds[] = {"bias",     "sweep",    "frequency",    "transient",
-                                                "spectrum", "headroom", "characterize", ""};
-  static_assert(std::size(kKinds) == std::variant_size_v<AnalysisResult>);
-  if (const auto* failure = std::get_if<AnalysisFailure>(&result)) return failure->kind + "_failed";
-  return std::string(kKinds[result.index()]);
-}
 
 using report::Json;
 
@@ -60,7 +53,7 @@ std::vector<std::filesystem::path> write_csv_files(const std::filesystem::path& 
   create_output_folder(dir);
   std::vector<std::filesystem::path> written;
   for (std::size_t i = 0; i < run.analyses.size(); ++i) {
-    const auto path = dir / (std::to_string(i + 1) + "_" + kind_of(run.analyses[i]) + ".csv");
+    const auto path = dir / (report::analysis_prefix(run, i) + ".csv");
     std::ofstream file(path);
     std::visit([&](const auto& r) { report::write_csv(file, r); }, run.analyses[i]);
     if (!file) {
