@@ -16,6 +16,7 @@
 #include <limits>
 #include <optional>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "circuit/element_kinds.hpp"
@@ -67,13 +68,17 @@ constexpr double kMostLowered = 1.0 / 16;
 // shortfall or THD growing at least in proportion to the drive), so that
 // the run lands within it.
 constexpr double kBelowPrediction = 0.8;
-// Stepping up aims at the first open limit's predicted crossing, by a factor
-// of at least kLeastStep (a step is worth a run) and at most kBracketFactor
-// (the prediction is an extrapolation)...
-constexpr double kLeastStep = 1.1;
+// Stepping up aims this far past the first open limit's predicted crossing
+// (a shortfall steepens toward a knee, so the prediction falls short), by a
+// factor of at least kLeastStep (a step is worth a run) and at most
+// kBracketFactor (the prediction is an extrapolation), or by kBracketFactor
+// when nothing is predicted; once every limit is crossed, straight to the
+// largest drive allowed, where a side still growing is read, and whose
+// interval with the run below it is halved when a side has stopped growing
+// in it.
+constexpr double kPastPrediction = 1.15;
+constexpr double kLeastStep = 1.25;
 constexpr double kBracketFactor = 4.0;
-// ...and once every limit is crossed, by kBracketFactor at a time until both
-// sides have stopped growing.
 // The exponent of the power law a prediction follows is held to this range
 // (a side's shortfall grows at least like the drive, and a knee seen from
 // far below is no steeper than this).
@@ -87,14 +92,15 @@ constexpr double kClippedPredictionRails = 1.5;
 constexpr double kSmallestRail = 1.0;
 // Inside a bracket, a run goes to the predicted crossing but no closer to
 // either end than this fraction of the tolerance, so that a good prediction
-// closes the bracket with the next run.
+// closes the bracket with the next run...
 constexpr double kToleranceStep = 0.9;
-// It is moved this fraction of the tolerance toward the end the last run
-// left in place...
+// ...moved this fraction of the tolerance toward the end the last run left
+// in place (doubled while runs keep leaving it there)...
 constexpr double kNudge = 0.45;
-// ...and when two runs have not halved the bracket (the criterion is not
-// following the curve), the next one halves it, on the logarithm of the
-// drive: never far worse than bisection.
+// ...and when kRunsToHalve runs have not halved the bracket (the criterion
+// is not following the curve), the next one halves it, on the logarithm of
+// the drive: never far worse than bisection.
+constexpr std::size_t kRunsToHalve = 3;
 constexpr double kLeastShrink = 0.5;
 // Relative rounding under which the largest drive is the rails' bound.
 constexpr double kSameDrive = 1e-9;
@@ -203,9 +209,7 @@ std::optional<double> extrapolated_crossing(const HeadroomRuns& runs, Criterion 
 // limit inside its bracket (ok, bad): the value's logarithm (a power law)
 // when every run used is positive, else the value itself, taken against the
 // logarithm of the drive; interpolated on the parabola through the ends and
-// the run next to them (inverse quadratic interpolation), or on the line
-// through the ends when that run does not continue the rise or the
-// parabola leaves the bracket.
+// the run nearest them outside, else on the line through the ends.
 double interpolated_crossing(const HeadroomRuns& runs, Criterion c, const DriveMeasurement& ok,
                              const DriveMeasurement& bad) {
   const auto& measured = runs.measured();
@@ -222,18 +226,23 @@ double interpolated_crossing(const HeadroomRuns& runs, Criterion c, const DriveM
     return power_law ? std::log(runs.value(c, m)) : runs.value(c, m);
   };
   const double target = power_law ? std::log(runs.limit(c)) : runs.limit(c);
-  const double x0 = std::log(ok.amplitude), x1 = std::log(bad.amplitude);
+  const double x0 = std::log(ok.amplitude), x1 = std::log(bad.amplitude), h = x1 - x0;
   const double g0 = g(ok), g1 = g(bad);
-  const double secant = x0 + (x1 - x0) * (target - g0) / (g1 - g0);
+  const double slope = (g1 - g0) / h;
+  const double secant = x0 + (target - g0) / slope;
   if (third == nullptr) return secant;
-  const double x2 = std::log(third->amplitude), g2 = g(*third);
-  // The third run continues the rise: below ok with a smaller value, or
-  // above bad with a larger one.
-  if (x2 < x0 ? !(g2 < g0) : !(g2 > g1)) return secant;
-  const double x = x0 * (target - g1) * (target - g2) / ((g0 - g1) * (g0 - g2)) +
-                   x1 * (target - g0) * (target - g2) / ((g1 - g0) * (g1 - g2)) +
-                   x2 * (target - g0) * (target - g1) / ((g2 - g0) * (g2 - g1));
-  return x > x0 && x < x1 ? x : secant;
+  // The parabola g0 + slope u + curvature u (u - h), u = x - x0, crosses the
+  // target once in (0, h), as the ends lie either side of it.
+  const double x2 = std::log(third->amplitude);
+  const double curvature = ((g(*third) - g1) / (x2 - x1) - slope) / (x2 - x0);
+  const double b = slope - curvature * h, offset = g0 - target;
+  // Its roots q / curvature and offset / q (the stable pair, Numerical Recipes 5.6).
+  const double q =
+      -0.5 * (b + std::copysign(std::sqrt(std::max(b * b - 4 * curvature * offset, 0.0)), b));
+  for (const double u : {offset / q, q / curvature}) {
+    if (u > 0 && u < h) return x0 + u;
+  }
+  return secant;
 }
 
 // Down while the first amplitude is already past a limit, to a little below
@@ -252,10 +261,10 @@ double lowered_start(HeadroomRuns& runs, double first) {
   return amplitude;
 }
 
-// The next drive up from the largest run: the first open limit's predicted
-// crossing, on the curve through the two largest runs, a step of
-// [kLeastStep, kBracketFactor]; kBracketFactor once every limit is crossed
-// or nothing is predicted.
+// The next drive up from the largest run while a limit is open:
+// kPastPrediction past the first open limit's predicted crossing, on the
+// curve through the two largest runs, a step of [kLeastStep,
+// kBracketFactor]; kBracketFactor when nothing is predicted.
 double next_drive_up(const HeadroomRuns& runs) {
   const DriveMeasurement& top = runs.largest();
   double step = kBracketFactor;
@@ -264,7 +273,7 @@ double next_drive_up(const HeadroomRuns& runs) {
     for (int c = 0; c < kCriteria; ++c) {
       if (runs.bracket(Criterion(c)).second != nullptr) continue;
       if (const auto x = extrapolated_crossing(runs, Criterion(c), below, top)) {
-        step = std::min(step, std::exp(*x) / top.amplitude);
+        step = std::min(step, kPastPrediction * std::exp(*x) / top.amplitude);
       }
     }
   }
@@ -272,8 +281,8 @@ double next_drive_up(const HeadroomRuns& runs) {
 }
 
 // Bracket: down while the first amplitude is already past a limit, then up
-// until every limit has been crossed and both sides have stopped growing,
-// or the drive reaches its bound.
+// until every limit has been crossed, then to the drive's bound unless both
+// sides have stopped growing by then.
 void bracket_limits(HeadroomRuns& runs, const DriveBound& bound, double first) {
   runs.at(lowered_start(runs, first));
   const auto done = [&] {
@@ -286,32 +295,38 @@ void bracket_limits(HeadroomRuns& runs, const DriveBound& bound, double first) {
 }
 
 // Criterion `c` narrowed until its bracket is within kTolerance. Each run
-// goes to the interpolated crossing, moved kNudge tolerances toward the end
-// the last run left in place (so that a good prediction lands on the other
-// side of the crossing and closes the bracket) and kept kToleranceStep
+// goes to the interpolated crossing, moved toward the end the last run left
+// in place (so that a good prediction lands on the other side of the
+// crossing and closes the bracket: kNudge tolerances, doubled for every
+// further run that leaves the same end in place, as the Illinois variant of
+// false position halves a stale end's weight) and kept kToleranceStep
 // tolerances from either end; or halfway, on the logarithm of the drive,
-// when the last two runs have not halved the bracket or it is narrower than
-// two such steps.
+// when the last kRunsToHalve runs have not halved the bracket or it is
+// narrower than two such steps.
 void narrow_limit(HeadroomRuns& runs, Criterion c) {
   const double tolerance = std::log1p(kTolerance);
   const double step = kToleranceStep * tolerance;
-  double width_before = std::numeric_limits<double>::infinity();
-  double width_before_that = width_before;
+  std::vector<double> widths;
   const DriveMeasurement* last_ok = nullptr;
+  double nudge = 0;
   for (;;) {
     const auto [ok, bad] = runs.bracket(c);
     if (ok == nullptr || bad == nullptr) return;
     if (bad->amplitude - ok->amplitude <= kTolerance * ok->amplitude) return;
     const double lo = std::log(ok->amplitude), hi = std::log(bad->amplitude);
     const double width = hi - lo;
-    double next = 0.5 * (lo + hi);
-    if (width > 2 * step && width <= kLeastShrink * width_before_that) {
-      const double nudge = last_ok == nullptr ? 0 : last_ok == ok ? -kNudge : kNudge;
-      next = std::clamp(interpolated_crossing(runs, c, *ok, *bad) + nudge * tolerance, lo + step,
-                        hi - step);
+    if (last_ok != nullptr) {
+      // Negative: toward ok, which the last run left in place.
+      const double toward = last_ok == ok ? -1 : 1;
+      nudge = nudge * toward > 0 ? 2 * nudge : toward * kNudge * tolerance;
     }
-    width_before_that = width_before;
-    width_before = width;
+    double next = 0.5 * (lo + hi);
+    const bool halving = widths.size() < kRunsToHalve ||
+                         width <= kLeastShrink * widths[widths.size() - kRunsToHalve];
+    if (width > 2 * step && halving) {
+      next = std::clamp(interpolated_crossing(runs, c, *ok, *bad) + nudge, lo + step, hi - step);
+    }
+    widths.push_back(width);
     last_ok = ok;
     runs.at(std::exp(next));
   }
@@ -320,7 +335,15 @@ void narrow_limit(HeadroomRuns& runs, Criterion c) {
 // Every bracketed limit narrowed to kTolerance, then every plateau halved
 // (on the logarithm of the drive) to kClipTolerance.
 void narrow(HeadroomRuns& runs) {
-  for (int c = 0; c < kCriteria; ++c) narrow_limit(runs, Criterion(c));
+  // From the smallest drive up: the runs narrowing one limit lie below the
+  // brackets of the next, and narrow them.
+  std::vector<std::pair<double, Criterion>> by_drive;
+  for (int c = 0; c < kCriteria; ++c) {
+    if (const auto ok = runs.bracket(Criterion(c)).first)
+      by_drive.emplace_back(ok->amplitude, Criterion(c));
+  }
+  std::sort(by_drive.begin(), by_drive.end());
+  for (const auto& [drive, c] : by_drive) narrow_limit(runs, c);
   for (const bool positive : {true, false}) {
     for (;;) {
       const auto flat = runs.plateau(positive);
