@@ -128,6 +128,8 @@ struct HeadroomResult {
   // the lowest and highest rail for a voltage input (what a driver on those
   // rails can deliver), and never a prediction beyond 1.5 x the largest rail.
   double largest_drive_allowed = 0;
+  // Transient runs, one for each drive tried (a run continued until it
+  // settles is one run).
   int transient_runs = 0;
   // What the search's prepared simulation built and solved: one system and
   // one cold bias point for the whole search (the load-line estimate solves

@@ -332,6 +332,31 @@ void narrow_limit(HeadroomRuns& runs, Criterion c) {
   }
 }
 
+// A side's plateau interval halved (on the logarithm of the drive) until it
+// is within kClipTolerance, and so the interval just below it, where the
+// side still rose: the side stops growing within those two, so its clip
+// level does not depend on how widely the runs below it were spaced.
+void narrow_plateau(HeadroomRuns& runs, bool positive) {
+  const auto wide = [](const DriveMeasurement& lo, const DriveMeasurement& hi) {
+    return hi.amplitude - lo.amplitude > kClipTolerance * lo.amplitude;
+  };
+  for (;;) {
+    const auto flat = runs.plateau(positive);
+    if (!flat) return;
+    const DriveMeasurement &lo = *flat->first, &hi = *flat->second;
+    const auto at = runs.measured().find(lo.amplitude);
+    const DriveMeasurement* rising =
+        at == runs.measured().begin() ? nullptr : &std::prev(at)->second;
+    if (wide(lo, hi)) {
+      runs.at(std::sqrt(lo.amplitude * hi.amplitude));
+    } else if (rising != nullptr && wide(*rising, lo)) {
+      runs.at(std::sqrt(rising->amplitude * lo.amplitude));
+    } else {
+      return;
+    }
+  }
+}
+
 // Every bracketed limit narrowed to kTolerance, then every plateau halved
 // (on the logarithm of the drive) to kClipTolerance.
 void narrow(HeadroomRuns& runs) {
@@ -344,16 +369,7 @@ void narrow(HeadroomRuns& runs) {
   }
   std::sort(by_drive.begin(), by_drive.end());
   for (const auto& [drive, c] : by_drive) narrow_limit(runs, c);
-  for (const bool positive : {true, false}) {
-    for (;;) {
-      const auto flat = runs.plateau(positive);
-      if (!flat || flat->second->amplitude - flat->first->amplitude <=
-                       kClipTolerance * flat->first->amplitude) {
-        break;
-      }
-      runs.at(std::sqrt(flat->first->amplitude * flat->second->amplitude));
-    }
-  }
+  for (const bool positive : {true, false}) narrow_plateau(runs, positive);
 }
 
 // What each side's figures are read from once the runs are done, and the

@@ -146,7 +146,10 @@ DriveMeasurement SineDrive::measure(double amplitude) const {
     }
     // Continued from where it stopped (after whole periods, where the sine
     // is back at its DC value), to twice the length, at least the two
-    // periods the settle check compares.
+    // periods the settle check compares. The continuation starts with its
+    // charges' derivatives at zero, as from a bias point; the limits found
+    // on the follower example and the test stages' follower and class-AB
+    // pair agreed with those of restarted runs to six digits.
     start = end;
     periods = std::max(std::min(total, settle_periods_ - total), kLeastContinuation);
   }
