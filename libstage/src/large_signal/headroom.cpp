@@ -1,11 +1,12 @@
 // The headroom search: bracket each limit by stepping the drive up to where
-// the runs so far predict it is crossed, then narrow it by a safeguarded
-// secant on the curve the criterion follows (near a limit the shortfall and
-// the THD grow like a power of the drive), each bracket closed to 1 % by
-// runs placed just past the predicted crossing; find where each side stops
-// growing by halving the interval where its incremental gain first
-// collapses. Every run is shared by all the searches (headroom_runs), and
-// the limit classifier says what stops each side.
+// the runs so far predict it is crossed, then narrow it by safeguarded
+// interpolation on the curve the criterion follows (near a limit the
+// shortfall and the THD grow like a power of the drive), each bracket closed
+// to 1 % by runs placed just past the predicted crossing; find where each
+// side stops growing by halving the interval where its incremental gain
+// first collapses and the one below it. Every run is shared by all the
+// searches (headroom_runs), and the limit classifier says what stops each
+// side.
 #include "stage/headroom.hpp"
 
 #include <spdlog/spdlog.h>
@@ -357,11 +358,11 @@ void narrow_plateau(HeadroomRuns& runs, bool positive) {
   }
 }
 
-// Every bracketed limit narrowed to kTolerance, then every plateau halved
-// (on the logarithm of the drive) to kClipTolerance.
+// Every bracketed limit narrowed to kTolerance, then every plateau (and
+// the rising interval below it) to kClipTolerance.
 void narrow(HeadroomRuns& runs) {
-  // From the smallest drive up: the runs narrowing one limit lie below the
-  // brackets of the next, and narrow them.
+  // The lowest bracket first: the runs narrowing one limit often fall in
+  // the next one's bracket and narrow it too.
   std::vector<std::pair<double, Criterion>> by_drive;
   for (int c = 0; c < kCriteria; ++c) {
     if (const auto ok = runs.bracket(Criterion(c)).first)
