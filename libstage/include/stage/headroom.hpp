@@ -19,8 +19,10 @@
 // while its peak falls short of the prediction by at most `distortion_limit`
 // (relative), and 1 dB compressed where it falls short by a factor
 // 10^(-1/20). The THD of the whole waveform is held to `distortion_limit`.
-// Each figure's drive is bracketed by doubling, then narrowed (to 1 %, the
-// clip level's to 5 %), every transient run informing every search.
+// Each figure's drive is bracketed by stepping up to where the runs so far
+// predict it, then narrowed by interpolation until a run within it and a
+// run past it are 1 % apart (the clip level's 5 %), every transient run
+// informing every search.
 #pragma once
 
 #include <optional>
@@ -154,6 +156,8 @@ struct HeadroomResult {
   // the lowest and highest rail for a voltage input (what a driver on those
   // rails can deliver), and never a prediction beyond 1.5 x the largest rail.
   double largest_drive_allowed = 0;
+  // Transient runs, one for each drive tried (a run continued until it
+  // settles is one run).
   int transient_runs = 0;
   std::vector<DrivePoint> runs;  // every run, by ascending input amplitude
   // What the search's prepared simulation built and solved: one system and

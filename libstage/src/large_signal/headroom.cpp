@@ -1,18 +1,23 @@
-// The headroom search: bracket each limit by doubling the drive, then narrow
-// it by false position on the logarithm of the deviation (the deviation
-// rises steeply, close to exponentially, past a clipping knee); find where
-// each side stops growing by halving the interval where its incremental gain
-// first collapses. Every run is shared by all the searches (headroom_runs),
-// and the limit classifier says what stops each side.
+// The headroom search: bracket each limit by stepping the drive up to where
+// the runs so far predict it is crossed, then narrow it by safeguarded
+// interpolation on the curve the criterion follows (near a limit the
+// shortfall and the THD grow like a power of the drive), each bracket closed
+// to 1 % by runs placed just past the predicted crossing; find where each
+// side stops growing by halving the interval where its incremental gain
+// first collapses and the one below it. Every run is shared by all the
+// searches (headroom_runs), and the limit classifier says what stops each
+// side.
 #include "stage/headroom.hpp"
 
 #include <spdlog/spdlog.h>
 
 #include <algorithm>
 #include <cmath>
+#include <iterator>
 #include <limits>
 #include <optional>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "circuit/element_kinds.hpp"
@@ -55,29 +60,49 @@ constexpr double kFirstOutputSwing = 0.05;
 // A stage biased off predicts almost no output, hence a huge first drive:
 // its predicted peak is held to the largest rail over this.
 constexpr double kFirstSwingRailDivisor = 20;
-// A first drive already past a limit is halved at most this often (to a
-// sixteenth); a side still past it there is reported beyond it at every
-// amplitude tried.
+// A first drive already past a limit is lowered at most this often, to at
+// most a sixteenth of it; a side still past it there is reported beyond it
+// at every amplitude tried.
 constexpr int kMaxDownSteps = 4;
-// Each limit is bracketed by multiplying the drive by this: a factor of
-// two brackets a range of drives in log2(range) runs.
-constexpr double kBracketFactor = 2.0;
+constexpr double kMostLowered = 1.0 / 16;
+// Lowering aims this far below where the first run predicts the limit (a
+// shortfall or THD growing at least in proportion to the drive), so that
+// the run lands within it.
+constexpr double kBelowPrediction = 0.8;
+// Stepping up aims this far past the first open limit's predicted crossing
+// (a shortfall steepens toward a knee, so the prediction falls short), by a
+// factor of at least kLeastStep (a step is worth a run) and at most
+// kBracketFactor (the prediction is an extrapolation), or by kBracketFactor
+// when nothing is predicted; once every limit is crossed, straight to the
+// largest drive allowed, where a side still growing is read, and whose
+// interval with the run below it is halved when a side has stopped growing
+// in it.
+constexpr double kPastPrediction = 1.15;
+constexpr double kLeastStep = 1.25;
+constexpr double kBracketFactor = 4.0;
+// The exponent of the power law a prediction follows is held to this range
+// (a side's shortfall grows at least like the drive, and a knee seen from
+// far below is no steeper than this).
+constexpr double kLeastExponent = 1.0;
+constexpr double kMostExponent = 4.0;
 // A drive whose prediction is this many times the largest rail has
 // clipped; beyond it an ideal source only forces junctions into the rails.
 constexpr double kClippedPredictionRails = 1.5;
 // Rails below 1 V bound the drive as a 1 V rail would: a circuit with no
 // rail at all would otherwise be allowed no drive.
 constexpr double kSmallestRail = 1.0;
-// False position creeps along one end of a bracket; its next point is kept
-// this fraction of the bracket from either end, so every run shrinks it...
-constexpr double kKeepFromEnds = 0.1;
-// ...and this much once the bracket is within kNarrowBracket tolerances, so
-// that the last few runs close it.
-constexpr double kKeepFromEndsNarrow = 0.25;
-constexpr double kNarrowBracket = 4;
-// A criterion's value may be zero (an undistorted run): its logarithm is
-// taken of at least this.
-constexpr double kLogFloor = 1e-12;
+// Inside a bracket, a run goes to the predicted crossing but no closer to
+// either end than this fraction of the tolerance, so that a good prediction
+// closes the bracket with the next run...
+constexpr double kToleranceStep = 0.9;
+// ...moved this fraction of the tolerance toward the end the last run left
+// in place (doubled while runs keep leaving it there)...
+constexpr double kNudge = 0.45;
+// ...and when kRunsToHalve runs have not halved the bracket (the criterion
+// is not following the curve), the next one halves it, on the logarithm of
+// the drive: never far worse than bisection.
+constexpr std::size_t kRunsToHalve = 3;
+constexpr double kLeastShrink = 0.5;
 // Relative rounding under which the largest drive is the rails' bound.
 constexpr double kSameDrive = 1e-9;
 
@@ -161,60 +186,191 @@ double first_amplitude(const HeadroomOptions& options, const HeadroomRuns& runs,
       bound.largest(runs.gain()));
 }
 
-// Bracket: down while the first amplitude is already past a limit, then up
-// until every limit has been crossed and both sides have stopped growing,
-// or the drive reaches its bound.
-void bracket_limits(HeadroomRuns& runs, const DriveBound& bound, double first) {
-  double amplitude = first;
-  for (int k = 0; k < kMaxDownSteps; ++k) {
-    const auto& m = runs.at(amplitude);
-    if (runs.within(kPositive, m) && runs.within(kNegative, m) && runs.within(kThd, m)) break;
-    amplitude /= kBracketFactor;
+// The logarithm of the drive where criterion `c` is predicted to reach its
+// limit, extrapolated from runs `a` and `b` (a below b): a power of the drive
+// (the exponent held to [kLeastExponent, kMostExponent]) when both values are
+// positive, else a straight line against the logarithm of the drive (a side
+// whose peak overshoots at small drives). Nothing when the value does not
+// rise from `a` to `b`.
+std::optional<double> extrapolated_crossing(const HeadroomRuns& runs, Criterion c,
+                                            const DriveMeasurement& a, const DriveMeasurement& b) {
+  const double va = runs.value(c, a), vb = runs.value(c, b);
+  if (!(vb > va)) return std::nullopt;
+  const double xa = std::log(a.amplitude), xb = std::log(b.amplitude);
+  const double limit = runs.limit(c);
+  if (va > 0) {
+    const double exponent =
+        std::clamp(std::log(vb / va) / (xb - xa), kLeastExponent, kMostExponent);
+    return xb + std::log(limit / vb) / exponent;
   }
+  return xa + (xb - xa) * (limit - va) / (vb - va);
+}
+
+// The logarithm of the drive where criterion `c` is predicted to reach its
+// limit inside its bracket (ok, bad): the value's logarithm (a power law)
+// when every run used is positive, else the value itself, taken against the
+// logarithm of the drive; interpolated on the parabola through the ends and
+// the run nearest them outside, else on the line through the ends.
+double interpolated_crossing(const HeadroomRuns& runs, Criterion c, const DriveMeasurement& ok,
+                             const DriveMeasurement& bad) {
+  const auto& measured = runs.measured();
+  const auto below = measured.find(ok.amplitude), above = measured.find(bad.amplitude);
+  const DriveMeasurement* third = nullptr;
+  if (below != measured.begin()) third = &std::prev(below)->second;
+  if (std::next(above) != measured.end() &&
+      (third == nullptr || std::log(std::next(above)->first / bad.amplitude) <
+                               std::log(ok.amplitude / third->amplitude))) {
+    third = &std::next(above)->second;
+  }
+  const bool power_law = runs.value(c, ok) > 0 && (third == nullptr || runs.value(c, *third) > 0);
+  const auto g = [&](const DriveMeasurement& m) {
+    return power_law ? std::log(runs.value(c, m)) : runs.value(c, m);
+  };
+  const double target = power_law ? std::log(runs.limit(c)) : runs.limit(c);
+  const double x0 = std::log(ok.amplitude), x1 = std::log(bad.amplitude), h = x1 - x0;
+  const double g0 = g(ok), g1 = g(bad);
+  const double slope = (g1 - g0) / h;
+  const double secant = x0 + (target - g0) / slope;
+  if (third == nullptr) return secant;
+  // The parabola g0 + slope u + curvature u (u - h), u = x - x0, crosses the
+  // target once in (0, h), as the ends lie either side of it.
+  const double x2 = std::log(third->amplitude);
+  const double curvature = ((g(*third) - g1) / (x2 - x1) - slope) / (x2 - x0);
+  const double b = slope - curvature * h, offset = g0 - target;
+  // Its roots q / curvature and offset / q (the stable pair, Numerical Recipes 5.6).
+  const double q =
+      -0.5 * (b + std::copysign(std::sqrt(std::max(b * b - 4 * curvature * offset, 0.0)), b));
+  for (const double u : {offset / q, q / curvature}) {
+    if (u > 0 && u < h) return x0 + u;
+  }
+  return secant;
+}
+
+// Down while the first amplitude is already past a limit, to a little below
+// where the run predicts it (its value growing at least like the drive).
+double lowered_start(HeadroomRuns& runs, double first) {
+  double amplitude = first;
+  for (int k = 0; k < kMaxDownSteps && amplitude > first * kMostLowered; ++k) {
+    const auto& m = runs.at(amplitude);
+    double factor = 1;
+    for (const Criterion c : {kPositive, kNegative, kThd}) {
+      if (!runs.within(c, m)) factor = std::min(factor, runs.limit(c) / runs.value(c, m));
+    }
+    if (factor == 1) break;
+    amplitude = std::max(amplitude * kBelowPrediction * factor, first * kMostLowered);
+  }
+  return amplitude;
+}
+
+// The next drive up from the largest run while a limit is open:
+// kPastPrediction past the first open limit's predicted crossing, on the
+// curve through the two largest runs, a step of [kLeastStep,
+// kBracketFactor]; kBracketFactor when nothing is predicted.
+double next_drive_up(const HeadroomRuns& runs) {
+  const DriveMeasurement& top = runs.largest();
+  double step = kBracketFactor;
+  if (runs.measured().size() >= 2) {
+    const DriveMeasurement& below = std::next(runs.measured().rbegin())->second;
+    for (int c = 0; c < kCriteria; ++c) {
+      if (runs.bracket(Criterion(c)).second != nullptr) continue;
+      if (const auto x = extrapolated_crossing(runs, Criterion(c), below, top)) {
+        step = std::min(step, kPastPrediction * std::exp(*x) / top.amplitude);
+      }
+    }
+  }
+  return top.amplitude * std::max(step, kLeastStep);
+}
+
+// Bracket: down while the first amplitude is already past a limit, then up
+// until every limit has been crossed, then to the drive's bound unless both
+// sides have stopped growing by then.
+void bracket_limits(HeadroomRuns& runs, const DriveBound& bound, double first) {
+  runs.at(lowered_start(runs, first));
   const auto done = [&] {
     return runs.all_bracketed() && runs.plateau(true) && runs.plateau(false);
   };
   const auto largest = [&] { return bound.largest(runs.gain()); };
-  for (amplitude = runs.largest().amplitude * kBracketFactor;
-       !done() && amplitude / kBracketFactor < largest(); amplitude *= kBracketFactor) {
-    runs.at(std::min(amplitude, largest()));
+  while (!done() && runs.largest().amplitude < largest() * (1 - kSameDrive)) {
+    runs.at(runs.all_bracketed() ? largest() : std::min(next_drive_up(runs), largest()));
   }
 }
 
-// The next amplitude inside a bracket: where log(value) reaches log(limit)
-// on the line through the two ends, kept away from the ends.
-double false_position(const HeadroomRuns& runs, Criterion c, const DriveMeasurement& ok,
-                      const DriveMeasurement& bad) {
-  const double lo = std::log(std::max(runs.value(c, ok), kLogFloor));
-  const double hi = std::log(std::max(runs.value(c, bad), kLogFloor));
-  const double w = bad.amplitude - ok.amplitude;
-  const double a = ok.amplitude + w * (std::log(runs.limit(c)) - lo) / (hi - lo);
-  const double keep =
-      w < kNarrowBracket * kTolerance * ok.amplitude ? kKeepFromEndsNarrow : kKeepFromEnds;
-  return std::clamp(a, ok.amplitude + keep * w, bad.amplitude - keep * w);
+// Criterion `c` narrowed until its bracket is within kTolerance. Each run
+// goes to the interpolated crossing, moved toward the end the last run left
+// in place (so that a good prediction lands on the other side of the
+// crossing and closes the bracket: kNudge tolerances, doubled for every
+// further run that leaves the same end in place, as the Illinois variant of
+// false position halves a stale end's weight) and kept kToleranceStep
+// tolerances from either end; or halfway, on the logarithm of the drive,
+// when the last kRunsToHalve runs have not halved the bracket or it is
+// narrower than two such steps.
+void narrow_limit(HeadroomRuns& runs, Criterion c) {
+  const double tolerance = std::log1p(kTolerance);
+  const double step = kToleranceStep * tolerance;
+  std::vector<double> widths;
+  const DriveMeasurement* last_ok = nullptr;
+  double nudge = 0;
+  for (;;) {
+    const auto [ok, bad] = runs.bracket(c);
+    if (ok == nullptr || bad == nullptr) return;
+    if (bad->amplitude - ok->amplitude <= kTolerance * ok->amplitude) return;
+    const double lo = std::log(ok->amplitude), hi = std::log(bad->amplitude);
+    const double width = hi - lo;
+    if (last_ok != nullptr) {
+      // Negative: toward ok, which the last run left in place.
+      const double toward = last_ok == ok ? -1 : 1;
+      nudge = nudge * toward > 0 ? 2 * nudge : toward * kNudge * tolerance;
+    }
+    double next = 0.5 * (lo + hi);
+    const bool halving = widths.size() < kRunsToHalve ||
+                         width <= kLeastShrink * widths[widths.size() - kRunsToHalve];
+    if (width > 2 * step && halving) {
+      next = std::clamp(interpolated_crossing(runs, c, *ok, *bad) + nudge, lo + step, hi - step);
+    }
+    widths.push_back(width);
+    last_ok = ok;
+    runs.at(std::exp(next));
+  }
 }
 
-// Every bracketed limit narrowed to kTolerance, then every plateau halved
-// (on the logarithm of the drive) to kClipTolerance.
+// A side's plateau interval halved (on the logarithm of the drive) until it
+// is within kClipTolerance, and so the interval just below it, where the
+// side still rose: the side stops growing within those two, so its clip
+// level does not depend on how widely the runs below it were spaced.
+void narrow_plateau(HeadroomRuns& runs, bool positive) {
+  const auto wide = [](const DriveMeasurement& lo, const DriveMeasurement& hi) {
+    return hi.amplitude - lo.amplitude > kClipTolerance * lo.amplitude;
+  };
+  for (;;) {
+    const auto flat = runs.plateau(positive);
+    if (!flat) return;
+    const DriveMeasurement &lo = *flat->first, &hi = *flat->second;
+    const auto at = runs.measured().find(lo.amplitude);
+    const DriveMeasurement* rising =
+        at == runs.measured().begin() ? nullptr : &std::prev(at)->second;
+    if (wide(lo, hi)) {
+      runs.at(std::sqrt(lo.amplitude * hi.amplitude));
+    } else if (rising != nullptr && wide(*rising, lo)) {
+      runs.at(std::sqrt(rising->amplitude * lo.amplitude));
+    } else {
+      return;
+    }
+  }
+}
+
+// Every bracketed limit narrowed to kTolerance, then every plateau (and
+// the rising interval below it) to kClipTolerance.
 void narrow(HeadroomRuns& runs) {
+  // The lowest bracket first: the runs narrowing one limit often fall in
+  // the next one's bracket and narrow it too.
+  std::vector<std::pair<double, Criterion>> by_drive;
   for (int c = 0; c < kCriteria; ++c) {
-    for (;;) {
-      const auto [ok, bad] = runs.bracket(Criterion(c));
-      if (ok == nullptr || bad == nullptr) break;
-      if (bad->amplitude - ok->amplitude <= kTolerance * ok->amplitude) break;
-      runs.at(false_position(runs, Criterion(c), *ok, *bad));
-    }
+    if (const auto ok = runs.bracket(Criterion(c)).first)
+      by_drive.emplace_back(ok->amplitude, Criterion(c));
   }
-  for (const bool positive : {true, false}) {
-    for (;;) {
-      const auto flat = runs.plateau(positive);
-      if (!flat || flat->second->amplitude - flat->first->amplitude <=
-                       kClipTolerance * flat->first->amplitude) {
-        break;
-      }
-      runs.at(std::sqrt(flat->first->amplitude * flat->second->amplitude));
-    }
-  }
+  std::sort(by_drive.begin(), by_drive.end());
+  for (const auto& [drive, c] : by_drive) narrow_limit(runs, c);
+  for (const bool positive : {true, false}) narrow_plateau(runs, positive);
 }
 
 // What each side's figures are read from once the runs are done, and the

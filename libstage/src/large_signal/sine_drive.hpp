@@ -10,6 +10,7 @@
 #include <utility>
 #include <vector>
 
+#include "analysis/newton.hpp"
 #include "stage/circuit.hpp"
 #include "stage/headroom.hpp"
 #include "stage/signal.hpp"
@@ -66,13 +67,16 @@ class SineDrive {
   // signals kept in each measurement's transient (load current and voltage,
   // for power); `energy_ledger` fills each measurement's element_power.
   // Every run is solved with `solver`.
-  // A measurement simulates whole periods, doubling from four, until the
-  // last two agree or `settle_periods` have run.
+  // A measurement simulates whole periods from the bias point, first as
+  // many as the last one needed (four at first), until the last two agree
+  // or `settle_periods` have run: a run that has not settled is continued
+  // from where it stopped to twice its length.
   SineDrive(const Circuit& circuit, const SolverOptions& solver, std::string input,
             SignalRef output, double frequency, int settle_periods,
             std::vector<SignalRef> record = {}, bool energy_ledger = false);
 
   DriveMeasurement measure(double amplitude) const;
+  // Measurements made: each settles the stage at one drive.
   int runs() const { return runs_; }
   // The prepared simulation every measurement runs on: its bias point is
   // solved once and starts every run; the analyses built on the drive ask
@@ -80,7 +84,10 @@ class SineDrive {
   Simulation& simulation() const { return simulation_; }
 
  private:
-  TransientResult run(double amplitude, int periods, DriveMeasurement& m) const;
+  // `periods` from `start` (empty: the bias point); leaves the state at
+  // the end in `end`.
+  TransientResult run(double amplitude, int periods, const std::vector<double>& start,
+                      DriveMeasurement& m, std::vector<double>& end) const;
 
   // Mutable as runs_ is: each measurement changes the input's waveform and
   // keeps what it solved, not what the drive is.
@@ -95,6 +102,9 @@ class SineDrive {
   const mna::Device* transistor_ = nullptr;  // the circuit's only one, if it has one
   mutable int runs_ = 0;
   mutable int periods_;  // periods the last measurement needed to settle
+  // A Newton solver of the drive's own on the simulation's system, for the
+  // continued runs, which start from a state of their own.
+  mutable analysis::NewtonSolver newton_;
 };
 
 }  // namespace stage::analysis
