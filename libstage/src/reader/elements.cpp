@@ -29,6 +29,8 @@ void Elaborator::element(const ast::Instance& instance, const Frame& frame) {
   });
   const reader::SourceText& source = frame.file->source;
   if (!data) {
+    // Perhaps a block defined further on.
+    if (loader_) throw ReadCarefully{};
     std::vector<std::string> names = kinds::keywords();
     for (const auto& [block, where] : blocks_) names.push_back(block);
     source.fail(instance.call.offset, "unknown element kind or block '" + keyword + "'" +
@@ -46,7 +48,7 @@ void Elaborator::element(const ast::Instance& instance, const Frame& frame) {
     if (e.kind() != ErrorKind::invalid_request) throw;
     taken();
   }
-  deck_.places.add(name, index_of(*frame.file), instance.offset);
+  deck_.places.add(name, frame.file->index, instance.offset);
 }
 
 // Reads each argument into its field, checking a value against its field's
