@@ -57,8 +57,12 @@ template <class E>
 E Elaborator::read_element(const kinds::Descriptor<E>& kind, const kinds::Spelling<E>& spelling,
                            const ast::Instance& instance, const Frame& frame) {
   const reader::SourceText& source = frame.file->source;
-  std::vector<Slot> slots;
-  for (const auto& f : kind.fields) slots.push_back({f.name, f.is_positional, f.is_required});
+  // One list a kind (read_element is instantiated a kind), made once.
+  static const std::vector<Slot> slots = [&] {
+    std::vector<Slot> list;
+    for (const auto& f : kind.fields) list.push_back({f.name, f.is_positional, f.is_required});
+    return list;
+  }();
   const BoundArguments args(instance.call, slots, spelling.keyword, source);
   E e{};
   if (spelling.preset != nullptr) spelling.preset(e);

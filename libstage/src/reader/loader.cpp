@@ -43,7 +43,7 @@ void count_instances(SyntaxTree::File& file) {
       while (blank(i)) ++i;
       if (i < end && text[i] == '=') {
         ++file.instances;
-        file.instance_name_bytes += name_end - name + 1;
+        file.instance_name_bytes += name_end - name;
       }
     }
     line = end + 1;
@@ -80,6 +80,7 @@ std::string read_whole(const fs::path& path, const SourceLocation& from,
   // to check first (`/dev/zero` never ends).
   constexpr std::size_t kPiece = 1 << 20;
   std::string text;
+  if (!ec) text.reserve(size + kPiece);  // grown once, when the size is known
   while (in) {
     const std::size_t had = text.size();
     text.resize(had + kPiece);

@@ -81,7 +81,6 @@ void Places::reserve(std::size_t count, std::size_t name_bytes) {
 void Places::add(std::string_view subject, int file, int offset) {
   entries_.push_back({static_cast<std::uint32_t>(names_.size()), file, offset});
   names_.append(subject);
-  names_.push_back('\0');
   index_.added(entries_.size() - 1, entries_.size(), names());
 }
 

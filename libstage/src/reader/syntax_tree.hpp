@@ -28,7 +28,7 @@ class SyntaxTree {
     std::map<int, int> includes;
     // Its lines of the form `name = …`: the elements and block instances it
     // writes (counted before it is parsed, to make room for them), and
-    // their names' lengths plus one each.
+    // their names' lengths.
     std::size_t instances = 0;
     std::size_t instance_name_bytes = 0;
   };
