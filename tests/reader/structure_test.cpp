@@ -112,6 +112,27 @@ TEST(Blocks, UsableAboveTheirDefinition) {
   EXPECT_DOUBLE_EQ(std::get<Resistor>(again.elements()[1].data).resistance, 5000);
 }
 
+TEST(Errors, LinesAreCountedFarIntoALongFile) {
+  // Lines and columns counted by hand: 130 elements with comments, then a
+  // call written over three lines (its newlines inside the brackets count),
+  // then the line at fault.
+  std::string text;
+  for (int k = 1; k <= 130; ++k) {
+    text += "r" + std::to_string(k) + " = resistor(a, b, 1k)  # µ comment\n";
+  }
+  text += "c = capacitor(a,\n  b,\n  1 nF)\n";
+  try {
+    read(text + "bad = resistor(a, b, 1 nF)\n");
+    FAIL();
+  } catch (const InputError& e) {
+    EXPECT_EQ(e.where().line, 134) << e.what();
+    EXPECT_EQ(e.where().column, 22) << e.what();
+    EXPECT_NE(std::string(e.what()).find("\nbad = resistor(a, b, 1 nF)\n"), std::string::npos)
+        << e.what();
+  }
+  expect_error(text + "r5 = resistor(a, b, 1k) # µ\n", 134, 1, "already exists");
+}
+
 TEST(Errors, SyntaxIsReportedBeforeMeaning) {
   // Every file is checked for syntax before any statement is given meaning,
   // so a syntax error below a wrong value is the one reported.
