@@ -79,6 +79,9 @@ class Places {
   // Records that `subject`, not recorded before, was written at `offset` in
   // the tree's file number `file`.
   void add(std::string_view subject, int file, int offset);
+  // Indexes the subjects recorded, all at once (cheaper than one by one, as
+  // the index then stays in the cache): find() sees those indexed.
+  void index();
 
  private:
   struct Entry {

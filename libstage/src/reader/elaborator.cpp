@@ -52,6 +52,7 @@ void Elaborator::run() {
   const File& main = tree_.files.front();
   if (!loader_) collect_blocks(main);
   file_statements(main);
+  deck_.places.index();
   check_references();
   std::vector<std::string> overridden;
   for (const auto& [name, value] : options_.overrides) overridden.push_back(name);

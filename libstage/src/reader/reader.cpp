@@ -75,14 +75,14 @@ Places::const_iterator Places::find(const std::string& subject) const {
 void Places::reserve(std::size_t count, std::size_t name_bytes) {
   entries_.reserve(count);
   names_.reserve(name_bytes);
-  index_.rebuild(entries_.size(), names(), count);
 }
 
 void Places::add(std::string_view subject, int file, int offset) {
   entries_.push_back({static_cast<std::uint32_t>(names_.size()), file, offset});
   names_.append(subject);
-  index_.added(entries_.size() - 1, entries_.size(), names());
 }
+
+void Places::index() { index_.rebuild(entries_.size(), names(), entries_.size()); }
 
 std::string Deck::line_text(const SourceLocation& where) const {
   if (!tree) return {};
