@@ -6,6 +6,8 @@
 #include "reader/source_text.hpp"
 
 #include <algorithm>
+#include <array>
+#include <string_view>
 
 namespace stage::reader {
 
@@ -98,6 +100,20 @@ int utf8_length(const std::string& s, std::size_t i) {
   return length;
 }
 
+// ASCII that opens, closes, starts or ends nothing: bytes prepare() passes
+// over outside comments and strings.
+bool is_plain(char c) {
+  static constexpr auto kPlain = [] {
+    std::array<bool, 256> plain{};
+    for (int b = 1; b < 0x80; ++b) plain[b] = true;
+    for (const char special : std::string_view("\n\r#\"(){}")) {
+      plain[static_cast<unsigned char>(special)] = false;
+    }
+    return plain;
+  }();
+  return kPlain[static_cast<unsigned char>(c)];
+}
+
 }  // namespace
 
 void SourceText::replace(int offset, int length, char by) {
@@ -122,6 +138,11 @@ void SourceText::prepare() {
   std::vector<Open> open;
   bool in_comment = false, in_string = false;
   for (std::size_t i = 0; i < s.size();) {
+    // Runs of bytes that need nothing (most of a text) are passed at once.
+    if (!in_comment && !in_string) {
+      while (i < s.size() && is_plain(s[i])) ++i;
+      if (i == s.size()) break;
+    }
     const int length = utf8_length(s, i);
     const int offset = static_cast<int>(i);
     if (length == 0) fail(offset, "this byte is not valid UTF-8 text");
