@@ -17,9 +17,7 @@ namespace x3 = boost::spirit::x3;
 namespace {
 // Deeper block nesting than this is surely a mistake; it also bounds recursion.
 constexpr std::size_t kMaxBlockDepth = 50;
-}  // namespace
 
-namespace {
 Deck elaborate_with(std::shared_ptr<const SyntaxTree> tree, reader::Loader* loader,
                     const ReadOptions& options) {
   Deck deck;
