@@ -8,8 +8,7 @@
 //                        operator new/delete, at malloc_usable_size, so they
 //                        are what the allocator hands out, not page-level RSS.
 // And the grammar's share: the statements of the 100k ladder parsed alone
-// (reading parses each statement twice: once to check the files and find
-// blocks and includes, once as it is elaborated).
+// (reading parses each statement once, as it is elaborated).
 #include <benchmark/benchmark.h>
 #include <malloc.h>
 

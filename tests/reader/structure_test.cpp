@@ -97,6 +97,51 @@ TEST(Blocks, NestedAndRecursive) {
                "contains itself: a -> b -> a");
 }
 
+TEST(Blocks, UsableAboveTheirDefinition) {
+  // Spec section 9: blocks may be used before their definition.
+  const Deck deck = read(
+      "let rx = 3k\nr0 = resistor(top, gnd, 1k)\nx = divider(top, r = rx)\n"
+      "block divider(a; r = 1k)\n  r1 = resistor(a, mid, r)\nend\n");
+  EXPECT_EQ(element<Resistor>(deck, "x/r1").b, "x/mid");
+  EXPECT_DOUBLE_EQ(element<Resistor>(deck, "x/r1").resistance, 3000);
+  // Elements keep the order they are written in, the block's where it is used.
+  ASSERT_EQ(deck.circuit.elements().size(), 2u);
+  EXPECT_EQ(deck.circuit.elements()[1].name, "x/r1");
+  // Elaborated again from what was kept of the text.
+  const Circuit again = deck.with_parameter("rx", 5000);
+  EXPECT_DOUBLE_EQ(std::get<Resistor>(again.elements()[1].data).resistance, 5000);
+}
+
+TEST(Errors, LinesAreCountedFarIntoALongFile) {
+  // Lines and columns counted by hand: 130 elements with comments, then a
+  // call written over three lines (its newlines inside the brackets count),
+  // then the line at fault.
+  std::string text;
+  for (int k = 1; k <= 130; ++k) {
+    text += "r" + std::to_string(k) + " = resistor(a, b, 1k)  # µ comment\n";
+  }
+  text += "c = capacitor(a,\n  b,\n  1 nF)\n";
+  try {
+    read(text + "bad = resistor(a, b, 1 nF)\n");
+    FAIL();
+  } catch (const InputError& e) {
+    EXPECT_EQ(e.where().line, 134) << e.what();
+    EXPECT_EQ(e.where().column, 22) << e.what();
+    EXPECT_NE(std::string(e.what()).find("\nbad = resistor(a, b, 1 nF)\n"), std::string::npos)
+        << e.what();
+  }
+  expect_error(text + "r5 = resistor(a, b, 1k) # µ\n", 134, 1, "already exists");
+}
+
+TEST(Errors, SyntaxIsReportedBeforeMeaning) {
+  // Every file is checked for syntax before any statement is given meaning,
+  // so a syntax error below a wrong value is the one reported.
+  expect_error("r1 = resistor(a, b, 1 nF)\nr2 = resistor(a b)\n", 2, 17, "expected");
+  // And a block's definition is checked before the statements above it.
+  expect_error("r1 = resistor(a, b, 1 nF)\nblock resistor(p)\nend\n", 2, 1,
+               "cannot be named like the element kind");
+}
+
 class Includes : public ::testing::Test {
  protected:
   void SetUp() override {

@@ -74,11 +74,14 @@ class Places {
   bool empty() const { return entries_.empty(); }
 
   // Internal, for the reader. Makes room for `count` subjects in all, whose
-  // names take `name_bytes` with one more each.
+  // names take `name_bytes`.
   void reserve(std::size_t count, std::size_t name_bytes);
   // Records that `subject`, not recorded before, was written at `offset` in
   // the tree's file number `file`.
   void add(std::string_view subject, int file, int offset);
+  // Indexes the subjects recorded, all at once (cheaper than one by one, as
+  // the index then stays in the cache): find() sees those indexed.
+  void index();
 
  private:
   struct Entry {
@@ -86,13 +89,16 @@ class Places {
     int file;
     int offset;
   };
-  // The names index_ reads.
+  // The names index_ reads; each ends where the next begins.
   auto names() const {
-    return [this](std::size_t k) { return std::string_view(names_.data() + entries_[k].name); };
+    return [this](std::size_t k) {
+      const std::size_t end = k + 1 < entries_.size() ? entries_[k + 1].name : names_.size();
+      return std::string_view(names_.data() + entries_[k].name, end - entries_[k].name);
+    };
   }
 
   std::shared_ptr<const SyntaxTree> tree_;
-  std::string names_;  // the subjects, each ended by a NUL
+  std::string names_;  // the subjects, one after another
   std::vector<Entry> entries_;
   detail::NameIndex index_;
 };

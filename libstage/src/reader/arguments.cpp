@@ -10,7 +10,7 @@ namespace x3 = boost::spirit::x3;
 
 BoundArguments::BoundArguments(const ast::Call& call, std::span<const Slot> slots,
                                std::string_view what, const reader::SourceText& source)
-    : slots_(slots.begin(), slots.end()), given_(slots.size(), nullptr), call_offset_(call.offset) {
+    : slots_(slots), given_(slots.size(), nullptr), call_offset_(call.offset) {
   std::size_t position = 0;
   bool seen_key = false;
   for (const ast::Argument& argument : call.arguments) {

@@ -5,6 +5,7 @@
 // Also reading names out of expressions: nodes, hierarchical names, keywords.
 #pragma once
 
+#include <boost/container/small_vector.hpp>
 #include <optional>
 #include <span>
 #include <string>
@@ -24,7 +25,8 @@ struct Slot {
 
 class BoundArguments {
  public:
-  // `what` names the call in messages ("resistor", "analyze sweep").
+  // `what` names the call in messages ("resistor", "analyze sweep");
+  // `slots` must outlive the binding.
   BoundArguments(const ast::Call& call, std::span<const Slot> slots, std::string_view what,
                  const reader::SourceText& source);
 
@@ -34,8 +36,9 @@ class BoundArguments {
   int offset(std::string_view name) const;
 
  private:
-  std::vector<Slot> slots_;  // a copy: callers often pass a temporary
-  std::vector<const ast::Argument*> given_;
+  std::span<const Slot> slots_;
+  // By slot; inline, as an element has a few (no allocation per element).
+  boost::container::small_vector<const ast::Argument*, 12> given_;
   int call_offset_;
 };
 

@@ -17,20 +17,30 @@ namespace x3 = boost::spirit::x3;
 namespace {
 // Deeper block nesting than this is surely a mistake; it also bounds recursion.
 constexpr std::size_t kMaxBlockDepth = 50;
-}  // namespace
 
-Deck elaborate(std::shared_ptr<const SyntaxTree> tree, const ReadOptions& options) {
+Deck elaborate_with(std::shared_ptr<const SyntaxTree> tree, reader::Loader* loader,
+                    const ReadOptions& options) {
   Deck deck;
   deck.options = options;
   deck.tree = tree;
   deck.file = tree->files.front().source.file_name();
   deck.places = Places(tree);
-  Elaborator(*tree, deck.options, deck).run();
+  Elaborator(*tree, loader, deck.options, deck).run();
   return deck;
 }
+}  // namespace
 
-Elaborator::Elaborator(const SyntaxTree& tree, const ReadOptions& options, Deck& deck)
-    : tree_(tree), options_(options), deck_(deck) {}
+Deck elaborate(std::shared_ptr<const SyntaxTree> tree, const ReadOptions& options) {
+  return elaborate_with(std::move(tree), nullptr, options);
+}
+
+Deck read(std::shared_ptr<SyntaxTree> tree, reader::Loader& loader, const ReadOptions& options) {
+  return elaborate_with(std::move(tree), &loader, options);
+}
+
+Elaborator::Elaborator(const SyntaxTree& tree, reader::Loader* loader, const ReadOptions& options,
+                       Deck& deck)
+    : tree_(tree), loader_(loader), options_(options), deck_(deck) {}
 
 void Elaborator::fail(const Frame& frame, int offset, const std::string& message) const {
   frame.file->source.fail(offset, message);
@@ -38,10 +48,9 @@ void Elaborator::fail(const Frame& frame, int offset, const std::string& message
 
 void Elaborator::run() {
   const File& main = tree_.files.front();
-  collect_blocks(main);
-  deck_.circuit.reserve(tree_.instances);
-  deck_.places.reserve(tree_.instances, tree_.instance_name_bytes);
+  if (!loader_) collect_blocks(main);
   file_statements(main);
+  deck_.places.index();
   check_references();
   std::vector<std::string> overridden;
   for (const auto& [name, value] : options_.overrides) overridden.push_back(name);
@@ -57,24 +66,12 @@ void Elaborator::run() {
   for (const auto& [file, analyze] : analyses_) analysis(analyze, *file);
 }
 
-// Blocks may be used before they are defined, so they are gathered first.
+// Blocks may be used before they are defined, so a loaded tree's are
+// gathered first.
 void Elaborator::collect_blocks(const File& file) {
   for (const ast::Statement& statement : file.blocks_and_includes) {
     if (const auto* b = boost::get<x3::forward_ast<ast::Block>>(&statement)) {
-      const ast::Block& block = b->get();
-      const std::vector<std::string> keywords = kinds::keywords();
-      if (std::find(keywords.begin(), keywords.end(), block.name) != keywords.end()) {
-        file.source.fail(block.offset,
-                         "a block cannot be named like the element kind '" + block.name + "'");
-      }
-      if (!blocks_.emplace(block.name, std::make_pair(&file, &block)).second) {
-        file.source.fail(block.offset, "a block named '" + block.name + "' is already defined");
-      }
-      for (const ast::Statement& inner : block.body) {
-        if (boost::get<x3::forward_ast<ast::Block>>(&inner)) {
-          file.source.fail(ast::offset_of(inner), "blocks are defined outside other blocks");
-        }
-      }
+      define_block(file, b->get());
     } else if (const auto* include = boost::get<ast::Include>(&statement)) {
       const int index = file.includes.at(include->offset);
       if (index >= 0) collect_blocks(tree_.files[index]);
@@ -82,14 +79,46 @@ void Elaborator::collect_blocks(const File& file) {
   }
 }
 
-// A file's statements are parsed again here one at a time (the loader
-// checked their syntax) and dropped once elaborated.
-void Elaborator::file_statements(const File& file) {
-  const Frame frame{&file, "", {}, &globals_, {}};
-  reader::StatementStream stream(file.source);
-  while (const std::optional<ast::Statement> statement = stream.next()) {
-    this->statement(*statement, frame);
+void Elaborator::define_block(const File& file, const ast::Block& block) {
+  const std::vector<std::string> keywords = kinds::keywords();
+  if (std::find(keywords.begin(), keywords.end(), block.name) != keywords.end()) {
+    file.source.fail(block.offset,
+                     "a block cannot be named like the element kind '" + block.name + "'");
   }
+  if (!blocks_.emplace(block.name, std::make_pair(&file, &block)).second) {
+    file.source.fail(block.offset, "a block named '" + block.name + "' is already defined");
+  }
+  for (const ast::Statement& inner : block.body) {
+    if (boost::get<x3::forward_ast<ast::Block>>(&inner)) {
+      file.source.fail(ast::offset_of(inner), "blocks are defined outside other blocks");
+    }
+  }
+}
+
+// A file's statements are parsed here one at a time and dropped once
+// elaborated; when files are loaded as they are met, its blocks and includes
+// are handed to the tree (for Deck::with_parameter) as they are read.
+void Elaborator::file_statements(const File& file) {
+  if (file.instances > 0) {
+    room_ += file.instances;
+    room_name_bytes_ += file.instance_name_bytes;
+    deck_.circuit.reserve(room_);
+    deck_.places.reserve(room_, room_name_bytes_);
+  }
+  const Frame frame{&file, "", {}, &globals_, {}};
+  if (loader_) loader_->enter(file.index);
+  reader::StatementStream stream(file.source);
+  while (std::optional<ast::Statement> statement = stream.next()) {
+    const bool block = boost::get<x3::forward_ast<ast::Block>>(&*statement) != nullptr;
+    if (loader_ && (block || boost::get<ast::Include>(&*statement))) {
+      const ast::Statement& kept = loader_->keep(file.index, std::move(*statement));
+      if (block) define_block(file, boost::get<x3::forward_ast<ast::Block>>(kept).get());
+      this->statement(kept, frame);
+    } else {
+      this->statement(*statement, frame);
+    }
+  }
+  if (loader_) loader_->leave();
 }
 
 void Elaborator::statements(const std::vector<ast::Statement>& list, const Frame& frame) {
@@ -113,7 +142,8 @@ void Elaborator::statement(const ast::Statement& statement, const Frame& frame) 
     let(*l, frame, scope);
   } else if (const auto* include = boost::get<ast::Include>(&statement)) {
     top_only("include");
-    const int index = frame.file->includes.at(include->offset);
+    const int index = loader_ ? loader_->open(frame.file->index, *include)
+                              : frame.file->includes.at(include->offset);
     if (index >= 0) file_statements(tree_.files[index]);
   } else if (const auto* t = boost::get<ast::Temperature>(&statement)) {
     top_only("temperature");
@@ -137,7 +167,7 @@ void Elaborator::statement(const ast::Statement& statement, const Frame& frame) 
       element(*instance, frame);
     }
   }
-  // Block definitions were gathered by collect_blocks().
+  // Block definitions were gathered by collect_blocks() or define_block().
 }
 
 void Elaborator::let(const ast::Let& let, const Frame& frame, reader::Scope& scope) {

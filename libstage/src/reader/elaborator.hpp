@@ -17,16 +17,28 @@
 #include "circuit/element_kinds.hpp"
 #include "reader/arguments.hpp"
 #include "reader/expression.hpp"
+#include "reader/loader.hpp"
 #include "reader/syntax_tree.hpp"
 #include "stage/reader.hpp"
 
 namespace stage::elaborate {
 
+// Elaborates a tree whose files are all loaded (Loader::load).
 Deck elaborate(std::shared_ptr<const SyntaxTree> tree, const ReadOptions& options);
+
+// Elaborates the tree's main file as it is parsed, statement by statement,
+// opening includes through `loader` where they stand and adding their files,
+// blocks and includes to the tree. Throws ReadCarefully where a block is used
+// before its definition (that needs the whole deck loaded first).
+Deck read(std::shared_ptr<SyntaxTree> tree, reader::Loader& loader, const ReadOptions& options);
+struct ReadCarefully {};
 
 class Elaborator {
  public:
-  Elaborator(const SyntaxTree& tree, const ReadOptions& options, Deck& deck);
+  // With a `loader`, files are loaded as their includes are met (read());
+  // without, the tree is complete (elaborate()).
+  Elaborator(const SyntaxTree& tree, reader::Loader* loader, const ReadOptions& options,
+             Deck& deck);
   void run();
 
  private:
@@ -59,6 +71,7 @@ class Elaborator {
 
   // elaborator.cpp: the walk over statements.
   void collect_blocks(const File& file);
+  void define_block(const File& file, const ast::Block& block);
   void file_statements(const File& file);
   void statements(const std::vector<ast::Statement>& list, const Frame& frame);
   void statement(const ast::Statement& statement, const Frame& frame);
@@ -80,8 +93,6 @@ class Elaborator {
   bool has_node(const std::string& name) const;
   std::vector<std::string> node_names() const;
   [[noreturn]] void fail(const Frame& frame, int offset, const std::string& message) const;
-  // The number of a file in the tree (for Deck::places).
-  int index_of(const File& file) const { return static_cast<int>(&file - tree_.files.data()); }
 
   // elements.cpp: element statements, read through their kind's descriptor.
   void element(const ast::Instance& instance, const Frame& frame);
@@ -105,6 +116,7 @@ class Elaborator {
   std::string existing_element(const ast::Expr& e, const File& file, bool source_only) const;
 
   const SyntaxTree& tree_;
+  reader::Loader* loader_;
   const ReadOptions& options_;
   Deck& deck_;
   reader::Scope globals_;
@@ -119,6 +131,9 @@ class Elaborator {
   std::vector<Reference> references_;
   std::vector<std::pair<const File*, ast::Analyze>> analyses_;  // read last
   bool have_title_ = false;
+  // Room made so far in the circuit and its places (file by file).
+  std::size_t room_ = 0;
+  std::size_t room_name_bytes_ = 0;
 };
 
 }  // namespace stage::elaborate

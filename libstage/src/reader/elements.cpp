@@ -29,6 +29,8 @@ void Elaborator::element(const ast::Instance& instance, const Frame& frame) {
   });
   const reader::SourceText& source = frame.file->source;
   if (!data) {
+    // Perhaps a block defined further on.
+    if (loader_) throw ReadCarefully{};
     std::vector<std::string> names = kinds::keywords();
     for (const auto& [block, where] : blocks_) names.push_back(block);
     source.fail(instance.call.offset, "unknown element kind or block '" + keyword + "'" +
@@ -46,7 +48,7 @@ void Elaborator::element(const ast::Instance& instance, const Frame& frame) {
     if (e.kind() != ErrorKind::invalid_request) throw;
     taken();
   }
-  deck_.places.add(name, index_of(*frame.file), instance.offset);
+  deck_.places.add(name, frame.file->index, instance.offset);
 }
 
 // Reads each argument into its field, checking a value against its field's
@@ -55,8 +57,12 @@ template <class E>
 E Elaborator::read_element(const kinds::Descriptor<E>& kind, const kinds::Spelling<E>& spelling,
                            const ast::Instance& instance, const Frame& frame) {
   const reader::SourceText& source = frame.file->source;
-  std::vector<Slot> slots;
-  for (const auto& f : kind.fields) slots.push_back({f.name, f.is_positional, f.is_required});
+  // One list a kind (read_element is instantiated a kind), made once.
+  static const std::vector<Slot> slots = [&] {
+    std::vector<Slot> list;
+    for (const auto& f : kind.fields) list.push_back({f.name, f.is_positional, f.is_required});
+    return list;
+  }();
   const BoundArguments args(instance.call, slots, spelling.keyword, source);
   E e{};
   if (spelling.preset != nullptr) spelling.preset(e);

@@ -110,6 +110,7 @@ x3::rule<class identifier_r, std::string> const identifier = "a name";
 x3::rule<struct number_r, ast::Number> const number = "a number";
 x3::rule<struct name_r, ast::Name> const name = "a name";
 x3::rule<struct expression_r, ast::Expr> const expression = "an expression";
+x3::rule<struct plain_value_r, ast::Expr> const plain_value = "a value";
 x3::rule<struct additive_r, ast::Expr> const additive = "an expression";
 x3::rule<struct add_operation_r, ast::Operation> const add_operation = "'+' or '-'";
 x3::rule<struct multiplicative_r, ast::Expr> const multiplicative = "an expression";
@@ -156,7 +157,12 @@ const auto number_def =
     raw[lexeme[digits_and_point >> -exponent >> *blank >> -unit_word]][matched_text];
 const auto name_def = raw[lexeme[name_chars >> -('.' >> name_chars)]][matched_text];
 
-const auto expression_def = additive;
+// Most values are a plain number or name: read at once, without descending
+// through the operator levels (that build and move a node at each), when what
+// follows shows the value is whole. Otherwise the levels read it afresh.
+const auto value_end = lit(',') | ')' | '}' | eol | eoi;
+const auto plain_value_def = (number | name) >> &value_end;
+const auto expression_def = plain_value | additive;
 const auto additive_def = multiplicative[operand] >> -(+add_operation)[chained];
 const auto add_operation_def = char_("+-") >> multiplicative;
 const auto multiplicative_def = unary[operand] >> -(+mul_operation)[chained];
@@ -200,11 +206,11 @@ const auto statement_line_def = statement > statement_end;
 const auto statement_end_def = line_end >> *eol;
 const auto line_end_def = eol | eoi;
 
-BOOST_SPIRIT_DEFINE(identifier, number, name, expression, additive, add_operation, multiplicative,
-                    mul_operation, unary, power, power_operation, primary, tuple, call, arguments,
-                    argument, keyed_argument, positional_argument, quoted, title, let, include,
-                    temperature, solver, instance, model, model_body, analyze, block, ports,
-                    defaults, statement, statement_line, statement_end, block_body, line_end,
+BOOST_SPIRIT_DEFINE(identifier, number, name, expression, plain_value, additive, add_operation,
+                    multiplicative, mul_operation, unary, power, power_operation, primary, tuple,
+                    call, arguments, argument, keyed_argument, positional_argument, quoted, title,
+                    let, include, temperature, solver, instance, model, model_body, analyze, block,
+                    ports, defaults, statement, statement_line, statement_end, block_body, line_end,
                     block_end)
 
 #define STAGE_ANNOTATE(r) \
@@ -212,6 +218,7 @@ BOOST_SPIRIT_DEFINE(identifier, number, name, expression, additive, add_operatio
 STAGE_ANNOTATE(number_r)
 STAGE_ANNOTATE(name_r)
 STAGE_ANNOTATE(expression_r)
+STAGE_ANNOTATE(plain_value_r)
 STAGE_ANNOTATE(additive_r)
 STAGE_ANNOTATE(add_operation_r)
 STAGE_ANNOTATE(multiplicative_r)

@@ -64,7 +64,7 @@ void Elaborator::model(const ast::Model& m, const Frame& frame) {
         read_parameters(kinds::ModelKindOf<Model>::descriptor, m, entry, frame);
       },
       entry.parameters);
-  deck_.places.add("model " + m.name, index_of(*frame.file), m.offset);
+  deck_.places.add("model " + m.name, frame.file->index, m.offset);
   // The circuit gets the model settled; a model derived from it later starts
   // from the parameters as written.
   AnyModel settled = entry.parameters;

@@ -6,6 +6,8 @@
 #include "reader/source_text.hpp"
 
 #include <algorithm>
+#include <array>
+#include <string_view>
 
 namespace stage::reader {
 
@@ -30,21 +32,34 @@ std::string SourceText::written(int begin, int end) const {
 
 SourceLocation SourceText::location(int offset) const {
   offset = std::clamp(offset, 0, static_cast<int>(text_.size()));
-  const auto next = std::upper_bound(line_starts_.begin(), line_starts_.end(), offset);
-  const int line = static_cast<int>(next - line_starts_.begin());
+  const auto next = std::upper_bound(marks_.begin(), marks_.end(), offset);
+  const auto mark = static_cast<int>(next - marks_.begin()) - 1;
+  const std::string before = written(marks_[mark], offset);
+  const auto newlines = static_cast<int>(std::count(before.begin(), before.end(), '\n'));
   int column = 1;
-  for (const char c : written(line_starts_[line - 1], offset)) {
-    if ((static_cast<unsigned char>(c) & 0xC0) != 0x80) ++column;
+  for (std::size_t i = before.rfind('\n') + 1; i < before.size(); ++i) {
+    if ((static_cast<unsigned char>(before[i]) & 0xC0) != 0x80) ++column;
   }
-  return {file_name_, line, column};
+  return {file_name_, mark * kLinesPerMark + 1 + newlines, column};
+}
+
+int SourceText::line_start(int line) const {
+  if (line < 1 || line > lines_) return -1;
+  const int mark = (line - 1) / kLinesPerMark;
+  const int from = marks_[mark];
+  const int to = mark + 1 < static_cast<int>(marks_.size()) ? marks_[mark + 1]
+                                                            : static_cast<int>(text_.size());
+  const std::string part = written(from, to);
+  std::size_t start = 0;
+  for (int k = (line - 1) % kLinesPerMark; k > 0; --k) start = part.find('\n', start) + 1;
+  return from + static_cast<int>(start);
 }
 
 std::string SourceText::line_text(int line) const {
-  if (line < 1 || line > static_cast<int>(line_starts_.size())) return {};
-  const int begin = line_starts_[line - 1];
-  const int end = line < static_cast<int>(line_starts_.size()) ? line_starts_[line]
-                                                               : static_cast<int>(text_.size());
-  std::string text = written(begin, end);
+  const int begin = line_start(line);
+  if (begin < 0) return {};
+  const int next = line_start(line + 1);
+  std::string text = written(begin, next < 0 ? static_cast<int>(text_.size()) : next);
   text.erase(std::min(text.find_first_of("\r\n"), text.size()));
   return text;
 }
@@ -85,6 +100,20 @@ int utf8_length(const std::string& s, std::size_t i) {
   return length;
 }
 
+// ASCII that opens, closes, starts or ends nothing: bytes prepare() passes
+// over outside comments and strings.
+bool is_plain(char c) {
+  static constexpr auto kPlain = [] {
+    std::array<bool, 256> plain{};
+    for (int b = 1; b < 0x80; ++b) plain[b] = true;
+    for (const char special : std::string_view("\n\r#\"(){}")) {
+      plain[static_cast<unsigned char>(special)] = false;
+    }
+    return plain;
+  }();
+  return kPlain[static_cast<unsigned char>(c)];
+}
+
 }  // namespace
 
 void SourceText::replace(int offset, int length, char by) {
@@ -101,7 +130,7 @@ void SourceText::prepare() {
   // Deep enough for any real circuit, shallow enough for the grammar's stack.
   constexpr std::size_t kMaxNesting = 100;
   const std::string& s = text_;
-  line_starts_.push_back(0);
+  marks_.push_back(0);
   struct Open {
     char bracket;
     int offset;
@@ -109,12 +138,17 @@ void SourceText::prepare() {
   std::vector<Open> open;
   bool in_comment = false, in_string = false;
   for (std::size_t i = 0; i < s.size();) {
+    // Runs of bytes that need nothing (most of a text) are passed at once.
+    if (!in_comment && !in_string) {
+      while (i < s.size() && is_plain(s[i])) ++i;
+      if (i == s.size()) break;
+    }
     const int length = utf8_length(s, i);
     const int offset = static_cast<int>(i);
     if (length == 0) fail(offset, "this byte is not valid UTF-8 text");
     const char c = s[i];
     if (c == '\0') fail(offset, "a NUL character is not allowed in a circuit description");
-    if (c == '\n') line_starts_.push_back(offset + 1);
+    if (c == '\n' && lines_++ % kLinesPerMark == 0) marks_.push_back(offset + 1);
     if (c == '\n' || c == '\r') {
       in_comment = in_string = false;
       if (!open.empty()) replace(offset, 1, '\f');  // skipped, but ends a number's unit

@@ -43,13 +43,18 @@ class SourceText {
   void replace(int offset, int length, char by);
   // The text as written from `begin` to `end`.
   std::string written(int begin, int end) const;
+  // Where line `line` (from 1) starts, or -1 when there is no such line.
+  int line_start(int line) const;
 
   std::string file_name_;
   std::string text_;
   std::vector<Replaced> replaced_;  // by offset
-  // Where each line of the text as written starts (4 bytes a line), so that
-  // an offset finds its line by bisection however many are asked for.
-  std::vector<int> line_starts_;
+  // Where every kLinesPerMark-th line of the text as written starts (lines
+  // 1, 1 + k, 1 + 2k, …), so that an offset finds its line by bisection and
+  // a count over a few lines, with a few bytes kept per thousand lines.
+  static constexpr int kLinesPerMark = 64;
+  std::vector<int> marks_;
+  int lines_ = 1;
 };
 
 }  // namespace stage::reader
