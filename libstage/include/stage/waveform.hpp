@@ -61,4 +61,9 @@ double waveform_value(const Waveform& wave, double t);
 // slope changes abruptly (pulse edges, piecewise points, a sine's start).
 void waveform_corners(const Waveform& wave, double from, double to, std::vector<double>& corners);
 
+// How many corners waveform_corners() would find in (0, to], counted without
+// listing them (at most one more than there are), so that a request can be
+// refused before a transient collects more than it can hold.
+double waveform_corner_count(const Waveform& wave, double to);
+
 }  // namespace stage

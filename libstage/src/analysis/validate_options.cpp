@@ -15,6 +15,7 @@ constexpr double kMaxSweepPoints = 1e6;
 constexpr double kMaxFrequencyPoints = 1e6;
 constexpr double kMaxResampledPoints = 1e7;
 constexpr double kMaxSteps = 1e8;  // stop / max_step: a run the step bound alone makes endless
+constexpr std::size_t kMaxWaveformCorners = 10'000'000;  // waveform corners up to stop
 constexpr int kMaxHarmonics = 1000;
 constexpr int kMaxHeadroomRuns = 1000;
 // Two periods are the fewest that show whether a waveform repeats; 10 000 of
@@ -80,9 +81,27 @@ std::optional<Problem> check(const Circuit& circuit, const FrequencyOptions& o) 
   return std::nullopt;
 }
 
-std::optional<Problem> check(const Circuit&, const TransientOptions& o) {
+std::optional<Problem> check(const Circuit& circuit, const TransientOptions& o) {
   if (!positive_finite(o.stop))
     return problem("stop", "a transient's stop must be positive and finite");
+  // Every corner is a step the transient lands on, listed before it starts.
+  for (const Element& e : circuit.elements()) {
+    const auto* wave = std::visit(
+        [](const auto& data) -> const std::optional<Waveform>* {
+          if constexpr (requires { data.wave; }) {
+            return &data.wave;
+          } else {
+            return nullptr;
+          }
+        },
+        e.data);
+    if (wave != nullptr && wave->has_value() &&
+        waveform_corner_count(**wave, o.stop) > kMaxWaveformCorners) {
+      return problem("stop", "the waveform of '" + e.name + "' has more than " +
+                                 std::to_string(kMaxWaveformCorners) +
+                                 " corners up to stop; each is a step the transient must land on");
+    }
+  }
   if (!(o.from >= 0 && o.from < o.stop)) {
     return problem("from", "a transient's from must be at least 0 and before stop");
   }

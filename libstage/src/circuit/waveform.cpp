@@ -132,4 +132,23 @@ void waveform_corners(const Waveform& wave, double from, double to, std::vector<
   std::visit(Visitor{from, to, out}, wave);
 }
 
+double waveform_corner_count(const Waveform& wave, double to) {
+  struct Visitor {
+    double to;
+    double operator()(const SineWave&) const { return 1; }
+    double operator()(const PulseWave& w) const {
+      if (w.period <= 0) return 4;
+      return 4 * (std::max(0.0, to - w.delay) / w.period + 1);
+    }
+    double operator()(const PiecewiseWave& w) const {
+      const double points = static_cast<double>(w.points.size());
+      if (!w.repeat || w.points.size() < 2) return points;
+      const double span = w.points.back().first - w.points.front().first;
+      if (span <= 0) return points;
+      return points * (std::max(0.0, to - w.points.front().first) / span + 1);
+    }
+  };
+  return std::visit(Visitor{to}, wave);
+}
+
 }  // namespace stage

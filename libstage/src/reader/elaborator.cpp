@@ -17,6 +17,10 @@ namespace x3 = boost::spirit::x3;
 namespace {
 // Deeper block nesting than this is surely a mistake; it also bounds recursion.
 constexpr std::size_t kMaxBlockDepth = 50;
+// Blocks that instance others twice double at each level: a small file can
+// ask for more elements than any machine holds. Ten million elements, about
+// 3 GB, is more than three times the largest circuit the project measures.
+constexpr std::size_t kMaxExpandedElements = 10'000'000;
 
 Deck elaborate_with(std::shared_ptr<const SyntaxTree> tree, reader::Loader* loader,
                     const ReadOptions& options) {
@@ -246,6 +250,21 @@ void Elaborator::solver(const ast::Solver& solver, const Frame& frame) {
   }
 }
 
+std::size_t Elaborator::expanded_size(const std::string& block) {
+  if (const auto known = expanded_sizes_.find(block); known != expanded_sizes_.end())
+    return known->second;
+  expanded_sizes_[block] = 0;  // a block that contains itself fails where it is instanced
+  std::size_t size = 0;
+  for (const ast::Statement& statement : blocks_.at(block).second->body) {
+    const auto* instance = boost::get<ast::Instance>(&statement);
+    if (instance == nullptr) continue;
+    const std::size_t adds =
+        blocks_.count(instance->call.name) ? expanded_size(instance->call.name) : 1;
+    size = std::min(size + adds, kMaxExpandedElements + 1);  // saturates: never overflows
+  }
+  return expanded_sizes_[block] = size;
+}
+
 void Elaborator::instantiate_block(const ast::Instance& instance, const Frame& frame) {
   const auto& [file, block] = blocks_.at(instance.call.name);
   for (const std::string& active : frame.blocks) {
@@ -258,6 +277,13 @@ void Elaborator::instantiate_block(const ast::Instance& instance, const Frame& f
   }
   if (frame.blocks.size() >= kMaxBlockDepth) {
     fail(frame, instance.call.offset, "blocks are nested too deeply");
+  }
+  if (frame.blocks.empty() &&
+      deck_.circuit.elements().size() + expanded_size(block->name) > kMaxExpandedElements) {
+    fail(frame, instance.call.offset,
+         "expanding block '" + block->name + "' here makes more than " +
+             std::to_string(kMaxExpandedElements) +
+             " elements in the circuit; does a block instance others many times over?");
   }
   std::vector<std::string> names;  // ports, then parameters
   for (const ast::Name& port : block->ports) names.push_back(port.text);

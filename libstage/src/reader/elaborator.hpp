@@ -80,6 +80,10 @@ class Elaborator {
   reader::Value written_override(const std::string& name, const std::string& text,
                                  const reader::Value& replaced, const reader::Scope& scope) const;
   void instantiate_block(const ast::Instance& instance, const Frame& frame);
+  // The elements an instance of `block` expands to, from the definitions
+  // alone (so that a block that would make too many fails before it is
+  // expanded), saturating just above the limit.
+  std::size_t expanded_size(const std::string& block);
   void check_references();
   void check_sensed(const Reference& r) const;
   std::string node(const ast::Expr& e, const Frame& frame);
@@ -122,6 +126,7 @@ class Elaborator {
   reader::Scope globals_;
   std::set<std::string> used_overrides_;
   std::map<std::string, std::pair<const File*, const ast::Block*>> blocks_;
+  std::map<std::string, std::size_t> expanded_sizes_;  // memo of expanded_size()
   std::map<std::string, ModelEntry> models_;
   std::set<std::string> block_instances_;  // their hierarchical names
   std::set<std::string> port_nodes_;       // nodes given to block ports

@@ -106,7 +106,7 @@ bool is_plain(char c) {
   static constexpr auto kPlain = [] {
     std::array<bool, 256> plain{};
     for (int b = 1; b < 0x80; ++b) plain[b] = true;
-    for (const char special : std::string_view("\n\r#\"(){}")) {
+    for (const char special : std::string_view("\n\r#\"(){}^")) {
       plain[static_cast<unsigned char>(special)] = false;
     }
     return plain;
@@ -136,6 +136,9 @@ void SourceText::prepare() {
     int offset;
   };
   std::vector<Open> open;
+  // Each '^' costs the grammar a level, as a bracket does: the powers of
+  // one statement are bounded alike.
+  std::size_t powers = 0;
   bool in_comment = false, in_string = false;
   for (std::size_t i = 0; i < s.size();) {
     // Runs of bytes that need nothing (most of a text) are passed at once.
@@ -151,6 +154,7 @@ void SourceText::prepare() {
     if (c == '\n' && lines_++ % kLinesPerMark == 0) marks_.push_back(offset + 1);
     if (c == '\n' || c == '\r') {
       in_comment = in_string = false;
+      if (open.empty()) powers = 0;
       if (!open.empty()) replace(offset, 1, '\f');  // skipped, but ends a number's unit
     }
     if (c == '#' && !in_string) in_comment = true;
@@ -163,6 +167,9 @@ void SourceText::prepare() {
     }
     if (c == '"')
       in_string = true;
+    else if (c == '^' && ++powers > kMaxNesting)
+      fail(offset, "more than " + std::to_string(kMaxNesting) +
+                       " '^' in one statement; pow(…) or a let parameter can hold part of it");
     else if (c == '(' || c == '{') {
       if (open.size() >= kMaxNesting) {
         fail(offset, "brackets nested more than " + std::to_string(kMaxNesting) + " deep");

@@ -8,6 +8,10 @@
 namespace stage::reader {
 namespace {
 
+// Longer names are no typing slips a suggestion could mend, and the edit
+// distance costs the product of the lengths: beyond this, none is offered.
+constexpr std::size_t kLongestSuggested = 64;
+
 std::size_t edit_distance(std::string_view a, std::string_view b) {
   std::vector<std::size_t> row(b.size() + 1);
   std::iota(row.begin(), row.end(), 0);
@@ -27,9 +31,13 @@ std::size_t edit_distance(std::string_view a, std::string_view b) {
 
 std::vector<std::string> nearest_names(std::string_view written,
                                        const std::vector<std::string>& candidates) {
+  if (written.size() > kLongestSuggested) return {};
   const std::size_t limit = std::max<std::size_t>(2, (written.size() + 1) / 2);
   std::vector<std::pair<std::size_t, std::size_t>> ranked;  // (distance, index)
   for (std::size_t i = 0; i < candidates.size(); ++i) {
+    const std::size_t size = candidates[i].size();
+    // The distance is at least the difference of the lengths.
+    if (size > written.size() + limit || size + limit < written.size()) continue;
     const std::size_t d = edit_distance(written, candidates[i]);
     if (d <= limit) ranked.emplace_back(d, i);
   }
