@@ -3,6 +3,7 @@
 // and the quantity of the worst point.
 #include <gtest/gtest.h>
 
+#include <limits>
 #include <set>
 
 #include "curve_builders.hpp"
@@ -25,6 +26,17 @@ TEST(CurveCheck, ModelPassesItsOwnCurve) {
   const auto r = check_curve(gummel_reference(), {"truth", round_trip_npn()});
   EXPECT_TRUE(r.passed()) << r.summary();
   EXPECT_LT(r.worst_error, 1e-8);
+}
+
+// A point whose error is not a number (a reference value that is none, as a
+// curve built in code may hold) fails: a NaN is never within tolerance.
+TEST(CurveCheck, AnErrorThatIsNotANumberFails) {
+  Curve ref = gummel_reference();
+  ref.points[3].measured[0] = std::numeric_limits<double>::quiet_NaN();
+  const auto r = check_curve(ref, {"truth", round_trip_npn()});
+  EXPECT_FALSE(r.passed()) << r.summary();
+  EXPECT_EQ(r.failing_points, 1u);
+  EXPECT_EQ(r.worst.line, ref.points[3].line);
 }
 
 // IC is proportional to the saturation current in the ideal region

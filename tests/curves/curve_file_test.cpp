@@ -113,6 +113,12 @@ INSTANTIATE_TEST_SUITE_P(
                 "measure, collector_emitter_voltage, V\n"
                 "tolerance, collector_emitter_voltage, 5, %\n",
                 4, 42, "tolerance on a voltage is in V or mV"},
+        // 1e306 kV overflows once its unit is applied: it must not become an
+        // infinity that a check then compares as NaN and passes.
+        BadFile{"curve, saturation\nsweep, collector_current, A\n"
+                "measure, collector_emitter_voltage, kV\nhold, forced_beta, 10, 1\n"
+                "points\n1e-3, 1e306\n",
+                6, 7, "beyond the range of numbers"},
         BadFile{"curve, diode_forward\nlimits, 1, 2\n", 2, 1, "unknown key 'limits'"},
         BadFile{"curve, diode_forward\nsweep, forward_voltage, V\n"
                 "measure, forward_current, A\npoints\n",

@@ -95,13 +95,15 @@ CurveCheckResult compare_curves(const Curve& reference, const Curve& computed) {
       e.tolerance = tolerance;
       sum += e.error * e.error;
       ++count;
+      // A point whose error is not a number (a model that left its range)
+      // fails and is the worst: never within tolerance by default.
       const double over = std::abs(e.error) / tolerance;
-      if (over > r.worst_over_tolerance) {
+      if (std::isnan(over) || over > r.worst_over_tolerance) {
         r.worst_over_tolerance = over;
         r.worst = e;
       }
       r.worst_error = std::max(r.worst_error, std::abs(e.error));
-      if (over > 1) {
+      if (!(over <= 1)) {
         r.failing.push_back(e);
         point_failed[i] = true;
       }

@@ -131,6 +131,16 @@ class CurveParser {
     return value;
   }
 
+  // The number in SI units: one that overflows once its unit is applied
+  // (1e308 GV) is an error at its place, never an infinity.
+  double scaled(const Field& field, const curves::UnitScale& scale) const {
+    const double value = scale.to_si(number(field));
+    if (!std::isfinite(value)) {
+      fail(field, "'" + field.text + "' in its unit is beyond the range of numbers");
+    }
+    return value;
+  }
+
   void require_kind(const Field& field) const {
     if (!kind_seen_) fail(field, "the first line must be `curve, KIND`");
   }
@@ -271,7 +281,8 @@ class CurveParser {
                                       : "a tolerance on a voltage is in V or mV"));
     }
     const double value = number(fields[2]) * *scale;
-    if (!(value > 0)) fail(fields[2], "a tolerance must be positive");
+    if (!(value > 0 && std::isfinite(value)))
+      fail(fields[2], "a tolerance must be positive and finite");
     if (std::count_if(curve_.tolerances.begin(), curve_.tolerances.end(),
                       [&](const CurveTolerance& t) { return t.quantity == q; })) {
       fail(fields[1], "the tolerance on " + fields[1].text + " is given twice");
@@ -290,11 +301,11 @@ class CurveParser {
     p.line = line_number_;
     std::size_t k = 0;
     if (curve_.stepped) p.step = positive(fields[k++], *curve_.stepped, step_scale_);
-    p.swept = swept_scale_.to_si(number(fields[k++]));
+    p.swept = scaled(fields[k++], swept_scale_);
     for (std::size_t m = 0; m < curve_.measured.size(); ++m) {
       const CurveQuantity q = curve_.measured[m];
       p.measured.push_back(info(q).by_ratio ? positive(fields[k], q, measured_scale_[m])
-                                            : measured_scale_[m].to_si(number(fields[k])));
+                                            : scaled(fields[k], measured_scale_[m]));
       ++k;
     }
     curve_.points.push_back(std::move(p));
@@ -303,7 +314,7 @@ class CurveParser {
   // Ratio quantities are compared on a log scale, so they must be positive:
   // magnitudes, as for the mirrored npn.
   double positive(const Field& field, CurveQuantity q, const curves::UnitScale& scale) const {
-    const double value = scale.to_si(number(field));
+    const double value = scaled(field, scale);
     if (!(value > 0)) {
       fail(field, std::string(info(q).name) + " must be positive (give magnitudes, as for an npn)");
     }
