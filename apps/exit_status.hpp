@@ -2,11 +2,12 @@
 // the library's error kinds (spec section 8): 2 for what the user must fix
 // (the input, a request, an output file that could not be written; nothing
 // more ran), 3 for a circuit that could not be solved, 4 for a maximum
-// rating exceeded under --strict, 1 for anything else (a bug: please report
-// it).
+// rating exceeded under --strict, 5 for running out of memory, 1 for
+// anything else (a bug: please report it).
 #pragma once
 
 #include <iostream>
+#include <new>
 #include <stdexcept>
 
 #include "stage/errors.hpp"
@@ -17,6 +18,8 @@ inline constexpr int kExitNotSolved = 3;
 // `stage run --strict`: every analysis finished, and a device exceeded a
 // maximum rating of its model.
 inline constexpr int kExitRatingsExceeded = 4;
+// The machine ran out of memory: no bug, but no result either.
+inline constexpr int kExitOutOfMemory = 5;
 
 // No default: a kind left out here is a -Wswitch warning (an error in CI).
 constexpr int exit_status(stage::ErrorKind kind) {
@@ -54,6 +57,11 @@ int run_guarded(Command&& command) {
   } catch (const stage::Error& e) {
     print_error(std::cerr, e);
     return exit_status(e.kind());
+  } catch (const std::bad_alloc&) {
+    std::cerr << "error (out of memory): the circuit or what its analyses ask for needs more "
+                 "memory than this machine can give; fewer points, a shorter transient or a "
+                 "smaller circuit needs less\n";
+    return kExitOutOfMemory;
   } catch (const std::exception& e) {
     std::cerr << "internal error: " << e.what() << '\n';
     return kExitBug;

@@ -40,8 +40,8 @@ Examples:
 Exit status: 0 done, 2 error in the input (file, line and column are shown, nothing ran), a
 request that cannot be done as asked or an output that cannot be written, 3 the circuit could
 not be solved (the nodes or elements involved are named), 4 with --strict: everything ran but a
-device exceeds a maximum rating of its model, 1 a bug; every analysis that finished is still
-printed, and a failed one shows its error and error kind in its place.
+device exceeds a maximum rating of its model, 5 out of memory, 1 a bug; every analysis that
+finished is still printed, and a failed one shows its error and error kind in its place.
 Charts: --report and --plots draw with Vega-Lite, installed by `bash cmake/bootstrap.sh` (npm ci
 in report-bundles/); $STAGE_REPORT_BUNDLES names another folder where it is installed.
 Models: `include "transistors.stage"` finds files next to the circuit, then in $STAGE_MODEL_PATH

@@ -5,6 +5,7 @@
 #include <gtest/gtest.h>
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <filesystem>
 #include <fstream>
@@ -430,4 +431,20 @@ TEST(Command, StrictExitsFourWhenARatingIsExceeded) {
   ASSERT_EQ(exceeded.size(), 1u) << json.out;
   EXPECT_EQ(exceeded[0]["device"], "q1");
   EXPECT_EQ(exceeded[0]["limit"], 30.0);
+}
+
+// Running out of memory is no bug: its own status (5) and a message that
+// says so. Under an 800 MB address-space limit, reading /dev/zero (which
+// has no size to check first) runs out before the 1 GiB file limit.
+TEST(Command, OutOfMemoryHasItsOwnStatus) {
+  const std::string command =
+      "ulimit -v 800000; " + std::string(STAGE_BINARY_DIR) + "/apps/stage check /dev/zero 2>&1";
+  FILE* pipe = popen(command.c_str(), "r");
+  std::string out;
+  std::array<char, 4096> buffer{};
+  while (std::fgets(buffer.data(), buffer.size(), pipe) != nullptr) out += buffer.data();
+  const int raw = pclose(pipe);
+  ASSERT_TRUE(WIFEXITED(raw)) << out;
+  EXPECT_EQ(WEXITSTATUS(raw), 5) << out;
+  EXPECT_NE(out.find("out of memory"), std::string::npos) << out;
 }
