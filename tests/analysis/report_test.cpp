@@ -133,7 +133,7 @@ TEST(BiasReport, SweepCarriesDeviceFiguresAndTheSweptUnit) {
   EXPECT_EQ(first_line(csv.str()),
             "vin,out,x1/mid,base,vcc.current,q1.kind,q1.region,q1.collector_current,"
             "q1.base_current,q1.emitter_current,q1.vbe,q1.vce,q1.vbc,q1.gm,q1.r_pi,q1.r_out,"
-            "q1.c_pi,q1.c_mu,q1.c_cs,q1.power");
+            "q1.c_pi,q1.c_mu,q1.c_cs,q1.power,q1.rated_dissipation");
   EXPECT_NE(csv.str().find("\n0.7,5,0,0.7,-0.001,npn,forward_active,0.001,"), std::string::npos)
       << csv.str();
   const std::string header = table.str().substr(table.str().find("  vin"));

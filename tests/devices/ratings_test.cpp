@@ -86,6 +86,9 @@ TEST(Ratings, TransientCrossingSecondBreakdownIsFlaggedWithItsTime) {
   const auto run = stage::run_deck(stage::read_text(pulsed_stage(3.2), "pulsed.stage"));
   const auto& bias = std::get<stage::BiasResult>(run.analyses[0]);
   EXPECT_TRUE(bias.rating_violations.empty());  // the base sits at 0 V
+  // Beside the dissipation, its rating at the circuit's 27 °C, derated
+  // linearly from 25 °C: 10 W (150 - 27) / (150 - 25).
+  EXPECT_NEAR(bias.bipolars.front().rated_dissipation, 10.0 * 123 / 125, 1e-9);
   const auto& transient = std::get<stage::TransientResult>(run.analyses[1]);
   ASSERT_EQ(transient.rating_violations.size(), 1u);
   const auto& v = transient.rating_violations.front();

@@ -35,6 +35,9 @@ struct BipolarOperatingPoint {
   double r_out = 0;                     // dVCE/dIC (ohm), infinity without Early effect
   double c_pi = 0, c_mu = 0, c_cs = 0;  // B-E, B-C, C-S small-signal capacitances (F)
   double power = 0;                     // W dissipated
+  // The dissipation its model's ratings allow at the circuit temperature
+  // (derated, spec section 4 "Ratings"); infinity when not rated.
+  double rated_dissipation = kInfinity;
 };
 
 struct DiodeOperatingPoint {

@@ -326,6 +326,7 @@ class BipolarDevice final : public mna::Device {
     op.c_mu = q.cbc + q.cbx;
     op.c_cs = q.ccs;
     for (int t = kC; t <= kS; ++t) op.power += view.current[t] * x[t];
+    op.rated_dissipation = derated_dissipation(model_, at.temperature);
     out.bipolars.push_back(op);
   }
 

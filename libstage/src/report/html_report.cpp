@@ -5,6 +5,7 @@
 // inline, so the page opens offline; a script error is shown on the page and
 // counted on <html> (data-script-errors), and <html data-charts-rendered="n">
 // says when all n charts are drawn, for a browser test to read.
+#include <cmath>
 #include <fstream>
 #include <sstream>
 
@@ -165,11 +166,16 @@ void bias_tables(std::ostream& out, const BiasResult& b) {
   out << "</table>\n";
   if (!b.bipolars.empty()) {
     out << "<h3>Transistors</h3>\n<table>\n";
-    row(out, {"name", "region", "IC", "IB", "VBE", "VCE", "gm", "r_pi", "dissipation"}, "th");
+    row(out,
+        {"name", "region", "IC", "IB", "VBE", "VCE", "gm", "r_pi", "dissipation",
+         "rated (derated)"},
+        "th");
     for (const auto& q : b.bipolars) {
+      const std::string rated =
+          std::isinf(q.rated_dissipation) ? "not rated" : si(q.rated_dissipation, "W");
       row(out, {q.name, std::string(to_string(q.region)), si(q.collector_current, "A"),
                 si(q.base_current, "A"), si(q.vbe, "V"), si(q.vce, "V"), si(q.gm, "S"),
-                si(q.r_pi, "Ω"), si(q.power, "W")});
+                si(q.r_pi, "Ω"), si(q.power, "W"), rated});
     }
     out << "</table>\n";
   }

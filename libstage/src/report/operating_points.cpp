@@ -22,7 +22,8 @@ constexpr Figure<Q> kBipolarFigures[] = {{"collector_current", "IC", "A", &Q::co
                                          {"c_pi", "", "F", &Q::c_pi},
                                          {"c_mu", "", "F", &Q::c_mu},
                                          {"c_cs", "", "F", &Q::c_cs},
-                                         {"power", "power", "W", &Q::power}};
+                                         {"power", "power", "W", &Q::power},
+                                         {"rated_dissipation", "", "W", &Q::rated_dissipation}};
 
 using D = DiodeOperatingPoint;
 constexpr Word<D> kDiodeWords[] = {{"kind", "", [](const D&) { return std::string("diode"); }}};
