@@ -8,6 +8,7 @@
 #include <cmath>
 #include <string>
 
+#include "stage/characterize.hpp"
 #include "stage/reader.hpp"
 #include "stage/run.hpp"
 
@@ -152,6 +153,37 @@ TEST(Ratings, IncompleteRatingsAreInputErrors) {
       EXPECT_NE(std::string(e.what()).find("model 'm'"), std::string::npos) << e.what();
     }
   }
+}
+
+// The follower example with its transistor rated for 6 mA: biased at
+// 4.2 mA it is within the rating, but at full swing its collector current
+// swings along the AC load line to at least ICQ + A / R'ac (A the output's
+// fundamental, R'ac = 2.2 kohm || 32 ohm; textbook AC load line), more on
+// the side that does not clip, and the swing reports the excess.
+TEST(Ratings, CharacterizeSwingsAreChecked) {
+  const std::string text =
+      "include \"transistors.stage\"\n"
+      "model rated = power_npn { max_collector_current = 6 mA }\n"
+      "vpos = voltage(vpos, gnd, 12 V)\nvneg = voltage(vneg, gnd, -12 V)\n"
+      "vin = voltage(in, gnd, dc = 0 V, ac = 1 V)\ncin = capacitor(in, base, 10 uF)\n"
+      "rb = resistor(base, gnd, 47 kΩ)\nq1 = npn(vpos, base, emitter, model = rated)\n"
+      "re = resistor(emitter, vneg, 2.2 kΩ)\ncout = capacitor(emitter, out, 2200 uF)\n"
+      "rl = resistor(out, gnd, 32 Ω)\n"
+      "analyze characterize(input = vin, output = out, frequency = 1 kHz, load = rl)\n";
+  const auto run = stage::run_deck(stage::read_text(text, "rated_follower.stage"));
+  const auto& r = std::get<stage::CharacterizeResult>(run.analyses[0]);
+  EXPECT_TRUE(r.bias.rating_violations.empty());
+  ASSERT_TRUE(r.full_swing.has_value());
+  ASSERT_EQ(r.full_swing->rating_violations.size(), 1u);
+  const auto& v = r.full_swing->rating_violations.front();
+  EXPECT_EQ(v.quantity, "collector_current");
+  EXPECT_DOUBLE_EQ(v.limit, 6e-3);
+  const double r_ac = 2200.0 * 32 / (2200 + 32);
+  const double along_load_line =
+      r.bias.bipolars.front().collector_current + r.full_swing->output_amplitude / r_ac;
+  EXPECT_GT(along_load_line, 6e-3);
+  EXPECT_GE(v.value, along_load_line);
+  EXPECT_TRUE(run.exceeds_ratings());
 }
 
 }  // namespace

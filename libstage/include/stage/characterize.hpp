@@ -12,6 +12,7 @@
 #include "stage/bias.hpp"
 #include "stage/frequency.hpp"
 #include "stage/headroom.hpp"
+#include "stage/ratings.hpp"
 #include "stage/solver.hpp"
 
 namespace stage {
@@ -38,6 +39,9 @@ struct SwingPower {
   // stored_power shows the charge still moving; `unsettled` says by how much.
   bool settled = true;
   std::string unsettled;
+  // Maximum ratings exceeded at this drive (every accepted point of its
+  // run; spec section 4, "Ratings").
+  std::vector<RatingViolation> rating_violations;
 };
 
 struct CharacterizeResult {
@@ -55,6 +59,9 @@ struct CharacterizeResult {
   // side's shortfall): how clean the stage is before it compresses. Only
   // when a side reaches its limit.
   std::optional<SwingPower> limit_swing;
+
+  // Some bias point or swing exceeded a device's maximum rating.
+  bool exceeds_ratings() const;
 };
 
 // Throws an invalid_request Error for bad options and NumericalError when an

@@ -66,6 +66,7 @@ SwingPower swing_power(const Circuit& circuit, const analysis::SineDrive& drive,
   s.thd = m.thd;
   s.settled = m.settled;
   s.unsettled = m.unsettled;
+  s.rating_violations = m.transient.rating_violations;
   for (const auto& [name, absorbed] : m.element_power) {
     const Element* element = circuit.find(name);
     const auto plays = [&](kinds::Role role) {
@@ -173,6 +174,14 @@ CharacterizeResult run_characterize(const Circuit& circuit, const CharacterizeOp
     r.limit_swing = power_at(within, "within-limit");
   }
   return r;
+}
+
+bool CharacterizeResult::exceeds_ratings() const {
+  if (!bias.rating_violations.empty()) return true;
+  for (const auto* swing : {&half_swing, &full_swing, &limit_swing}) {
+    if (*swing && !(*swing)->rating_violations.empty()) return true;
+  }
+  return false;
 }
 
 }  // namespace stage

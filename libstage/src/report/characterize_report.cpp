@@ -6,6 +6,7 @@
 #include "common/constants.hpp"
 #include "report/bias_report.hpp"
 #include "report/headroom_report.hpp"
+#include "report/ratings_report.hpp"
 
 namespace stage::report {
 namespace {
@@ -13,17 +14,19 @@ namespace {
 Json optional_number(const std::optional<double>& v) { return v ? Json(*v) : Json(nullptr); }
 
 Json swing_json(const SwingPower& s) {
-  return Json{{"input_amplitude", s.input_amplitude},
-              {"output_amplitude", s.output_amplitude},
-              {"thd", s.thd},
-              {"supply_power_W", s.supply_power},
-              {"drive_power_W", s.drive_power},
-              {"load_power_W", s.load_power},
-              {"dissipation_W", s.dissipation},
-              {"stored_power_W", s.stored_power},
-              {"energy_residual", s.energy_residual},
-              {"efficiency", s.efficiency},
-              {"settled", s.settled}};
+  Json json{{"input_amplitude", s.input_amplitude},
+            {"output_amplitude", s.output_amplitude},
+            {"thd", s.thd},
+            {"supply_power_W", s.supply_power},
+            {"drive_power_W", s.drive_power},
+            {"load_power_W", s.load_power},
+            {"dissipation_W", s.dissipation},
+            {"stored_power_W", s.stored_power},
+            {"energy_residual", s.energy_residual},
+            {"efficiency", s.efficiency},
+            {"settled", s.settled}};
+  if (!s.rating_violations.empty()) json["ratings_exceeded"] = ratings_json(s.rating_violations);
+  return json;
 }
 
 std::string impedance_text(std::complex<double> z) {
@@ -91,6 +94,14 @@ void print_table(std::ostream& out, const CharacterizeResult& r) {
       if (*s && !(*s)->settled) {
         out << "  note: the " << name << " swing is approximate: " << (*s)->unsettled
             << "; a larger settle_periods lets it settle\n";
+      }
+    }
+    for (const auto& [name, s] : {std::pair{"half", &r.half_swing},
+                                  {"full", &r.full_swing},
+                                  {"within-limit", &r.limit_swing}}) {
+      if (*s && !(*s)->rating_violations.empty()) {
+        out << "\nAt the " << name << " swing:";
+        print_ratings(out, (*s)->rating_violations);
       }
     }
   }

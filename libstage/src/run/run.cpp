@@ -106,6 +106,8 @@ bool RunResult::exceeds_ratings() const {
         [](const auto& result) {
           if constexpr (requires { result.rating_violations; }) {
             return !result.rating_violations.empty();
+          } else if constexpr (requires { result.exceeds_ratings(); }) {
+            return result.exceeds_ratings();
           } else {
             return false;
           }
