@@ -51,8 +51,7 @@ SineDrive::SineDrive(const Circuit& circuit, const SolverOptions& solver, std::s
       settle_periods_(settle_periods),
       record_(std::move(record)),
       energy_ledger_(energy_ledger),
-      periods_(std::min(kFirstPeriods, settle_periods)),
-      newton_(SimulationAccess::system(simulation_), solver) {
+      periods_(std::min(kFirstPeriods, settle_periods)) {
   if (const Element* transistor = only_transistor(circuit)) {
     for (const auto& d : SimulationAccess::system(simulation_).devices()) {
       if (d->name() == transistor->name) transistor_ = d.get();
@@ -106,9 +105,8 @@ TransientResult SineDrive::run(double amplitude, int periods, const std::vector<
       }
     }
   };
-  TransientResult result =
-      start.empty() ? SimulationAccess::transient(simulation_, options, observer, {window})
-                    : integrate(newton_, options, observer, &start, {window});
+  TransientResult result = SimulationAccess::transient(simulation_, options, observer, {window},
+                                                       start.empty() ? nullptr : &start);
   // The peaks between the samples: the interpolant's extremes over the
   // steps from the first sample of the last period on (the output is the
   // first signal). The state stays the extreme sample's, for telling what

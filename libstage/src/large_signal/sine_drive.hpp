@@ -10,7 +10,6 @@
 #include <utility>
 #include <vector>
 
-#include "analysis/newton.hpp"
 #include "stage/circuit.hpp"
 #include "stage/headroom.hpp"
 #include "stage/signal.hpp"
@@ -102,9 +101,6 @@ class SineDrive {
   const mna::Device* transistor_ = nullptr;  // the circuit's only one, if it has one
   mutable int runs_ = 0;
   mutable int periods_;  // periods the last measurement needed to settle
-  // A Newton solver of the drive's own on the simulation's system, for the
-  // continued runs, which start from a state of their own.
-  mutable analysis::NewtonSolver newton_;
 };
 
 }  // namespace stage::analysis

@@ -157,9 +157,12 @@ const std::vector<double>& SimulationAccess::bias_point(Simulation& simulation) 
 
 TransientResult SimulationAccess::transient(Simulation& simulation, const TransientOptions& options,
                                             const analysis::StepObserver& observer,
-                                            const std::vector<double>& landings) {
-  const std::vector<double>* start =
-      options.start == TransientStart::bias ? &bias_point(simulation) : nullptr;
+                                            const std::vector<double>& landings,
+                                            const std::vector<double>* from) {
+  const std::vector<double>* start = from != nullptr ? from
+                                     : options.start == TransientStart::bias
+                                         ? &bias_point(simulation)
+                                         : nullptr;
   return analysis::integrate(simulation.state_->newton, options, observer, start, landings);
 }
 

@@ -16,10 +16,12 @@ struct SimulationAccess {
   // The operating point's unknowns (n + 1 entries), solved first if needed.
   static const std::vector<double>& bias_point(Simulation& simulation);
   // A transient on the simulation's solver; a bias start takes its
-  // operating point as solved. `landings` as in analysis::integrate.
+  // operating point as solved, unless `from` gives another state to start
+  // at (a run continued). `landings` as in analysis::integrate.
   static TransientResult transient(Simulation& simulation, const TransientOptions& options,
                                    const analysis::StepObserver& observer,
-                                   const std::vector<double>& landings = {});
+                                   const std::vector<double>& landings = {},
+                                   const std::vector<double>* from = nullptr);
 };
 
 }  // namespace stage
