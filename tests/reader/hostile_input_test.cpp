@@ -33,7 +33,7 @@ TEST(HostileInput, LongPowerChainsAreRefused) {
   EXPECT_NE(why.find("more than 100 '^' in one statement"), std::string::npos) << why;
   // A hundred are still read, and grouped to the right: 2^1^...^1 = 2.
   std::string hundred = "2";
-  for (int i = 0; i < 99; ++i) hundred += "^1";
+  for (int i = 0; i < 100; ++i) hundred += "^1";
   const auto deck = stage::read_text(
       "let x = " + hundred + "\nv1 = voltage(a, gnd, 1 V)\nr1 = resistor(a, gnd, x * 1k)\n",
       "ok.stage");

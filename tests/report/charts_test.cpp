@@ -6,6 +6,7 @@
 
 #include <gtest/gtest.h>
 
+#include <algorithm>
 #include <cmath>
 #include <numbers>
 #include <set>
@@ -37,6 +38,15 @@ const Json& find_layer(const Chart& chart, const std::string& name) {
 }
 
 const Json& rows(const Json& layer) { return layer["data"]["values"]; }
+
+// Whether a mark sits at exactly frequency f (the JSON's number) with
+// `label` in its text.
+bool marks_frequency(const Json& marks, double f, const std::string& label = "") {
+  return std::any_of(marks.begin(), marks.end(), [&](const Json& m) {
+    return m["frequency_Hz"] == f &&
+           (label.empty() || m["label"].get<std::string>().find(label) != std::string::npos);
+  });
+}
 
 // The follower example run once for every test here (its headroom search
 // takes a few dozen transient runs).
@@ -207,9 +217,7 @@ TEST(FrequencyCharts, CornerIsMarked) {
   const double corner = json["analyses"][0]["upper_cutoff_Hz"];
   const double fc = 1 / (2 * std::numbers::pi * 1e3 * 100e-9), f0 = 10;
   EXPECT_NEAR(corner, fc * std::sqrt(1 + 2 * (f0 / fc) * (f0 / fc)), 1e-6 * corner);
-  bool marked = false;
-  for (const auto& m : marks) marked = marked || m["frequency_Hz"] == corner;
-  EXPECT_TRUE(marked) << marks.dump();
+  EXPECT_TRUE(marks_frequency(marks, corner)) << marks.dump();
 }
 
 // The same low-pass behind an ideal amplifier of gain 10: |H| = 10 /
@@ -231,12 +239,7 @@ TEST(FrequencyCharts, UnityGainIsMarked) {
   const double fc = 1 / (2 * std::numbers::pi * 1e3 * 100e-9);
   EXPECT_NEAR(unity, fc * std::sqrt(99.0), 1e-6 * unity);
   const Json& marks = rows(find_layer(find_chart(charts, "1_frequency_gain"), "figures"));
-  bool marked = false;
-  for (const auto& m : marks) {
-    marked = marked || (m["frequency_Hz"] == unity &&
-                        m["label"].get<std::string>().find("unity gain") != std::string::npos);
-  }
-  EXPECT_TRUE(marked) << marks.dump();
+  EXPECT_TRUE(marks_frequency(marks, unity, "unity gain")) << marks.dump();
 }
 
 // A divider swept over its source: every node's voltage against the swept

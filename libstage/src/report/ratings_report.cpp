@@ -13,8 +13,6 @@ std::string_view unit_of(std::string_view quantity) {
   return "A";  // the collector current, also against the safe operating area
 }
 
-Json time_json(double t) { return std::isnan(t) ? Json(nullptr) : Json(t); }
-
 }  // namespace
 
 Json ratings_json(const std::vector<RatingViolation>& violations) {
@@ -25,9 +23,9 @@ Json ratings_json(const std::vector<RatingViolation>& violations) {
                {"unit", std::string(unit_of(v.quantity))},
                {"value", v.value},
                {"limit", v.limit}};
-    if (!std::isnan(v.first_time)) {
-      entry["first_time_s"] = time_json(v.first_time);
-      entry["worst_time_s"] = time_json(v.worst_time);
+    if (!std::isnan(v.first_time)) {  // a transient's; a bias point has no time
+      entry["first_time_s"] = v.first_time;
+      entry["worst_time_s"] = v.worst_time;
     }
     list.push_back(std::move(entry));
   }
